@@ -1,0 +1,4 @@
+# SPDX-License-Identifier: MIT
+from kit.cli import main
+
+main()

@@ -1,0 +1,52 @@
+# SPDX-License-Identifier: MIT
+"""The ``kit`` command line: a thin layer over the engine.
+
+Commands live in ``kit/commands/`` and are imported only when they run, so ``kit --help``
+starts without loading pint, openpyxl or the database layer. Each command turns the
+project's own errors into one line on stderr and exit status 2.
+"""
+
+from __future__ import annotations
+
+import importlib
+
+import click
+
+SAFETY = (
+    "CAUTION: steering gear works at high hydraulic pressure. Secure the rudder and release "
+    "pressure before opening any part of the gear. The maker's manual, class rules and SOLAS come "
+    "first; kit's figures are a planning aid and defer to local codes and licensed practice."
+)
+
+# command name -> (module, attribute, one-line summary shown in ``kit --help``)
+COMMANDS: dict[str, tuple[str, str, str]] = {
+    "calc": ("kit.commands.calc", "calc", "Work out seals, oil, filters, spares and checks for one vessel."),
+}
+
+
+class LazyGroup(click.Group):
+    """A group whose commands are imported on first use (keeps start-up light)."""
+
+    def list_commands(self, ctx: click.Context) -> list[str]:
+        return sorted(COMMANDS)
+
+    def get_command(self, ctx: click.Context, name: str) -> click.Command | None:
+        if name not in COMMANDS:
+            return None
+        module, attr, _ = COMMANDS[name]
+        return getattr(importlib.import_module(module), attr)
+
+    def format_commands(self, ctx: click.Context, formatter: click.HelpFormatter) -> None:
+        # Summaries come from COMMANDS so listing them imports nothing.
+        with formatter.section("Commands"):
+            formatter.write_dl([(name, COMMANDS[name][2]) for name in sorted(COMMANDS)])
+
+
+@click.group(cls=LazyGroup, epilog=SAFETY)
+@click.version_option(package_name="kit")
+def main() -> None:
+    """kit: seals, oil, filter elements and spares for ship steering gear and other shipboard
+    hydraulics, worked out from each unit's particulars.
+
+    Example: kit calc demo_fleet/corvina_bay.toml --days 90
+    """

@@ -1,0 +1,72 @@
+# SPDX-License-Identifier: MIT
+"""The project's own errors.
+
+Every error kit raises on bad input derives from :class:`KitError`, and also from the built-in
+type it resembles, so callers can catch either. Each carries structured fields and builds its
+one-line message in ``__str__``; the CLI prints that line and exits with status 2.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+
+class KitError(Exception):
+    """Base class of every error kit raises on purpose."""
+
+
+@dataclass
+class InputError(KitError, ValueError):
+    """A value in an input file is missing or not what was expected.
+
+    ``source`` is the file (and sheet or line where there is one), ``field`` the dotted path of the
+    field, ``expected`` says what would have been accepted, ``got`` what was found (optional).
+    """
+
+    source: str
+    field: str
+    expected: str
+    got: str | None = None
+
+    def __str__(self) -> str:
+        found = f" (got {self.got})" if self.got is not None else ""
+        where = f"{self.source}: " if self.source else ""
+        return f"{where}{self.field}: expected {self.expected}{found}"
+
+
+@dataclass
+class OutOfSeriesError(KitError, ValueError):
+    """A size lies past the largest (or below the smallest) entry of a standard series."""
+
+    series: str
+    value_mm: float
+    limit_mm: float
+
+    def __str__(self) -> str:
+        return (
+            f"{self.value_mm:g} mm lies outside {self.series} "
+            f"(limit {self.limit_mm:g} mm)"
+        )
+
+
+@dataclass
+class IncompatibleFluidError(KitError, ValueError):
+    """No seal compound in the table is compatible with the fluid."""
+
+    fluid: str
+    function: str
+
+    def __str__(self) -> str:
+        return f"no seal compound in the table is compatible with {self.fluid} for {self.function}"
+
+
+@dataclass
+class TableChecksumError(KitError, RuntimeError):
+    """A transcribed standard table no longer matches its recorded checksum."""
+
+    table: str
+    expected: str
+    actual: str
+
+    def __str__(self) -> str:
+        return f"data table {self.table} changed: sha256 {self.actual}, recorded {self.expected}"

@@ -1,0 +1,422 @@
+# SPDX-License-Identifier: MIT
+"""A vessel's particulars file (TOML) read into plain dataclasses in SI units.
+
+The file format is the scripting contract documented in the README. Every length, pressure,
+flow, volume and time is a string with a unit that pint parses; bare numbers are refused so
+that "280" can never be read as inches by one person and millimetres by another.
+
+All values in the dataclasses are SI floats: m, Pa, m^3/s, m^3, s, rad.
+"""
+
+from __future__ import annotations
+
+import math
+import tomllib
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+from kit.errors import InputError
+from kit.units import to_si
+
+SHIP_TYPES = ("cargo", "passenger", "tanker")
+ACTUATORS = ("ram", "rotary_vane", "cylinder")
+FLUID_CATEGORIES = ("HL", "HM", "HV", "HG", "HH", "HR", "HETG", "HEES", "HEPG", "HEPR", "HFC", "HFDR", "HFDU")
+
+# Plausibility limits: a value past these is a typing error, not a steering gear.
+MAX_DIAMETER_M = 2.0
+MAX_HOUSING_BORE_M = 6.0
+MAX_STROKE_M = 5.0
+MAX_PRESSURE_PA = 700e5
+MAX_RUDDER_ANGLE_RAD = math.radians(70)
+
+
+@dataclass(frozen=True)
+class Fluid:
+    """A hydraulic fluid by ISO 6743-4 category and ISO 3448 viscosity grade."""
+
+    category: str
+    grade: int
+
+    def __str__(self) -> str:
+        return f"{self.category} {self.grade}"
+
+
+@dataclass(frozen=True)
+class RamGeometry:
+    """Ram (plunger) gear with a Rapson slide: ram diameter, stroke, tiller radius at midships."""
+
+    ram_diameter: float
+    stroke: float
+    tiller_radius: float | None
+
+
+@dataclass(frozen=True)
+class CylinderGeometry:
+    """Double-acting cylinders: bore, rod, stroke and (for steering) the tiller radius."""
+
+    bore: float
+    rod: float
+    stroke: float
+    tiller_radius: float | None
+
+
+@dataclass(frozen=True)
+class VaneGeometry:
+    """Rotary vane actuator: moving vanes (fixed vanes are as many) and the chamber geometry."""
+
+    vanes: int
+    vane_height: float
+    housing_bore: float
+    hub_diameter: float
+    stock_diameter: float
+
+
+@dataclass(frozen=True)
+class FilterPosition:
+    position: str
+    elements: int
+    change_interval: float  # s
+    duty_hours_per_day: float = 24.0
+    element_ref: str | None = None
+
+
+@dataclass(frozen=True)
+class Pipe:
+    outside_diameter: float
+    wall: float
+    length: float
+
+    @property
+    def inside_diameter(self) -> float:
+        return self.outside_diameter - 2 * self.wall
+
+
+@dataclass(frozen=True)
+class StatedHousing:
+    """A seal housing as the maker's drawing gives it; it wins over the series."""
+
+    role: str
+    d: float
+    D: float
+    L: float
+
+
+@dataclass(frozen=True)
+class SolenoidCoils:
+    voltage: str
+    count: int
+
+
+@dataclass(frozen=True)
+class Hose:
+    bore: float
+    count: int
+
+
+@dataclass(frozen=True)
+class Unit:
+    id: str
+    service: str
+    actuator: str
+    count: int
+    working_pressure: float
+    fluid: Fluid
+    pumps: int
+    pump_flow: float
+    reservoir: float
+    geometry: RamGeometry | CylinderGeometry | VaneGeometry
+    max_rudder_angle: float | None = None
+    system_oil: float | None = None
+    oil_leakage: float | None = None
+    isolation_valves: bool = False
+    pump_model: str | None = None
+    valve_blocks: int = 1
+    filters: tuple[FilterPosition, ...] = ()
+    pipes: tuple[Pipe, ...] = ()
+    housings: tuple[StatedHousing, ...] = ()
+    solenoids: tuple[SolenoidCoils, ...] = ()
+    hoses: tuple[Hose, ...] = ()
+
+    @property
+    def is_steering(self) -> bool:
+        return self.service == "steering"
+
+
+@dataclass(frozen=True)
+class Vessel:
+    id: str
+    name: str
+    ship_type: str
+    gross_tonnage: float
+    units: tuple[Unit, ...]
+    company: str | None = None
+    source: str = ""
+
+
+# --- reading -------------------------------------------------------------------------------
+
+
+class _Reader:
+    """Reads one table of the file, remembering where it is for the error messages."""
+
+    def __init__(self, table: Any, source: str, path: str):
+        if not isinstance(table, dict):
+            raise InputError(source, path or "file", "a table", got=type(table).__name__)
+        self.table = table
+        self.source = source
+        self.path = path
+        self.used: set[str] = set()
+
+    def _name(self, key: str) -> str:
+        return f"{self.path}.{key}" if self.path else key
+
+    def has(self, key: str) -> bool:
+        return key in self.table
+
+    def raw(self, key: str, default: Any = ...) -> Any:
+        self.used.add(key)
+        if key not in self.table:
+            if default is ...:
+                raise InputError(self.source, self._name(key), "a value (field is required)", got="nothing")
+            return default
+        return self.table[key]
+
+    def text(self, key: str, default: Any = ..., choices: tuple[str, ...] | None = None) -> str:
+        value = self.raw(key, default)
+        if value is default and default is not ...:
+            return value
+        if not isinstance(value, str) or not value.strip():
+            raise InputError(self.source, self._name(key), "a non-empty string", got=repr(value))
+        value = value.strip()
+        if choices and value not in choices:
+            raise InputError(self.source, self._name(key), "one of " + ", ".join(choices), got=repr(value))
+        return value
+
+    def integer(self, key: str, default: Any = ..., minimum: int = 0) -> int:
+        value = self.raw(key, default)
+        if value is default and default is not ...:
+            return value
+        if isinstance(value, bool) or not isinstance(value, int) or value < minimum:
+            raise InputError(self.source, self._name(key), f"a whole number of at least {minimum}", got=repr(value))
+        return value
+
+    def number(self, key: str, default: Any = ..., minimum: float = 0.0) -> float:
+        value = self.raw(key, default)
+        if value is default and default is not ...:
+            return value
+        if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) or value < minimum:
+            raise InputError(self.source, self._name(key), f"a number of at least {minimum:g}", got=repr(value))
+        return float(value)
+
+    def quantity(self, key: str, kind: str, default: Any = ..., *, positive: bool = True,
+                 maximum: float | None = None, max_text: str = "") -> float:
+        value = self.raw(key, default)
+        if value is default and default is not ...:
+            return value
+        si = to_si(value, kind, source=self.source, field=self._name(key))
+        if positive and si <= 0:
+            raise InputError(self.source, self._name(key), f"a positive {kind}", got=repr(value))
+        if not positive and si < 0:
+            raise InputError(self.source, self._name(key), f"a {kind} of zero or more", got=repr(value))
+        if maximum is not None and si > maximum:
+            raise InputError(self.source, self._name(key), f"a {kind} of at most {max_text}", got=repr(value))
+        return si
+
+    def boolean(self, key: str, default: bool) -> bool:
+        value = self.raw(key, default)
+        if not isinstance(value, bool):
+            raise InputError(self.source, self._name(key), "true or false", got=repr(value))
+        return value
+
+    def tables(self, key: str) -> list[_Reader]:
+        value = self.raw(key, [])
+        if not isinstance(value, list):
+            raise InputError(self.source, self._name(key), "an array of tables ([[...]])", got=type(value).__name__)
+        return [_Reader(item, self.source, f"{self._name(key)}[{i}]") for i, item in enumerate(value)]
+
+    def finish(self) -> None:
+        """Refuse keys nobody read: a typo must not silently drop a value."""
+        unknown = sorted(set(self.table) - self.used)
+        if unknown:
+            raise InputError(self.source, self._name(unknown[0]), "a known field (see the README's particulars format)", got="an unknown field")
+
+
+def parse_fluid(text: str, source: str, field_name: str) -> Fluid:
+    """Parse ``"HM 46"``: ISO 6743-4 category then ISO 3448 grade."""
+    from kit.oil_grades import ISO_3448_GRADES
+
+    parts = text.replace("-", " ").split()
+    want = 'an ISO 6743-4 category and ISO 3448 grade, e.g. "HM 46"'
+    if len(parts) != 2 or parts[0].upper() not in FLUID_CATEGORIES:
+        raise InputError(source, field_name, want, got=repr(text))
+    grade_text = parts[1].upper().removeprefix("VG")
+    if not grade_text.isdigit() or int(grade_text) not in ISO_3448_GRADES:
+        raise InputError(source, field_name, "an ISO 3448 viscosity grade (e.g. 32, 46, 68)", got=repr(parts[1]))
+    return Fluid(parts[0].upper(), int(grade_text))
+
+
+def _geometry(r: _Reader, actuator: str, steering: bool) -> RamGeometry | CylinderGeometry | VaneGeometry:
+    dmax, dtext = MAX_DIAMETER_M, "2 m"
+    if actuator == "ram":
+        tiller = r.quantity("tiller_radius", "length", maximum=5.0, max_text="5 m") if steering else r.quantity("tiller_radius", "length", None)
+        return RamGeometry(
+            ram_diameter=r.quantity("ram_diameter", "length", maximum=dmax, max_text=dtext),
+            stroke=r.quantity("stroke", "length", maximum=MAX_STROKE_M, max_text="5 m"),
+            tiller_radius=tiller,
+        )
+    if actuator == "cylinder":
+        bore = r.quantity("bore", "length", maximum=dmax, max_text=dtext)
+        rod = r.quantity("rod", "length", maximum=dmax, max_text=dtext)
+        if rod >= bore:
+            raise InputError(r.source, r._name("rod"), "a rod diameter smaller than the bore", got=r.table.get("rod"))
+        tiller = r.quantity("tiller_radius", "length", maximum=5.0, max_text="5 m") if steering else r.quantity("tiller_radius", "length", None)
+        return CylinderGeometry(bore, rod, r.quantity("stroke", "length", maximum=MAX_STROKE_M, max_text="5 m"), tiller)
+    housing = r.quantity("housing_bore", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m")
+    hub = r.quantity("hub_diameter", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m")
+    stock = r.quantity("stock_diameter", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m")
+    if hub >= housing:
+        raise InputError(r.source, r._name("hub_diameter"), "a hub diameter smaller than the housing bore", got=r.table.get("hub_diameter"))
+    if stock >= hub:
+        raise InputError(r.source, r._name("stock_diameter"), "a stock diameter smaller than the hub diameter", got=r.table.get("stock_diameter"))
+    vanes = r.integer("vanes", minimum=1)
+    if vanes > 6:
+        raise InputError(r.source, r._name("vanes"), "1 to 6 moving vanes", got=repr(vanes))
+    return VaneGeometry(vanes, r.quantity("vane_height", "length", maximum=MAX_STROKE_M, max_text="5 m"), housing, hub, stock)
+
+
+def _unit(r: _Reader) -> Unit:
+    service = r.text("service")
+    steering = service == "steering"
+    actuator = r.text("actuator", choices=ACTUATORS)
+    count = r.integer("count", minimum=1)
+    if actuator == "rotary_vane" and count != 1:
+        raise InputError(r.source, r._name("count"), "1 for a rotary vane actuator", got=repr(count))
+    if steering and actuator in ("ram", "cylinder") and count % 2:
+        raise InputError(r.source, r._name("count"), "an even number of rams or cylinders on a steering gear (they work in pairs)", got=repr(count))
+    fluid = parse_fluid(r.text("fluid"), r.source, r._name("fluid"))
+    unit = Unit(
+        id=r.text("id"),
+        service=service,
+        actuator=actuator,
+        count=count,
+        max_rudder_angle=(r.quantity("max_rudder_angle", "angle", maximum=MAX_RUDDER_ANGLE_RAD, max_text="70 deg")
+                          if steering else r.quantity("max_rudder_angle", "angle", None)),
+        working_pressure=r.quantity("working_pressure", "pressure", maximum=MAX_PRESSURE_PA, max_text="700 bar"),
+        fluid=fluid,
+        pumps=r.integer("pumps", minimum=1),
+        pump_flow=r.quantity("pump_flow", "flow"),
+        reservoir=r.quantity("reservoir", "volume"),
+        system_oil=r.quantity("system_oil", "volume", None),
+        oil_leakage=r.quantity("oil_leakage", "flow", None, positive=False),
+        isolation_valves=r.boolean("isolation_valves", False),
+        pump_model=r.text("pump_model", None),
+        valve_blocks=r.integer("valve_blocks", 1, minimum=0),
+        geometry=_geometry(r, actuator, steering),
+        filters=tuple(_filter(f) for f in r.tables("filter")),
+        pipes=tuple(_pipe(p) for p in r.tables("pipe")),
+        housings=tuple(_housing(h) for h in r.tables("housing")),
+        solenoids=tuple(_solenoid(s) for s in r.tables("solenoid")),
+        hoses=tuple(_hose(h) for h in r.tables("hose")),
+    )
+    r.finish()
+    return unit
+
+
+def _filter(r: _Reader) -> FilterPosition:
+    duty = r.number("duty", 24.0)
+    if duty > 24:
+        raise InputError(r.source, r._name("duty"), "hours a day between 0 and 24", got=repr(duty))
+    f = FilterPosition(
+        position=r.text("position"),
+        elements=r.integer("elements", minimum=1),
+        change_interval=r.quantity("change_interval", "time"),
+        duty_hours_per_day=duty,
+        element_ref=r.text("element", None),
+    )
+    r.finish()
+    return f
+
+
+def _pipe(r: _Reader) -> Pipe:
+    p = Pipe(r.quantity("outside_diameter", "length", maximum=1.0, max_text="1 m"),
+             r.quantity("wall", "length"), r.quantity("length", "length", maximum=1000.0, max_text="1000 m"))
+    if p.inside_diameter <= 0:
+        raise InputError(r.source, r._name("wall"), "a wall thinner than half the outside diameter", got=r.table.get("wall"))
+    r.finish()
+    return p
+
+
+def _housing(r: _Reader) -> StatedHousing:
+    from kit.housings import STATED_ROLES
+
+    h = StatedHousing(r.text("role", choices=STATED_ROLES), r.quantity("d", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m"),
+                      r.quantity("D", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m"), r.quantity("L", "length", maximum=1.0, max_text="1 m"))
+    if h.d >= h.D:
+        raise InputError(r.source, r._name("d"), "d smaller than D", got=r.table.get("d"))
+    r.finish()
+    return h
+
+
+def _solenoid(r: _Reader) -> SolenoidCoils:
+    s = SolenoidCoils(r.text("voltage"), r.integer("count", minimum=1))
+    r.finish()
+    return s
+
+
+def _hose(r: _Reader) -> Hose:
+    h = Hose(r.quantity("bore", "length", maximum=0.5, max_text="500 mm"), r.integer("count", minimum=1))
+    r.finish()
+    return h
+
+
+def vessel_from_dict(data: Any, source: str = "") -> Vessel:
+    """Build a :class:`Vessel` from the parsed TOML document ``data``."""
+    top = _Reader(data, source, "")
+    company = None
+    if top.has("company"):
+        c = _Reader(top.raw("company"), source, "company")
+        company = c.text("name")
+        c.finish()
+    v = _Reader(top.raw("vessel"), source, "vessel")
+    vid = v.text("id")
+    name = v.text("name")
+    ship_type = v.text("ship_type", choices=SHIP_TYPES)
+    gt = v.number("gross_tonnage", minimum=1)
+    v.finish()
+    units = tuple(_unit(u) for u in top.tables("unit"))
+    if not units:
+        raise InputError(source, "unit", "at least one [[unit]] table", got="none")
+    seen: set[str] = set()
+    for i, u in enumerate(units):
+        if u.id in seen:
+            raise InputError(source, f"unit[{i}].id", "a unit id not used before in this file", got=repr(u.id))
+        seen.add(u.id)
+    top.finish()
+    return Vessel(vid, name, ship_type, gt, units, company, source)
+
+
+def load_vessel(path: str | Path) -> Vessel:
+    """Read and check one particulars file."""
+    path = Path(path)
+    source = str(path)
+    try:
+        raw = path.read_bytes()
+    except OSError as exc:
+        raise InputError(source, "file", "a readable particulars file", got=exc.strerror or str(exc)) from None
+    try:
+        data = tomllib.loads(raw.decode("utf-8"))
+    except UnicodeDecodeError:
+        raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(source, "file", "valid TOML", got=str(exc)) from None
+    return vessel_from_dict(data, source)
+
+
+def load_folder(folder: str | Path) -> list[Vessel]:
+    """Read every ``*.toml`` particulars file in ``folder`` (sorted by name)."""
+    folder = Path(folder)
+    files = sorted(folder.glob("*.toml"))
+    if not files:
+        raise InputError(str(folder), "folder", "at least one *.toml particulars file", got="none")
+    return [load_vessel(f) for f in files]
