@@ -1,0 +1,137 @@
+# SPDX-License-Identifier: MIT
+"""Where the fleet database is, and how to open it and write to it.
+
+The database is named by ``--db`` on the command line, else by the ``KIT_DB`` environment
+variable, else it is the SQLite file :func:`default_path` (``$XDG_DATA_HOME/kit/fleet.sqlite``,
+``~/.local/share/kit/fleet.sqlite`` when XDG_DATA_HOME is unset). A value with ``://`` is an
+SQLAlchemy URL (``sqlite:///...`` or ``postgresql+psycopg://user@host:5432/db``); anything else
+is a path to a SQLite file.
+
+SQLite is opened in WAL mode with a busy timeout, foreign keys on, and every transaction begun
+with ``BEGIN IMMEDIATE``, so two processes sharing one file queue for the write lock instead of
+failing half way. On both engines :func:`write_transaction` retries a transaction that lost a
+lock or serialisation race, and says so in one line when it keeps losing.
+"""
+
+from __future__ import annotations
+
+import os
+import time
+from pathlib import Path
+from typing import Callable, TypeVar
+
+from sqlalchemy import create_engine, event
+from sqlalchemy.engine import Connection, Engine, make_url
+from sqlalchemy.exc import ArgumentError, DBAPIError, OperationalError
+
+from catalog_schema.errors import BusyError, DatabaseError
+
+ENV_VAR = "KIT_DB"
+BUSY_TIMEOUT_MS = 30_000
+WRITE_ATTEMPTS = 6
+
+# PostgreSQL SQLSTATEs worth one more try: serialization_failure, deadlock_detected.
+_PG_RETRY_STATES = {"40001", "40P01"}
+
+T = TypeVar("T")
+
+
+def default_path() -> Path:
+    """The SQLite file used when neither ``--db`` nor ``KIT_DB`` names a database."""
+    base = os.environ.get("XDG_DATA_HOME") or str(Path.home() / ".local" / "share")
+    return Path(base) / "kit" / "fleet.sqlite"
+
+
+def resolve_url(db: str | None) -> str:
+    """Turn a ``--db`` value (URL or SQLite path; None for the default) into an SQLAlchemy URL."""
+    value = (db or os.environ.get(ENV_VAR) or "").strip()
+    if "://" in value:
+        return value
+    path = Path(value).expanduser() if value else default_path()
+    return f"sqlite:///{path.resolve()}"
+
+
+def shown(url: str) -> str:
+    """The URL as it may be printed: the password hidden."""
+    try:
+        return make_url(url).render_as_string(hide_password=True)
+    except ArgumentError:
+        return url
+
+
+def make_engine(url: str) -> Engine:
+    """Open an engine on ``url`` with the settings two processes need to share it."""
+    try:
+        parsed = make_url(url)
+    except ArgumentError:
+        raise DatabaseError(url, "not a database URL or path", "give a file path or e.g. postgresql+psycopg://user@host/db") from None
+    backend = parsed.get_backend_name()
+    if backend == "sqlite":
+        return _sqlite_engine(url, parsed.database)
+    if backend == "postgresql":
+        if parsed.get_driver_name() != "psycopg":
+            raise DatabaseError(shown(url), "PostgreSQL is reached through psycopg 3", "write the URL as postgresql+psycopg://...")
+        try:
+            return create_engine(url, pool_pre_ping=True)
+        except ImportError:
+            raise DatabaseError(shown(url), "psycopg is not installed", "pip install 'kit[postgres]'") from None
+    raise DatabaseError(shown(url), f"unsupported database {backend!r}", "use a SQLite file or postgresql+psycopg://")
+
+
+def _sqlite_engine(url: str, database: str | None) -> Engine:
+    if database and database != ":memory:":
+        Path(database).parent.mkdir(parents=True, exist_ok=True)
+    engine = create_engine(url, connect_args={"timeout": BUSY_TIMEOUT_MS / 1000})
+
+    @event.listens_for(engine, "connect")
+    def _on_connect(dbapi_connection, _record) -> None:  # type: ignore[no-untyped-def]
+        dbapi_connection.isolation_level = None  # SQLAlchemy's "begin" event issues BEGIN itself
+        cursor = dbapi_connection.cursor()
+        cursor.execute("PRAGMA journal_mode=WAL")
+        cursor.execute(f"PRAGMA busy_timeout={BUSY_TIMEOUT_MS}")
+        cursor.execute("PRAGMA foreign_keys=ON")
+        cursor.close()
+
+    @event.listens_for(engine, "begin")
+    def _on_begin(conn: Connection) -> None:
+        conn.exec_driver_sql("BEGIN IMMEDIATE")
+
+    return engine
+
+
+def _worth_retrying(exc: DBAPIError) -> bool:
+    state = getattr(exc.orig, "sqlstate", None)
+    if state in _PG_RETRY_STATES:
+        return True
+    text = str(exc.orig).lower()
+    return isinstance(exc, OperationalError) and ("database is locked" in text or "database is busy" in text)
+
+
+def write_transaction(engine: Engine, work: Callable[[Connection], T], attempts: int = WRITE_ATTEMPTS) -> T:
+    """Run ``work(conn)`` in one transaction: all of it is committed, or none of it.
+
+    A transaction that lost a lock or serialisation race is rolled back and run again, up to
+    ``attempts`` times; then :class:`BusyError`. Any other error rolls back and propagates.
+    """
+    for attempt in range(1, attempts + 1):
+        try:
+            with engine.begin() as conn:
+                return work(conn)
+        except DBAPIError as exc:
+            if not _worth_retrying(exc):
+                raise
+            if attempt == attempts:
+                raise BusyError(shown(str(engine.url)), f"another writer held it through {attempts} attempts",
+                                "try again when the other import has finished") from None
+            time.sleep(0.05 * attempt)
+    raise AssertionError("unreachable")
+
+
+def connect_check(engine: Engine) -> None:
+    """Open and close one connection, turning 'cannot reach' into a one-line error."""
+    try:
+        with engine.connect():
+            pass
+    except OperationalError as exc:
+        first = str(exc.orig).strip().splitlines()[0] if exc.orig else str(exc)
+        raise DatabaseError(shown(str(engine.url)), "cannot be opened", first) from None

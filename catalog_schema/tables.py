@@ -1,0 +1,273 @@
+# SPDX-License-Identifier: MIT
+"""The fleet database's tables (SQLModel), at the head revision of ``migrations/``.
+
+Lengths, pressures, flows, volumes and times are SI floats (m, Pa, m^3/s, m^3, s, rad), as in
+:mod:`kit.particulars`. Child rows of a unit (filters, pipes, housings, coils, hoses) are keyed
+by the unit and their order in the particulars file, so loading the same file again writes the
+same rows. Every constraint that guards the data is declared here and in the migrations, so the
+database refuses bad rows whichever program writes them.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+from typing import Optional
+
+from sqlalchemy import CheckConstraint, Column, ForeignKey, Integer, String, UniqueConstraint
+from sqlmodel import Field, SQLModel
+
+# Named constraints, so migrations can find and change them on every engine.
+NAMING = {
+    "ix": "ix_%(column_0_label)s",
+    "uq": "uq_%(table_name)s_%(column_0_N_name)s",
+    "ck": "ck_%(table_name)s_%(constraint_name)s",
+    "fk": "fk_%(table_name)s_%(column_0_name)s_%(referred_table_name)s",
+    "pk": "pk_%(table_name)s",
+}
+SQLModel.metadata.naming_convention = NAMING
+
+# The stock location of rows counted before locations were recorded (revision 0002).
+DEFAULT_LOCATION = "unassigned"
+
+
+def _unit_fk() -> Column:
+    return Column(Integer, ForeignKey("units.id", ondelete="CASCADE"), primary_key=True)
+
+
+class CompanyRow(SQLModel, table=True):
+    __tablename__ = "companies"
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    name: str = Field(sa_column_kwargs={"unique": True, "nullable": False})
+
+
+class VesselRow(SQLModel, table=True):
+    __tablename__ = "vessels"
+    __table_args__ = (
+        CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker')", name="ship_type"),
+        CheckConstraint("gross_tonnage >= 1", name="gross_tonnage"),
+    )
+
+    id: str = Field(primary_key=True)
+    name: str
+    ship_type: str
+    gross_tonnage: float
+    company_id: Optional[int] = Field(default=None, foreign_key="companies.id", ondelete="RESTRICT")
+    source: Optional[str] = None
+
+
+class UnitRow(SQLModel, table=True):
+    """A hydraulic unit on board (steering gear or other service), by its id in the particulars."""
+
+    __tablename__ = "units"
+    __table_args__ = (
+        UniqueConstraint("vessel_id", "ref"),
+        CheckConstraint("actuator IN ('ram', 'rotary_vane', 'cylinder')", name="actuator"),
+        CheckConstraint("count >= 1", name="count"),
+        CheckConstraint("working_pressure > 0", name="working_pressure"),
+        CheckConstraint("fluid_grade > 0", name="fluid_grade"),
+    )
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    vessel_id: str = Field(foreign_key="vessels.id", ondelete="CASCADE")
+    ref: str
+    seq: int
+    service: str
+    actuator: str
+    count: int
+    working_pressure: float
+    fluid_category: str
+    fluid_grade: int
+    max_rudder_angle: Optional[float] = None
+    isolation_valves: bool = False
+
+
+class ActuatorRow(SQLModel, table=True):
+    """Actuator geometry of a unit; the columns of its actuator type are filled, the rest null."""
+
+    __tablename__ = "actuators"
+    __table_args__ = (
+        CheckConstraint("stroke IS NULL OR stroke > 0", name="stroke"),
+        CheckConstraint("vanes IS NULL OR vanes >= 1", name="vanes"),
+    )
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    ram_diameter: Optional[float] = None
+    bore: Optional[float] = None
+    rod: Optional[float] = None
+    stroke: Optional[float] = None
+    tiller_radius: Optional[float] = None
+    vanes: Optional[int] = None
+    vane_height: Optional[float] = None
+    housing_bore: Optional[float] = None
+    hub_diameter: Optional[float] = None
+    stock_diameter: Optional[float] = None
+
+
+class PowerUnitRow(SQLModel, table=True):
+    """The pumps, reservoir and valve blocks that drive a unit."""
+
+    __tablename__ = "power_units"
+    __table_args__ = (
+        CheckConstraint("pumps >= 1", name="pumps"),
+        CheckConstraint("pump_flow > 0", name="pump_flow"),
+        CheckConstraint("reservoir > 0", name="reservoir"),
+        CheckConstraint("system_oil IS NULL OR system_oil > 0", name="system_oil"),
+        CheckConstraint("oil_leakage IS NULL OR oil_leakage >= 0", name="oil_leakage"),
+        CheckConstraint("valve_blocks >= 0", name="valve_blocks"),
+    )
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    pumps: int
+    pump_flow: float
+    reservoir: float
+    system_oil: Optional[float] = None
+    oil_leakage: Optional[float] = None
+    pump_model: Optional[str] = None
+    valve_blocks: int = 1
+
+
+class FilterPositionRow(SQLModel, table=True):
+    __tablename__ = "filter_positions"
+    __table_args__ = (
+        CheckConstraint("elements >= 1", name="elements"),
+        CheckConstraint("change_interval > 0", name="change_interval"),
+        CheckConstraint("duty_hours_per_day >= 0 AND duty_hours_per_day <= 24", name="duty"),
+    )
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    seq: int = Field(primary_key=True)
+    position: str
+    elements: int
+    change_interval: float
+    duty_hours_per_day: float = 24.0
+    element_ref: Optional[str] = None
+
+
+class PipeRow(SQLModel, table=True):
+    __tablename__ = "pipes"
+    __table_args__ = (CheckConstraint("wall > 0 AND outside_diameter > 2 * wall AND length > 0", name="sizes"),)
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    seq: int = Field(primary_key=True)
+    outside_diameter: float
+    wall: float
+    length: float
+
+
+class StatedHousingRow(SQLModel, table=True):
+    """A seal housing as the maker's drawing states it: bore d, outer D, length L (m)."""
+
+    __tablename__ = "stated_housings"
+    __table_args__ = (CheckConstraint("d_inner > 0 AND d_outer > d_inner AND length > 0", name="sizes"),)
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    seq: int = Field(primary_key=True)
+    role: str
+    d_inner: float
+    d_outer: float
+    length: float
+
+
+class SolenoidCoilRow(SQLModel, table=True):
+    __tablename__ = "solenoid_coils"
+    __table_args__ = (CheckConstraint("count >= 1", name="count"),)
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    seq: int = Field(primary_key=True)
+    voltage: str
+    count: int
+
+
+class HoseRow(SQLModel, table=True):
+    __tablename__ = "hoses"
+    __table_args__ = (CheckConstraint("bore > 0 AND count >= 1", name="sizes"),)
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    seq: int = Field(primary_key=True)
+    bore: float
+    count: int
+
+
+class PartRow(SQLModel, table=True):
+    """A generic part: one row per normalised key (:func:`kit.parts.part_key`)."""
+
+    __tablename__ = "parts"
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    key: str = Field(sa_column=Column(String, unique=True, nullable=False))
+    kind: str
+    designation: str
+    standard: Optional[str] = None
+
+
+class SupplierRow(SQLModel, table=True):
+    __tablename__ = "suppliers"
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    name: str = Field(sa_column_kwargs={"unique": True, "nullable": False})
+
+
+class CatalogueEntryRow(SQLModel, table=True):
+    """One line of a supplier's catalogue. ``part_id`` is null when it matched no generic part."""
+
+    __tablename__ = "catalogue_entries"
+    __table_args__ = (
+        UniqueConstraint("supplier_id", "supplier_ref"),
+        CheckConstraint("pack_qty >= 1", name="pack_qty"),
+        CheckConstraint("price IS NULL OR price >= 0", name="price"),
+        CheckConstraint("lead_time_days IS NULL OR lead_time_days >= 0", name="lead_time_days"),
+        CheckConstraint("length(currency) = 3", name="currency"),
+    )
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    supplier_id: int = Field(foreign_key="suppliers.id", ondelete="CASCADE")
+    supplier_ref: str
+    part_key: str = Field(index=True)
+    part_id: Optional[int] = Field(default=None, foreign_key="parts.id", ondelete="SET NULL")
+    description: Optional[str] = None
+    pack_qty: int = 1
+    price: Optional[float] = None
+    currency: str
+    lead_time_days: Optional[int] = None
+
+
+class StockRow(SQLModel, table=True):
+    """On-board stock of one generic part at one location on one vessel."""
+
+    __tablename__ = "stock"
+    __table_args__ = (
+        UniqueConstraint("vessel_id", "part_id", "location"),
+        CheckConstraint("quantity >= 0", name="quantity"),
+    )
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    vessel_id: str = Field(foreign_key="vessels.id", ondelete="CASCADE")
+    part_id: int = Field(foreign_key="parts.id", ondelete="RESTRICT")
+    location: str = Field(default=DEFAULT_LOCATION, sa_column_kwargs={"server_default": DEFAULT_LOCATION})
+    quantity: float
+    counted_on: Optional[dt.date] = None
+
+
+class SparesPolicyRow(SQLModel, table=True):
+    """The spares policy in force for a whole company or for one vessel, from a date.
+
+    Exactly one of ``company_id`` and ``vessel_id`` is set; a vessel's own policy wins over its
+    company's. (Added in revision 0002.)
+    """
+
+    __tablename__ = "spares_policies"
+    __table_args__ = (
+        CheckConstraint("(company_id IS NULL) <> (vessel_id IS NULL)", name="one_scope"),
+        CheckConstraint("cover_days >= 0", name="cover_days"),
+        UniqueConstraint("company_id", "in_force_from"),
+        UniqueConstraint("vessel_id", "in_force_from"),
+    )
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    company_id: Optional[int] = Field(default=None, foreign_key="companies.id", ondelete="CASCADE")
+    vessel_id: Optional[str] = Field(default=None, foreign_key="vessels.id", ondelete="CASCADE")
+    name: str
+    cover_days: int
+    in_force_from: dt.date
+    note: Optional[str] = None
