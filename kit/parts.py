@@ -68,3 +68,4 @@ class LineItem:
     compound: str = ""
     origin: str = ""
     note: str = ""
+    part: str = ""  # what the part is on the unit, e.g. "ram gland rod seal"

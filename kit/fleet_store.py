@@ -1,0 +1,192 @@
+# SPDX-License-Identifier: MIT
+"""Vessels and their units in the fleet database: save (idempotent upsert) and read back.
+
+:func:`save_vessels` writes :class:`kit.particulars.Vessel` objects keyed by the vessel id and,
+within a vessel, the unit id: loading the same particulars again rewrites identical rows, a unit
+dropped from the file is dropped from the database, and stock of the vessel is left alone.
+:func:`read_vessels` rebuilds the same dataclasses, so a round trip compares equal.
+"""
+
+from __future__ import annotations
+
+from typing import Iterable
+
+from sqlalchemy import delete, insert, select, update
+from sqlalchemy.engine import Connection
+
+from catalog_schema.sql import upsert
+from catalog_schema.tables import (
+    ActuatorRow,
+    CompanyRow,
+    FilterPositionRow,
+    HoseRow,
+    PipeRow,
+    PowerUnitRow,
+    SolenoidCoilRow,
+    StatedHousingRow,
+    UnitRow,
+    VesselRow,
+)
+from kit.particulars import (
+    CylinderGeometry,
+    FilterPosition,
+    Fluid,
+    Hose,
+    Pipe,
+    RamGeometry,
+    SolenoidCoils,
+    StatedHousing,
+    Unit,
+    VaneGeometry,
+    Vessel,
+)
+
+VESSELS = VesselRow.__table__
+COMPANIES = CompanyRow.__table__
+UNITS = UnitRow.__table__
+ACTUATORS = ActuatorRow.__table__
+POWER_UNITS = PowerUnitRow.__table__
+FILTERS = FilterPositionRow.__table__
+PIPES = PipeRow.__table__
+HOUSINGS = StatedHousingRow.__table__
+COILS = SolenoidCoilRow.__table__
+HOSES = HoseRow.__table__
+
+# Child tables of a unit: table -> (rows of a unit as dicts, a row back to its dataclass).
+_CHILDREN = {
+    "filters": (FILTERS, lambda u: [
+        {"position": f.position, "elements": f.elements, "change_interval": f.change_interval,
+         "duty_hours_per_day": f.duty_hours_per_day, "element_ref": f.element_ref} for f in u.filters],
+        lambda r: FilterPosition(r.position, r.elements, r.change_interval, r.duty_hours_per_day, r.element_ref)),
+    "pipes": (PIPES, lambda u: [{"outside_diameter": p.outside_diameter, "wall": p.wall, "length": p.length} for p in u.pipes],
+              lambda r: Pipe(r.outside_diameter, r.wall, r.length)),
+    "housings": (HOUSINGS, lambda u: [{"role": h.role, "d_inner": h.d, "d_outer": h.D, "length": h.L} for h in u.housings],
+                 lambda r: StatedHousing(r.role, r.d_inner, r.d_outer, r.length)),
+    "solenoids": (COILS, lambda u: [{"voltage": s.voltage, "count": s.count} for s in u.solenoids],
+                  lambda r: SolenoidCoils(r.voltage, r.count)),
+    "hoses": (HOSES, lambda u: [{"bore": h.bore, "count": h.count} for h in u.hoses], lambda r: Hose(r.bore, r.count)),
+}
+
+_GEOMETRY_COLUMNS = ("ram_diameter", "bore", "rod", "stroke", "tiller_radius", "vanes", "vane_height",
+                     "housing_bore", "hub_diameter", "stock_diameter")
+
+
+def company_id(conn: Connection, name: str | None) -> int | None:
+    """The id of the company called ``name``, added if new (None for no company)."""
+    if name is None:
+        return None
+    conn.execute(upsert(conn, COMPANIES, ["name"]), [{"name": name}])
+    return conn.execute(select(COMPANIES.c.id).where(COMPANIES.c.name == name)).scalar_one()
+
+
+def _unit_row(u: Unit, seq: int) -> dict:
+    return {
+        "ref": u.id, "seq": seq, "service": u.service, "actuator": u.actuator, "count": u.count,
+        "working_pressure": u.working_pressure, "fluid_category": u.fluid.category, "fluid_grade": u.fluid.grade,
+        "max_rudder_angle": u.max_rudder_angle, "isolation_valves": u.isolation_valves,
+    }
+
+
+def _geometry_row(u: Unit) -> dict:
+    g = u.geometry
+    row = dict.fromkeys(_GEOMETRY_COLUMNS)
+    if isinstance(g, RamGeometry):
+        row.update(ram_diameter=g.ram_diameter, stroke=g.stroke, tiller_radius=g.tiller_radius)
+    elif isinstance(g, CylinderGeometry):
+        row.update(bore=g.bore, rod=g.rod, stroke=g.stroke, tiller_radius=g.tiller_radius)
+    else:
+        row.update(vanes=g.vanes, vane_height=g.vane_height, housing_bore=g.housing_bore,
+                   hub_diameter=g.hub_diameter, stock_diameter=g.stock_diameter)
+    return row
+
+
+def _power_row(u: Unit) -> dict:
+    return {"pumps": u.pumps, "pump_flow": u.pump_flow, "reservoir": u.reservoir, "system_oil": u.system_oil,
+            "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks}
+
+
+def save_vessel(conn: Connection, vessel: Vessel) -> None:
+    """Insert or update one vessel and its units, inside the caller's transaction."""
+    row = {"id": vessel.id, "name": vessel.name, "ship_type": vessel.ship_type, "gross_tonnage": vessel.gross_tonnage,
+           "company_id": company_id(conn, vessel.company), "source": vessel.source or None}
+    conn.execute(upsert(conn, VESSELS, ["id"], update=[c for c in row if c != "id"]), [row])
+
+    existing = dict(conn.execute(select(UNITS.c.ref, UNITS.c.id).where(UNITS.c.vessel_id == vessel.id)).all())
+    wanted = {u.id for u in vessel.units}
+    gone = [uid for ref, uid in existing.items() if ref not in wanted]
+    if gone:
+        conn.execute(delete(UNITS).where(UNITS.c.id.in_(gone)))
+    unit_ids: list[int] = []
+    for seq, unit in enumerate(vessel.units):
+        values = _unit_row(unit, seq)
+        if unit.id in existing:
+            uid = existing[unit.id]
+            conn.execute(update(UNITS).where(UNITS.c.id == uid).values(**values))
+        else:
+            uid = conn.execute(insert(UNITS).values(vessel_id=vessel.id, **values).returning(UNITS.c.id)).scalar_one()
+        unit_ids.append(uid)
+
+    tables = [ACTUATORS, POWER_UNITS] + [t for t, _, _ in _CHILDREN.values()]
+    for table in tables:
+        conn.execute(delete(table).where(table.c.unit_id.in_(unit_ids)))
+    conn.execute(insert(ACTUATORS), [{"unit_id": uid, **_geometry_row(u)} for uid, u in zip(unit_ids, vessel.units)])
+    conn.execute(insert(POWER_UNITS), [{"unit_id": uid, **_power_row(u)} for uid, u in zip(unit_ids, vessel.units)])
+    for table, rows_of, _ in _CHILDREN.values():
+        rows = [{"unit_id": uid, "seq": i, **r} for uid, u in zip(unit_ids, vessel.units) for i, r in enumerate(rows_of(u))]
+        if rows:
+            conn.execute(insert(table), rows)
+
+
+def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
+    """Save every vessel in the caller's transaction; return their ids."""
+    ids = []
+    for vessel in vessels:
+        save_vessel(conn, vessel)
+        ids.append(vessel.id)
+    return ids
+
+
+def vessel_ids(conn: Connection) -> list[str]:
+    return list(conn.execute(select(VESSELS.c.id).order_by(VESSELS.c.id)).scalars())
+
+
+def _geometry(actuator: str, g) -> RamGeometry | CylinderGeometry | VaneGeometry:
+    if actuator == "ram":
+        return RamGeometry(g.ram_diameter, g.stroke, g.tiller_radius)
+    if actuator == "cylinder":
+        return CylinderGeometry(g.bore, g.rod, g.stroke, g.tiller_radius)
+    return VaneGeometry(g.vanes, g.vane_height, g.housing_bore, g.hub_diameter, g.stock_diameter)
+
+
+def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Vessel]:
+    """Rebuild vessels (all, or those in ``ids``) from the database, sorted by id."""
+    query = select(VESSELS, COMPANIES.c.name.label("company")).outerjoin(COMPANIES, VESSELS.c.company_id == COMPANIES.c.id)
+    if ids is not None:
+        query = query.where(VESSELS.c.id.in_(list(ids)))
+    vessel_rows = conn.execute(query.order_by(VESSELS.c.id)).all()
+    wanted = [v.id for v in vessel_rows]
+    unit_rows = conn.execute(select(UNITS).where(UNITS.c.vessel_id.in_(wanted)).order_by(UNITS.c.vessel_id, UNITS.c.seq)).all()
+    uids = [u.id for u in unit_rows]
+
+    def by_unit(table) -> dict[int, list]:
+        found: dict[int, list] = {}
+        order = [table.c.unit_id] + ([table.c.seq] if "seq" in table.c else [])
+        for r in conn.execute(select(table).where(table.c.unit_id.in_(uids)).order_by(*order)):
+            found.setdefault(r.unit_id, []).append(r)
+        return found
+
+    geometry, power = by_unit(ACTUATORS), by_unit(POWER_UNITS)
+    children = {name: (by_unit(table), back) for name, (table, _, back) in _CHILDREN.items()}
+    units_of: dict[str, list[Unit]] = {}
+    for u in unit_rows:
+        p = power[u.id][0]
+        units_of.setdefault(u.vessel_id, []).append(Unit(
+            id=u.ref, service=u.service, actuator=u.actuator, count=u.count, working_pressure=u.working_pressure,
+            fluid=Fluid(u.fluid_category, u.fluid_grade), pumps=p.pumps, pump_flow=p.pump_flow, reservoir=p.reservoir,
+            geometry=_geometry(u.actuator, geometry[u.id][0]), max_rudder_angle=u.max_rudder_angle,
+            system_oil=p.system_oil, oil_leakage=p.oil_leakage, isolation_valves=bool(u.isolation_valves),
+            pump_model=p.pump_model, valve_blocks=p.valve_blocks,
+            **{name: tuple(back(r) for r in rows.get(u.id, [])) for name, (rows, back) in children.items()},
+        ))
+    return [Vessel(v.id, v.name, v.ship_type, v.gross_tonnage, tuple(units_of.get(v.id, ())), v.company, v.source or "")
+            for v in vessel_rows]

@@ -1,0 +1,102 @@
+# SPDX-License-Identifier: MIT
+"""Oil quantities: system charge, storage-tank minimum, voyage top-up, and packages to buy.
+
+Volumes in m^3 inside; the report shows litres, kilograms and US gallons.
+
+* System charge: stated in the particulars (``system_oil``), or the reservoir plus the oil in the
+  actuators plus the pipes, pi/4 d_i^2 L each.
+* Storage tank minimum: one power actuating system including its reservoir (SOLAS II-1/29.12.3).
+* Voyage top-up: the leakage rate times the period.
+* Packages: the smallest number of packages whose volume covers the need and overshoots it by
+  less than the smallest package, so supply is never short and never wasteful by a whole package.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from itertools import product
+
+from kit.particulars import Pipe, Unit
+from kit.physics import actuator_oil_volume
+
+L_PER_M3 = 1000.0
+US_GAL_PER_M3 = 1 / 0.003785411784  # NIST SP 811: 1 US gal = 3.785411784 L
+
+
+@dataclass(frozen=True)
+class Package:
+    name: str
+    volume: float  # m^3
+
+
+def pipe_volume(pipe: Pipe) -> float:
+    """Oil in a pipe: pi/4 d_i^2 L [m^3], d_i = outside diameter - 2 wall."""
+    return math.pi / 4 * pipe.inside_diameter**2 * pipe.length
+
+
+def system_charge(unit: Unit) -> tuple[float, str]:
+    """System charge [m^3] of one power actuating system and where the figure came from."""
+    if unit.system_oil is not None:
+        return unit.system_oil, "stated"
+    total = unit.reservoir + actuator_oil_volume(unit) + sum(pipe_volume(p) for p in unit.pipes)
+    how = "reservoir + actuators + pipes" if unit.pipes else "reservoir + actuators (no pipes given)"
+    return total, how
+
+
+def top_up(leakage_m3_per_s: float | None, days: float) -> float:
+    """Oil lost to leakage over ``days`` [m^3]."""
+    return (leakage_m3_per_s or 0.0) * days * 86400.0
+
+
+@dataclass(frozen=True)
+class PackagePlan:
+    need: float
+    counts: tuple[tuple[Package, int], ...]
+
+    @property
+    def supply(self) -> float:
+        return sum(p.volume * n for p, n in self.counts)
+
+    @property
+    def packages(self) -> int:
+        return sum(n for _, n in self.counts)
+
+
+def plan_packages(need: float, packages: list[Package]) -> PackagePlan:
+    """Fewest packages with need <= supply < need + smallest package.
+
+    Every count of the larger packages up to what alone would cover the need is tried; the
+    smallest package makes up the rest (rounded up), which keeps the overshoot below its size.
+    Among plans with the fewest packages the one with least overshoot wins.
+
+    >>> pails, drums = Package("pail", 0.020), Package("drum", 0.208)
+    >>> plan = plan_packages(0.410, [pails, drums])
+    >>> [(p.name, n) for p, n in plan.counts]
+    [('drum', 2)]
+    """
+    if need < 0 or not packages:
+        raise ValueError("need must be >= 0 and at least one package given")
+    ordered = sorted(packages, key=lambda p: p.volume)
+    smallest, larger = ordered[0], ordered[1:]
+    if need <= 0:
+        return PackagePlan(0.0, tuple((p, 0) for p in reversed(ordered)))
+    ranges = [range(math.ceil(need / p.volume) + 1) for p in larger]
+    best: tuple[int, float, tuple[int, ...], int] | None = None
+    eps = 1e-12
+    for counts in product(*ranges):
+        covered = sum(n * p.volume for n, p in zip(counts, larger))
+        if covered - need >= smallest.volume - eps:
+            continue
+        small = max(0, math.ceil((need - covered) / smallest.volume - eps))
+        supply = covered + small * smallest.volume
+        over = supply - need
+        if over < -eps or over >= smallest.volume - eps:
+            continue
+        key = (sum(counts) + small, over, counts, small)
+        if best is None or key[:2] < best[:2]:
+            best = key
+    assert best is not None  # all-smallest always qualifies
+    _, _, counts, small = best
+    plan = [(p, n) for p, n in zip(larger, counts)] + [(smallest, small)]
+    return PackagePlan(need, tuple(sorted(plan, key=lambda pn: -pn[0].volume)))

@@ -1,0 +1,118 @@
+# SPDX-License-Identifier: MIT
+"""Steering gear physics: torque at the relief setting, oil swept, swing time, ram travel.
+
+All inputs and outputs in SI (Pa, m, m^2, m^3, m^3/s, rad, N m, s).
+
+Torque is the work the oil does per radian of rudder movement, T = p dV/dtheta, so each
+actuator's torque and the oil its pressurised chambers take come from one displacement
+function x(theta):
+
+* Ram gear with a Rapson slide: the ram moves x = R tan(theta) (R the tiller radius at
+  midships), k = count / 2 rams are pressurised at once, so V(theta) = k A R tan(theta) and
+  T(theta) = k p A R / cos^2(theta).
+* Rotary vane: each of the ``vanes`` pressurised chambers sweeps h (R^2 - r^2) / 2 per radian
+  (R = housing bore / 2, r = hub / 2), so T = p vanes h (R^2 - r^2) / 2 at every angle.
+* Trunnion cylinders: each cylinder is pinned to the tiller at radius R and swings on its
+  trunnion. Taking the cylinder long against the tiller (its axis keeps its midships direction)
+  the piston moves x = R sin(theta); of every pair one cylinder pushes on its full bore and the
+  other pulls on its annulus, so V(theta) = (count / 2) (A_bore + A_annulus) R sin(theta) and
+  T(theta) = (count / 2) p (A_bore + A_annulus) R cos(theta).
+
+Swing time from angle a one side to angle b the other side is the oil taken,
+V(a) + V(b), over the delivered flow.
+
+References
+----------
+Rapson slide torque and the 1/cos^2 law: any marine engineering text on steering gear, e.g.
+D. A. Taylor, Introduction to Marine Engineering, 2nd ed., ch. 12 (from memory).
+T = p dV/dtheta: conservation of energy for an ideal (lossless) actuator.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Callable
+
+from kit.particulars import CylinderGeometry, RamGeometry, Unit, VaneGeometry
+from kit.series import circle_area
+
+
+@dataclass(frozen=True)
+class Actuation:
+    """How an actuator turns the rudder: displaced volume V(theta) and torque T(theta, p)."""
+
+    volume: Callable[[float], float]
+    torque: Callable[[float, float], float]
+
+
+def ram_actuation(g: RamGeometry, count: int) -> Actuation:
+    """Rapson slide: V = k A R tan(theta), T = k p A R / cos^2(theta), k = count / 2."""
+    k = count / 2
+    a = circle_area(g.ram_diameter)
+    r = g.tiller_radius
+    return Actuation(lambda th: k * a * r * math.tan(th), lambda th, p: k * p * a * r / math.cos(th) ** 2)
+
+
+def vane_swept_per_radian(g: VaneGeometry) -> float:
+    """Volume the pressurised chambers take per radian: vanes h (R^2 - r^2) / 2 [m^3/rad]."""
+    big_r, small_r = g.housing_bore / 2, g.hub_diameter / 2
+    return g.vanes * g.vane_height * (big_r**2 - small_r**2) / 2
+
+
+def vane_actuation(g: VaneGeometry) -> Actuation:
+    """Rotary vane: V = vanes h (R^2 - r^2) / 2 x theta, T = p vanes h (R^2 - r^2) / 2."""
+    q = vane_swept_per_radian(g)
+    return Actuation(lambda th: q * abs(th), lambda th, p: p * q)
+
+
+def cylinder_actuation(g: CylinderGeometry, count: int) -> Actuation:
+    """Trunnion cylinders in pairs: V = n (A_b + A_a) R sin(theta), T = n p (A_b + A_a) R cos(theta)."""
+    n = count / 2
+    area = circle_area(g.bore) + (circle_area(g.bore) - circle_area(g.rod))
+    r = g.tiller_radius
+    return Actuation(lambda th: n * area * r * math.sin(th), lambda th, p: n * p * area * r * math.cos(th))
+
+
+def actuation(unit: Unit) -> Actuation:
+    g = unit.geometry
+    if isinstance(g, RamGeometry):
+        return ram_actuation(g, unit.count)
+    if isinstance(g, VaneGeometry):
+        return vane_actuation(g)
+    return cylinder_actuation(g, unit.count)
+
+
+def swing_volume(act: Actuation, from_angle: float, to_angle: float) -> float:
+    """Oil [m^3] the pressurised chambers take to swing from ``from_angle`` one side to ``to_angle`` the other."""
+    return act.volume(from_angle) + act.volume(to_angle)
+
+
+def swing_time(volume: float, flow: float) -> float:
+    """Time [s] to deliver ``volume`` [m^3] at ``flow`` [m^3/s]."""
+    return volume / flow
+
+
+def ram_travel(tiller_radius: float, max_angle: float) -> float:
+    """Total ram travel 2 R tan(theta_max) of a Rapson slide between hard-over angles [m]."""
+    return 2 * tiller_radius * math.tan(max_angle)
+
+
+def cylinder_travel(tiller_radius: float, max_angle: float) -> float:
+    """Total piston travel 2 R sin(theta_max) of a trunnion cylinder between hard-over angles [m]."""
+    return 2 * tiller_radius * math.sin(max_angle)
+
+
+def actuator_oil_volume(unit: Unit) -> float:
+    """Oil [m^3] in the actuators, used when the system charge is not stated.
+
+    Rams: count x A x stroke (the cylinder is full at every ram position, to within the
+    ram's swept volume). Cylinders: count x (A_bore + A_annulus) x stroke. Rotary vane: the
+    chamber annulus pi (R^2 - r^2) h, less nothing for the vanes (an upper estimate).
+    """
+    g = unit.geometry
+    if isinstance(g, RamGeometry):
+        return unit.count * circle_area(g.ram_diameter) * g.stroke
+    if isinstance(g, CylinderGeometry):
+        return unit.count * (2 * circle_area(g.bore) - circle_area(g.rod)) * g.stroke
+    return math.pi * ((g.housing_bore / 2) ** 2 - (g.hub_diameter / 2) ** 2) * g.vane_height

@@ -1,0 +1,157 @@
+# SPDX-License-Identifier: MIT
+"""The faces of a result: a JSON-ready dict for scripts and rich tables for people.
+
+The JSON keys are the scripting contract documented in the README.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Any
+
+from kit.oil import US_GAL_PER_M3
+from kit.oil_grades import density_kg_per_l
+from kit.requirements import UnitResult, VesselResult
+from kit.seal_kit import SealLine, SealKit, mm
+
+KNM = 1e-3
+L_PER_M3 = 1000.0
+
+
+def _r(x: float | None, nd: int = 1) -> float | None:
+    return None if x is None else round(x, nd)
+
+
+def seal_json(line: SealLine, kit: SealKit, vane_geometry: tuple[float, float] | None) -> dict[str, Any]:
+    """One seal as JSON. d_mm < D_mm always; for an O-ring they are the groove root and the bore."""
+    out: dict[str, Any] = {"role": line.role, "part": line.part, "qty_per_actuator": line.qty_per_actuator,
+                           "qty": line.qty_per_actuator * kit.actuators, "compound": line.compound}
+    if line.housing is not None:
+        h = line.housing
+        out.update(d_mm=h.d, D_mm=h.D, L_mm=h.L, standard=h.standard, origin=h.origin)
+        if "t" in h.extra:
+            out.update(strip_thickness_mm=h.extra["t"], cut_length_mm=h.extra["cut"])
+    elif line.oring is not None:
+        f = line.oring
+        out.update(d_mm=round(f.groove_diameter, 2), D_mm=f.bore, L_mm=f.groove_width, id_mm=f.inside_diameter,
+                   cs_mm=f.cross_section, standard="ISO 3601-1, ISO 3601-2",
+                   origin="ISO 3601 series" if not f.is_cord else "O-ring cord (past the ISO 3601-1 series)",
+                   stretch_pct=round(100 * f.stretch, 2), squeeze_pct=round(100 * f.squeeze, 1), fill_pct=round(100 * f.fill, 1))
+        if f.is_cord:
+            out["cut_length_mm"] = f.cord_cut_length
+    else:
+        hub, bore = vane_geometry
+        out.update(d_mm=hub, D_mm=bore, L_mm=line.strip_length_mm, standard="vane geometry h + 2 (R - r)",
+                   origin="unit particulars")
+    return out
+
+
+def unit_json(u: UnitResult, density: float) -> dict[str, Any]:
+    c = u.checks
+    g = u.unit.geometry
+    vane = (mm(g.hub_diameter), mm(g.housing_bore)) if u.unit.actuator == "rotary_vane" else None
+    return {
+        "id": u.unit.id,
+        "service": u.unit.service,
+        "actuator": u.unit.actuator,
+        "count": u.unit.count,
+        "fluid": str(u.unit.fluid),
+        "torque_knm": {"midships": _r(c.torque_midships and c.torque_midships * KNM),
+                       "max_angle": _r(c.torque_max_angle and c.torque_max_angle * KNM)},
+        "swing_time_s": {"one_pump": _r(c.swing_time_one_pump), "all_pumps": _r(c.swing_time_all_pumps),
+                         "judged": _r(c.swing_time_judged)},
+        "swing_rule_met": c.swing_rule_met,
+        "swing_rule_case": c.judging_case,
+        "travel_mm": _r(c.travel and c.travel * 1000), "stroke_mm": _r(c.stroke and c.stroke * 1000),
+        "system_oil_l": _r(u.system_oil * L_PER_M3), "system_oil_basis": u.system_oil_basis,
+        "storage_tank_min_l": _r(u.storage_tank_min and u.storage_tank_min * L_PER_M3),
+        "top_up_l": _r(u.top_up * L_PER_M3, 2),
+        "seals": [seal_json(s, u.kit, vane) for s in u.kit.lines],
+        "filters": [{"position": f.position, "elements": f.elements, "elements_per_change": f.elements_per_change,
+                     "changes_due": f.changes, "spare_sets": f.spare_sets} for f in u.filters],
+        "warnings": u.warnings,
+    }
+
+
+def vessel_json(r: VesselResult) -> dict[str, Any]:
+    v = r.vessel
+    units = [unit_json(u, density_kg_per_l(u.unit.fluid.category)) for u in r.units]
+    oil = []
+    for fluid, plan in r.oil_plans.items():
+        need_l = plan.need * L_PER_M3
+        oil.append({"fluid": str(fluid), "need_l": round(need_l, 1),
+                    "need_kg": round(need_l * density_kg_per_l(fluid.category), 1),
+                    "need_us_gal": round(plan.need * US_GAL_PER_M3, 1),
+                    "supply_l": round(plan.supply * L_PER_M3, 1),
+                    "packages": [{"name": p.name, "volume_l": round(p.volume * L_PER_M3, 1), "count": n}
+                                 for p, n in plan.counts if n]})
+    return {
+        "vessel": {"id": v.id, "name": v.name, "ship_type": v.ship_type, "gross_tonnage": v.gross_tonnage,
+                   "company": v.company},
+        "days": r.days,
+        "policy": r.policy.name,
+        "units": units,
+        "oil": oil,
+        "lines": [{"unit": li.unit_id, "designation": li.designation, "part": li.part, "standard": li.standard,
+                   "compound": li.compound, "quantity": round(li.quantity, 2) if isinstance(li.quantity, float) else li.quantity,
+                   "uom": li.uom, "basis": li.basis, "key": li.key, "origin": li.origin, "note": li.note}
+                  for li in r.lines],
+    }
+
+
+def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:
+    if x is None or (isinstance(x, float) and math.isnan(x)):
+        return "-"
+    return f"{x:,.{nd}f}{unit}"
+
+
+def render(r: VesselResult, console) -> None:
+    """Print the readable report of ``r`` on a rich ``console``."""
+    from rich.table import Table
+
+    data = vessel_json(r)
+    v = data["vessel"]
+    console.print(f"[bold]{v['name']}[/bold] ({v['id']}), {v['ship_type']}, {v['gross_tonnage']:,.0f} GT"
+                  f" -- period {r.days:g} days -- spares policy: {data['policy']}")
+    for u in data["units"]:
+        t = Table(title=f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}", title_justify="left")
+        t.add_column("check")
+        t.add_column("value", justify="right")
+        t.add_column("against")
+        if u["torque_knm"]["midships"] is not None:
+            t.add_row("torque at relief setting, midships", _fmt(u["torque_knm"]["midships"], " kNm"), "")
+            t.add_row("torque at relief setting, max angle", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
+            s = u["swing_time_s"]
+            t.add_row("swing 35 deg to 30 deg, one pump", _fmt(s["one_pump"], " s"), "")
+            t.add_row("swing 35 deg to 30 deg, all pumps", _fmt(s["all_pumps"], " s"), "")
+            verdict = "[green]met[/green]" if u["swing_rule_met"] else "[red]NOT MET[/red]"
+            t.add_row("swing time judged", _fmt(s["judged"], " s"), f"28 s, {u['swing_rule_case']}: {verdict}")
+        if u["travel_mm"] is not None:
+            t.add_row("travel between hard-over angles", _fmt(u["travel_mm"], " mm", 0), f"stroke {_fmt(u['stroke_mm'], ' mm', 0)}")
+        t.add_row("system charge", _fmt(u["system_oil_l"], " L"), u["system_oil_basis"])
+        if u["storage_tank_min_l"] is not None:
+            t.add_row("storage tank minimum", _fmt(u["storage_tank_min_l"], " L"), "SOLAS II-1/29.12.3")
+        t.add_row("top-up for the period", _fmt(u["top_up_l"], " L", 2), "leakage rate x period")
+        console.print(t)
+        seals = Table(title=f"Seal kit of unit {u['id']} (per unit)", title_justify="left")
+        for col in ("role", "part", "d mm", "D mm", "L mm", "qty", "compound", "from"):
+            seals.add_column(col, justify="right" if col.endswith("mm") or col == "qty" else "left")
+        for s in u["seals"]:
+            seals.add_row(s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
+                          str(s["qty"]), s["compound"], s["origin"])
+        console.print(seals)
+        for w in u["warnings"]:
+            console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
+    lines = Table(title="Requirement list (to keep on board)", title_justify="left")
+    for col in ("unit", "designation", "standard", "compound", "qty", "uom", "basis"):
+        lines.add_column(col, justify="right" if col == "qty" else "left")
+    for li in data["lines"]:
+        lines.add_row(li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
+                      li["uom"], li["basis"])
+    console.print(lines)
+    for o in data["oil"]:
+        packs = ", ".join(f"{p['count']} x {p['name']} ({p['volume_l']:g} L)" for p in o["packages"]) or "none"
+        console.print(f"oil {o['fluid']}: need {o['need_l']:,.1f} L = {o['need_kg']:,.1f} kg = {o['need_us_gal']:,.1f} US gal;"
+                      f" buy {packs} = {o['supply_l']:,.1f} L")
+    console.print("[dim]Series housings and O-rings are to be checked against the maker's drawing before ordering. "
+                  "Table rows marked 'from memory' in kit/data are not confirmed from the standard's text.[/dim]")

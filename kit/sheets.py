@@ -1,0 +1,291 @@
+# SPDX-License-Identifier: MIT
+"""Spreadsheets in and out: .xlsx workbooks and .csv files, read safely.
+
+Reading refuses, with one line naming the file, what would be dangerous or is simply not a
+table: a file that is not a workbook, XML entity tricks (openpyxl parses through defusedxml,
+which is a dependency and is checked here), a workbook whose parts unpack past
+:data:`MAX_UNPACKED_BYTES`, more than ``max_rows`` data rows, a duplicated or unknown column.
+Writing goes to a temporary file that replaces the target only when complete.
+"""
+
+from __future__ import annotations
+
+import csv
+import os
+import tempfile
+import zipfile
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any, Iterable, Sequence
+
+from kit.errors import InputError
+
+MAX_ROWS = 1_000_000
+MAX_UNPACKED_BYTES = 512 * 1024 * 1024
+WORKBOOK = "an .xlsx workbook (Office Open XML spreadsheet)"
+
+
+@dataclass(frozen=True)
+class Row:
+    line: int  # the row number a spreadsheet program shows (the header is row 1)
+    values: dict[str, Any]
+
+
+@dataclass(frozen=True)
+class Table:
+    """The data rows of one sheet (or CSV file) under its header row."""
+
+    path: str
+    sheet: str | None
+    columns: tuple[str, ...]
+    rows: list[Row]
+
+    def where(self, line: int | None = None) -> str:
+        """``file, sheet S, row N`` (xlsx) or ``file, line N`` (CSV), for error messages."""
+        place = self.path if self.sheet is None else f"{self.path}, sheet {self.sheet}"
+        if line is None:
+            return place
+        return f"{place}, {'line' if self.sheet is None else 'row'} {line}"
+
+    def error(self, row: Row | None, column: str, expected: str, got: Any = None) -> InputError:
+        shown = None if got is None else repr(got)
+        return InputError(self.where(row.line if row else None), f"column {column}", expected, got=shown)
+
+
+def _clean(value: Any) -> Any:
+    if isinstance(value, str):
+        value = value.strip()
+        return value or None
+    return value
+
+
+def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any]]], known: Sequence[str] | None,
+           required: Sequence[str], max_rows: int) -> Table:
+    where = path if sheet is None else f"{path}, sheet {sheet}"
+    it = iter(lines)
+    header: list[str] = []
+    for _, cells in it:
+        header = ["" if c is None else str(c).strip() for c in cells]
+        if any(header):
+            break
+    while header and not header[-1]:
+        header.pop()
+    if not header:
+        raise InputError(where, "header row", "a first row naming the columns", got="an empty sheet")
+    seen: set[str] = set()
+    for name in header:
+        if not name:
+            raise InputError(where, "header row", "a name above every column", got="an empty header cell")
+        if name in seen:
+            raise InputError(where, f"column {name}", "each column named once", got="a second column of that name")
+        if known is not None and name not in known:
+            raise InputError(where, f"column {name}", "one of " + ", ".join(known), got="an unknown column")
+        seen.add(name)
+    for name in required:
+        if name not in seen:
+            raise InputError(where, f"column {name}", "this column in the header row", got="no such column")
+    rows: list[Row] = []
+    width = len(header)
+    for line, cells in it:
+        values = [_clean(c) for c in cells]
+        if any(v is not None for v in values[width:]):
+            raise InputError(f"{where}, {'line' if sheet is None else 'row'} {line}", "cells",
+                             f"no values right of the last named column ({header[-1]})", got="a value there")
+        if all(v is None for v in values[:width]):
+            continue
+        if len(rows) >= max_rows:
+            raise InputError(where, "rows", f"at most {max_rows:,} data rows", got="more")
+        values += [None] * (width - len(values))
+        rows.append(Row(line, dict(zip(header, values[:width]))))
+    return Table(path, sheet, tuple(header), rows)
+
+
+def _open_workbook(path: Path):
+    import openpyxl
+    from openpyxl.utils.exceptions import InvalidFileException
+    from openpyxl.xml import DEFUSEDXML
+
+    source = str(path)
+    if not DEFUSEDXML:
+        raise InputError(source, "file", "defusedxml installed, so workbooks are parsed safely", got="it is missing")
+    if not zipfile.is_zipfile(path):
+        raise InputError(source, "file", WORKBOOK, got="a file that is not one")
+    try:
+        with zipfile.ZipFile(path) as archive:
+            unpacked = sum(info.file_size for info in archive.infolist())
+    except (zipfile.BadZipFile, OSError) as exc:
+        raise InputError(source, "file", WORKBOOK, got=str(exc)) from None
+    if unpacked > MAX_UNPACKED_BYTES:
+        raise InputError(source, "file", f"a workbook that unpacks to at most {MAX_UNPACKED_BYTES >> 20} MiB",
+                         got=f"{unpacked >> 20} MiB")
+    try:
+        return openpyxl.load_workbook(path, read_only=True, data_only=True)
+    except (InvalidFileException, zipfile.BadZipFile, KeyError, OSError, ValueError) as exc:
+        raise InputError(source, "file", WORKBOOK, got=type(exc).__name__ + (f": {exc}" if str(exc) else "")) from None
+
+
+def _xlsx_lines(ws) -> Iterable[tuple[int, Sequence[Any]]]:
+    for line, cells in enumerate(ws.iter_rows(values_only=True), start=1):
+        yield line, cells
+
+
+def _safely(path: str, lines: Iterable[tuple[int, Sequence[Any]]]) -> Iterable[tuple[int, Sequence[Any]]]:
+    """Sheet XML is parsed lazily; turn a refused entity or broken XML into an input error."""
+    from defusedxml import DefusedXmlException
+
+    try:
+        yield from lines
+    except DefusedXmlException as exc:
+        raise InputError(path, "file", "a workbook without XML entity declarations", got=type(exc).__name__) from None
+    except (SyntaxError, KeyError, zipfile.BadZipFile) as exc:  # ElementTree.ParseError is a SyntaxError
+        raise InputError(path, "file", WORKBOOK, got=f"damaged sheet XML ({exc})") from None
+
+
+def read_table(path: str | Path, sheet: str, *, known: Sequence[str] | None = None, required: Sequence[str] = (),
+               max_rows: int = MAX_ROWS) -> Table:
+    """Read the sheet called ``sheet`` of an .xlsx workbook (or its only sheet), or a .csv file.
+
+    ``known`` lists the columns allowed (None: any), ``required`` those that must be there.
+    """
+    path = Path(path)
+    source = str(path)
+    if not path.is_file():
+        raise InputError(source, "file", "an existing .xlsx or .csv file", got="no such file")
+    if path.suffix.lower() == ".csv":
+        return _read_csv(path, known, required, max_rows)
+    if path.suffix.lower() != ".xlsx":
+        raise InputError(source, "file", "a file ending in .xlsx or .csv", got=repr(path.suffix or "no suffix"))
+    wb = _open_workbook(path)
+    try:
+        names = wb.sheetnames
+        if sheet in names:
+            name = sheet
+        elif len(names) == 1:
+            name = names[0]
+        else:
+            raise InputError(source, "sheet", f"a sheet named {sheet!r}", got="sheets " + ", ".join(map(repr, names)))
+        return _table(source, name, _safely(source, _xlsx_lines(wb[name])), known, required, max_rows)
+    finally:
+        wb.close()
+
+
+def read_sheets(path: str | Path) -> dict[str, list[tuple[int, Sequence[Any]]]]:
+    """Every sheet of a workbook as raw (row number, cells) lists, for multi-sheet templates."""
+    path = Path(path)
+    source = str(path)
+    if not path.is_file():
+        raise InputError(source, "file", "an existing .xlsx file", got="no such file")
+    wb = _open_workbook(path)
+    try:
+        found = {}
+        for name in wb.sheetnames:
+            lines = []
+            for line, cells in _safely(source, _xlsx_lines(wb[name])):
+                if line > MAX_ROWS:
+                    raise InputError(f"{source}, sheet {name}", "rows", f"at most {MAX_ROWS:,} rows", got="more")
+                lines.append((line, tuple(_clean(c) for c in cells)))
+            found[name] = lines
+        return found
+    finally:
+        wb.close()
+
+
+def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], max_rows: int) -> Table:
+    source = str(path)
+    try:
+        text = path.read_text(encoding="utf-8-sig")
+    except UnicodeDecodeError:
+        raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
+    except OSError as exc:
+        raise InputError(source, "file", "a readable CSV file", got=exc.strerror or str(exc)) from None
+    reader = csv.reader(text.splitlines(keepends=True))
+
+    def lines() -> Iterable[tuple[int, Sequence[Any]]]:
+        start = 1
+        try:
+            for cells in reader:
+                yield start, cells
+                start = reader.line_num + 1
+        except csv.Error as exc:
+            raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None
+
+    return _table(source, None, lines(), known, required, max_rows)
+
+
+# --- writing -------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Sheet:
+    """A sheet to write: its name, header row, data rows, and a note for each column."""
+
+    name: str
+    columns: Sequence[str]
+    rows: Sequence[Sequence[Any]] = ()
+    notes: dict[str, str] | None = None
+
+
+def _replace_atomically(path: Path, write) -> None:
+    path.parent.mkdir(parents=True, exist_ok=True)
+    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
+    os.close(fd)
+    try:
+        write(Path(tmp))
+        os.replace(tmp, path)
+    finally:
+        if os.path.exists(tmp):
+            os.unlink(tmp)
+
+
+def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
+    """Write an .xlsx with one sheet per :class:`Sheet` plus a ``notes`` sheet explaining columns."""
+    from openpyxl import Workbook
+    from openpyxl.styles import Font
+
+    def write(tmp: Path) -> None:
+        wb = Workbook()
+        wb.remove(wb.active)
+        notes = []
+        for sheet in sheets:
+            ws = wb.create_sheet(sheet.name)
+            ws.append(list(sheet.columns))
+            for cell in ws[1]:
+                cell.font = Font(bold=True)
+            for row in sheet.rows:
+                ws.append(list(row))
+            ws.freeze_panes = "A2"
+            for i, name in enumerate(sheet.columns, start=1):
+                ws.column_dimensions[ws.cell(1, i).column_letter].width = max(12, len(name) + 4)
+            notes += [(sheet.name, c, (sheet.notes or {}).get(c, "")) for c in sheet.columns]
+        ws = wb.create_sheet("notes")
+        ws.append(["sheet", "column", "what to enter"])
+        for cell in ws[1]:
+            cell.font = Font(bold=True)
+        for note in notes:
+            ws.append(list(note))
+        ws.column_dimensions["C"].width = 90
+        wb.save(tmp)
+
+    _replace_atomically(Path(path), write)
+
+
+def write_csv(path: str | Path, columns: Sequence[str], rows: Sequence[Sequence[Any]] = ()) -> None:
+    def write(tmp: Path) -> None:
+        with tmp.open("w", newline="", encoding="utf-8") as f:
+            out = csv.writer(f)
+            out.writerow(columns)
+            out.writerows(rows)
+
+    _replace_atomically(Path(path), write)
+
+
+def write_sheet(path: str | Path, sheet: Sheet) -> None:
+    """One table, as .xlsx or .csv by the file's suffix."""
+    path = Path(path)
+    suffix = path.suffix.lower()
+    if suffix == ".csv":
+        write_csv(path, sheet.columns, sheet.rows)
+    elif suffix == ".xlsx":
+        write_workbook(path, [sheet])
+    else:
+        raise InputError(str(path), "output file", "a name ending in .xlsx or .csv", got=repr(path.suffix or "no suffix"))
