@@ -15,7 +15,6 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from itertools import product
 
 from kit.particulars import Pipe, Unit
 from kit.physics import actuator_oil_volume
@@ -64,39 +63,29 @@ class PackagePlan:
 
 
 def plan_packages(need: float, packages: list[Package]) -> PackagePlan:
-    """Fewest packages with need <= supply < need + smallest package.
+    """Packages covering ``need`` with need <= supply < need + smallest package.
 
-    Every count of the larger packages up to what alone would cover the need is tried; the
-    smallest package makes up the rest (rounded up), which keeps the overshoot below its size.
-    Among plans with the fewest packages the one with least overshoot wins.
+    Largest package first: as many whole packages as fit in what is still needed, or one more
+    when that one more would overshoot by less than the smallest package (then the need is met);
+    the smallest package rounds the rest up. The same rule is a spreadsheet formula per package
+    (see ``kit.workbook``), so the workbook recomputes the plan when an on-board count changes.
 
     >>> pails, drums = Package("pail", 0.020), Package("drum", 0.208)
     >>> plan = plan_packages(0.410, [pails, drums])
     >>> [(p.name, n) for p, n in plan.counts]
-    [('drum', 2)]
+    [('drum', 2), ('pail', 0)]
     """
     if need < 0 or not packages:
         raise ValueError("need must be >= 0 and at least one package given")
-    ordered = sorted(packages, key=lambda p: p.volume)
-    smallest, larger = ordered[0], ordered[1:]
-    if need <= 0:
-        return PackagePlan(0.0, tuple((p, 0) for p in reversed(ordered)))
-    ranges = [range(math.ceil(need / p.volume) + 1) for p in larger]
-    best: tuple[int, float, tuple[int, ...], int] | None = None
-    eps = 1e-12
-    for counts in product(*ranges):
-        covered = sum(n * p.volume for n, p in zip(counts, larger))
-        if covered - need >= smallest.volume - eps:
-            continue
-        small = max(0, math.ceil((need - covered) / smallest.volume - eps))
-        supply = covered + small * smallest.volume
-        over = supply - need
-        if over < -eps or over >= smallest.volume - eps:
-            continue
-        key = (sum(counts) + small, over, counts, small)
-        if best is None or key[:2] < best[:2]:
-            best = key
-    assert best is not None  # all-smallest always qualifies
-    _, _, counts, small = best
-    plan = [(p, n) for p, n in zip(larger, counts)] + [(smallest, small)]
-    return PackagePlan(need, tuple(sorted(plan, key=lambda pn: -pn[0].volume)))
+    ordered = sorted(packages, key=lambda p: -p.volume)
+    smallest = ordered[-1].volume
+    remaining = need
+    counts = []
+    for p in ordered[:-1]:
+        up = math.ceil(round(remaining / p.volume, 9))
+        n = up if up * p.volume - remaining < smallest else math.floor(round(remaining / p.volume, 9))
+        n = max(n, 0)
+        counts.append((p, n))
+        remaining -= n * p.volume
+    counts.append((ordered[-1], max(0, math.ceil(round(remaining / smallest, 9)))))
+    return PackagePlan(need, tuple(counts))
