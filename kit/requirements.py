@@ -71,18 +71,18 @@ def seal_line_item(unit: Unit, line: SealLine, quantity: int, basis: str) -> Lin
     if line.role == "vane":
         dims = {"length": line.strip_length_mm, "h": line.strip_height_mm}
         return LineItem(unit.id, "vane_strip", line.role, _designation("vane_strip", **dims),
-                        "vane geometry h + 2 (R - r)", quantity, "pcs", basis, part_key("vane_strip", dims), dims,
+                        "vane geometry h + 2 (R - r)", quantity, "pcs", basis, part_key("vane_strip", dims, line.compound), dims,
                         line.compound, "unit particulars", "strip length from the vane geometry; confirm the profile with the maker", line.part)
     if line.oring is not None:
         fit = line.oring
         if fit.is_cord:
             dims = {"cs": fit.cross_section, "cut": fit.cord_cut_length}
             return LineItem(unit.id, "o_ring_cord", line.role, _designation("o_ring_cord", **dims),
-                            "ISO 3601-1 cross-section, ISO 3601-2 gland", quantity, "pcs", basis, part_key("o_ring_cord", dims),
+                            "ISO 3601-1 cross-section, ISO 3601-2 gland", quantity, "pcs", basis, part_key("o_ring_cord", dims, line.compound),
                             dims, line.compound, "ISO 3601 series (past the largest ring: cord)", note, line.part)
         dims = {"id": fit.inside_diameter, "cs": fit.cross_section}
         return LineItem(unit.id, "o_ring", line.role, _designation("o_ring", **dims), "ISO 3601-1",
-                        quantity, "pcs", basis, part_key("o_ring", dims), dims, line.compound, "ISO 3601 series", note, line.part)
+                        quantity, "pcs", basis, part_key("o_ring", dims, line.compound), dims, line.compound, "ISO 3601 series", note, line.part)
     h = line.housing
     kind = {"piston": "piston_seal", "rod": "rod_seal", "wiper": "wiper", "guide": "guide_ring", "stock": "stock_seal"}[line.role]
     dims = {"d": h.d, "D": h.D, "L": h.L, **h.extra}
@@ -90,7 +90,7 @@ def seal_line_item(unit: Unit, line: SealLine, quantity: int, basis: str) -> Lin
     designation = _designation(kind, side=side, **dims)
     standard = h.standard if h.origin != "maker's drawing (stated in the particulars)" else "maker's drawing"
     return LineItem(unit.id, kind, line.role, designation, standard, quantity, "pcs", basis,
-                    part_key(kind, dims), dims, line.compound, h.origin,
+                    part_key(kind, dims, line.compound), dims, line.compound, h.origin,
                     note if "series" in h.origin else "dimensions from the maker's drawing", line.part)
 
 
