@@ -21,6 +21,13 @@ SAFETY = (
 # command name -> (module, attribute, one-line summary shown in ``kit --help``)
 COMMANDS: dict[str, tuple[str, str, str]] = {
     "calc": ("kit.commands.calc", "calc", "Work out seals, oil, filters, spares and checks for one vessel."),
+    "db": ("kit.commands.db", "db", "Build, upgrade and inspect the fleet database."),
+    "load": ("kit.commands.load", "load", "Load vessel particulars (.toml, .xlsx or a folder) into the fleet database."),
+    "parts": ("kit.commands.parts", "parts", "Register the generic parts the fleet needs; list them."),
+    "catalogue": ("kit.commands.catalogue", "catalogue", "Import a supplier's catalogue and match it to generic parts."),
+    "stock": ("kit.commands.stock", "stock", "Import a vessel's on-board stock count or receipts and issues."),
+    "template": ("kit.commands.template", "template", "Write the particulars, stock or catalogue spreadsheet to fill in."),
+    "policy": ("kit.commands.policy", "policy", "Set or show the spares policy in force for a company or vessel."),
 }
 
 

@@ -24,3 +24,39 @@ def reports_errors(func: Callable[..., Any]) -> Callable[..., Any]:
             sys.exit(2)
 
     return wrapper
+
+
+def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[..., Any]]:
+    """Add ``--db`` (or env var ``KIT_DB``) and hand the command an open ``engine``.
+
+    The value is a SQLite file path or a database URL; without one, kit's default SQLite file.
+    With ``migrate`` a fresh database is built first and one at an old schema is refused.
+    Errors, including the database's own, become one line and exit status 2.
+    """
+
+    def decorate(func: Callable[..., Any]) -> Callable[..., Any]:
+        @functools.wraps(func)
+        def wrapper(*args: Any, db: str | None, **kwargs: Any) -> Any:
+            from sqlalchemy.exc import DBAPIError
+
+            from catalog_schema.engine import make_engine, resolve_url, shown
+            from catalog_schema.errors import DatabaseError
+            from catalog_schema.migrate import require_current
+
+            engine = make_engine(resolve_url(db))
+            try:
+                if migrate:
+                    require_current(engine)
+                return func(*args, engine=engine, **kwargs)
+            except DBAPIError as exc:
+                first = str(exc.orig).strip().splitlines()[0] if exc.orig else type(exc).__name__
+                raise DatabaseError(shown(str(engine.url)), "refused the change, nothing was written", first) from None
+            finally:
+                engine.dispose()
+
+        option = click.option("--db", envvar="KIT_DB", metavar="PATH|URL", default=None,
+                              help="Fleet database: a SQLite file or a postgresql+psycopg:// URL "
+                                   "[env var KIT_DB; default ~/.local/share/kit/fleet.sqlite].")
+        return option(reports_errors(wrapper))
+
+    return decorate

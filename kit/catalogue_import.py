@@ -1,0 +1,148 @@
+# SPDX-License-Identifier: MIT
+"""A supplier's catalogue from .xlsx or .csv into the fleet database, all or nothing.
+
+One row per supplier part. Columns (sheet ``catalogue`` of a workbook, or a CSV file):
+
+==================  ===========================================================================
+``supplier_ref``    the supplier's part number (required, once per file)
+``part_kind`` ...   the generic part by kind and dimensions, or ``part_key`` (see
+                    :mod:`kit.parts_store`)
+``description``     the supplier's own text (optional)
+``pack_qty``        pieces (or litres, metres) per pack, a whole number >= 1 (default 1)
+``price``           price per pack, a number >= 0 (optional)
+``currency``        ISO 4217 code, three letters (required)
+``lead_time_days``  whole days from order to dispatch, >= 0 (optional)
+==================  ===========================================================================
+
+An import replaces that supplier's whole catalogue in one transaction. Rows are matched to the
+generic parts already in the database by their normalised key; rows that match nothing are kept
+(so a part registered later finds them) and listed in the report.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from sqlalchemy import delete, insert, select
+from sqlalchemy.engine import Engine
+
+from catalog_schema.engine import write_transaction
+from catalog_schema.sql import upsert
+from catalog_schema.tables import CatalogueEntryRow, SupplierRow
+from kit.errors import InputError
+from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
+from kit.sheets import Row, Table, read_table
+
+SHEET = "catalogue"
+COLUMNS = ("supplier_ref", *PART_COLUMNS, "description", "pack_qty", "price", "currency", "lead_time_days")
+NOTES = {
+    "supplier_ref": "your part number, once per sheet",
+    "part_key": "the generic part's key, if you have it (then the part columns may stay empty)",
+    "part_kind": "rod_seal, piston_seal, stock_seal, wiper, guide_ring, o_ring, o_ring_cord, vane_strip, filter_element, oil, spare",
+    "d": 'inner diameter, a length with a unit, e.g. "280 mm"',
+    "D": 'outer diameter, e.g. "300 mm"',
+    "L": 'housing length, e.g. "25 mm"',
+    "t": "guide strip thickness", "cut": "cut length of a strip or cord", "id": "O-ring inside diameter",
+    "cs": "O-ring cross-section", "length": "vane strip length", "h": "vane height",
+    "spec": "for oil, filter elements and other spares: grade or reference, e.g. HM 46",
+    "pack_qty": "pieces (or L, m) per pack, a whole number, default 1",
+    "price": "price per pack, a number", "currency": "ISO 4217 code, e.g. EUR",
+    "lead_time_days": "whole days from order to dispatch",
+}
+ENTRIES = CatalogueEntryRow.__table__
+SUPPLIERS = SupplierRow.__table__
+
+
+@dataclass
+class CatalogueReport:
+    supplier: str
+    rows: int
+    matched: int
+    unmatched: list[tuple[str, str, str]] = field(default_factory=list)  # (where, supplier_ref, part key)
+
+
+def whole_number(table: Table, row: Row, column: str, minimum: int, default: int | None = None) -> int | None:
+    value = row.values.get(column)
+    if value is None:
+        return default
+    if isinstance(value, float) and value.is_integer():
+        value = int(value)
+    if isinstance(value, str) and value.isdigit():
+        value = int(value)
+    if isinstance(value, bool) or not isinstance(value, int) or value < minimum:
+        raise table.error(row, column, f"a whole number of at least {minimum}", value)
+    return value
+
+
+def number(table: Table, row: Row, column: str, minimum: float | None = 0.0) -> float | None:
+    value = row.values.get(column)
+    if value is None:
+        return None
+    if isinstance(value, str):
+        try:
+            value = float(value.replace(",", ""))
+        except ValueError:
+            raise table.error(row, column, "a number", value) from None
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or value != value:
+        raise table.error(row, column, "a number", value)
+    if minimum is not None and value < minimum:
+        raise table.error(row, column, f"a number of at least {minimum:g}", value)
+    return float(value)
+
+
+def _entries(table: Table) -> list[dict]:
+    keys = KeyReader(table)
+    seen: dict[str, int] = {}
+    out = []
+    for row in table.rows:
+        v = row.values
+        ref = v.get("supplier_ref")
+        if ref is None:
+            raise table.error(row, "supplier_ref", "the supplier's part number", "an empty cell")
+        ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
+        if ref in seen:
+            raise table.error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
+        seen[ref] = row.line
+        currency = v.get("currency")
+        if not (isinstance(currency, str) and len(currency) == 3 and currency.isalpha()):
+            raise table.error(row, "currency", "an ISO 4217 code of three letters, e.g. EUR", currency)
+        out.append({
+            "supplier_ref": ref,
+            "part_key": keys.key(row),
+            "description": None if v.get("description") is None else str(v["description"]),
+            "pack_qty": whole_number(table, row, "pack_qty", 1, default=1),
+            "price": number(table, row, "price"),
+            "currency": currency.upper(),
+            "lead_time_days": whole_number(table, row, "lead_time_days", 0),
+            "_line": row.line,
+        })
+    return out
+
+
+def import_catalogue(engine: Engine, path: str | Path, supplier: str) -> CatalogueReport:
+    """Replace ``supplier``'s catalogue by the rows of ``path``; report what matched nothing."""
+    supplier = supplier.strip()
+    if not supplier:
+        raise InputError(str(path), "--supplier", "a supplier name", got="an empty name")
+    table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
+    entries = _entries(table)
+
+    def write(conn) -> CatalogueReport:
+        conn.execute(upsert(conn, SUPPLIERS, ["name"]), [{"name": supplier}])
+        sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
+        known = part_ids(conn)
+        report = CatalogueReport(supplier, len(entries), 0)
+        rows = []
+        for e in entries:
+            pid = known.get(e["part_key"])
+            if pid is None:
+                report.unmatched.append((table.where(e["_line"]), e["supplier_ref"], e["part_key"]))
+            rows.append({**{k: x for k, x in e.items() if k != "_line"}, "supplier_id": sid, "part_id": pid})
+        report.matched = len(rows) - len(report.unmatched)
+        conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
+        if rows:
+            conn.execute(insert(ENTRIES), rows)
+        return report
+
+    return write_transaction(engine, write)

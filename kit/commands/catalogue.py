@@ -1,0 +1,42 @@
+# SPDX-License-Identifier: MIT
+"""``kit catalogue``: suppliers' catalogues in the fleet database."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option
+
+
+@click.group()
+def catalogue() -> None:
+    """Suppliers' catalogues: import one and see which rows match the fleet's generic parts.
+
+    Example: kit catalogue import northwind_seals.xlsx --supplier "Northwind Seals"
+    """
+
+
+@catalogue.command("import")
+@click.argument("file", type=click.Path(path_type=str))
+@click.option("--supplier", required=True, help="The supplier whose catalogue FILE is.")
+@click.option("--show-unmatched", default=20, show_default=True, help="How many unmatched rows to list.")
+@db_option()
+def import_(engine, file: str, supplier: str, show_unmatched: int) -> None:
+    """Replace SUPPLIER's catalogue by FILE (.xlsx sheet "catalogue", or .csv).
+
+    Columns: supplier_ref, part_kind with the dimension columns of that kind (d, D, L, t, cut,
+    id, cs, length, h; lengths with a unit, "280 mm") or part_key, spec (oil grade or element
+    reference), description, pack_qty, price, currency (ISO 4217), lead_time_days. The whole
+    file is refused if one row is bad. Rows that match no generic part are kept and listed.
+
+    Example: kit catalogue import northwind_seals.csv --supplier "Northwind Seals"
+    """
+    from kit.catalogue_import import import_catalogue
+
+    report = import_catalogue(engine, file, supplier)
+    click.echo(f"{report.supplier}: {report.rows} row(s), {report.matched} matched a generic part, "
+               f"{len(report.unmatched)} matched nothing")
+    for where, ref, key in report.unmatched[:show_unmatched]:
+        click.echo(f"  unmatched: {where}: {ref} ({key})")
+    if len(report.unmatched) > show_unmatched:
+        click.echo(f"  ... and {len(report.unmatched) - show_unmatched} more")

@@ -1,0 +1,56 @@
+# SPDX-License-Identifier: MIT
+"""``kit db``: build or upgrade the fleet database and say what is in it."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option
+
+
+@click.group()
+def db() -> None:
+    """Build, upgrade and inspect the fleet database.
+
+    The database is a SQLite file (default ~/.local/share/kit/fleet.sqlite) or a PostgreSQL
+    URL, named by --db or the KIT_DB environment variable.
+
+    Example: kit db upgrade --db office.sqlite
+    """
+
+
+@db.command()
+@click.option("--to", "revision", default="head", show_default=True, help="Revision to reach.")
+@db_option(migrate=False)
+def upgrade(engine, revision: str) -> None:
+    """Bring the database's schema to the newest revision (or --to REV); a fresh one is built.
+
+    Example: kit db upgrade --db postgresql+psycopg://kit@db.office/fleet
+    """
+    from catalog_schema.migrate import upgrade as run
+
+    before, after = run(engine, revision)
+    click.echo(f"schema at revision {after}" + ("" if before == after else f" (was {before or 'empty'})"))
+
+
+@db.command()
+@db_option(migrate=False)
+def status(engine) -> None:
+    """Show the database, its schema revision and how many rows each table holds.
+
+    Example: kit db status
+    """
+    from sqlalchemy import func, inspect, select
+
+    from catalog_schema.engine import shown
+    from catalog_schema.migrate import current, head
+    from catalog_schema.tables import SQLModel
+
+    found = current(engine)
+    click.echo(f"database: {shown(str(engine.url))}")
+    click.echo(f"revision: {found or 'none (empty database)'}; this kit's newest: {head()}")
+    present = set(inspect(engine).get_table_names())
+    with engine.connect() as conn:
+        for table in SQLModel.metadata.sorted_tables:
+            if table.name in present:
+                click.echo(f"  {table.name:<18} {conn.execute(select(func.count()).select_from(table)).scalar_one():>8}")

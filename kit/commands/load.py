@@ -1,0 +1,39 @@
+# SPDX-License-Identifier: MIT
+"""``kit load``: vessel particulars into the fleet database."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option
+
+
+@click.command()
+@click.argument("path", type=click.Path(path_type=str))
+@db_option()
+def load(engine, path: str) -> None:
+    """Load vessel particulars from PATH: a .toml file, a particulars workbook (.xlsx, see
+    `kit template particulars`) or a folder of .toml files.
+
+    All files are checked before anything is written, and all are written in one transaction.
+    A vessel already in the database is updated by its id, a unit by its id on the vessel;
+    loading the same file twice changes nothing. On-board stock is left alone.
+
+    Example: kit load demo_fleet/
+    """
+    from pathlib import Path
+
+    from catalog_schema.engine import write_transaction
+    from kit.fleet_store import save_vessels
+    from kit.particulars import load_folder, load_vessel
+    from kit.particulars_sheet import load_particulars_sheet
+
+    target = Path(path)
+    if target.is_dir():
+        vessels = load_folder(target)
+    elif target.suffix.lower() == ".xlsx":
+        vessels = [load_particulars_sheet(target)]
+    else:
+        vessels = [load_vessel(target)]
+    ids = write_transaction(engine, lambda conn: save_vessels(conn, vessels))
+    click.echo(f"loaded {len(ids)} vessel(s): {', '.join(ids)}")

@@ -1,0 +1,64 @@
+# SPDX-License-Identifier: MIT
+"""``kit parts``: the generic parts the fleet needs, in the fleet database."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option
+
+
+@click.group()
+def parts() -> None:
+    """Generic parts: register those the fleet's units need, and list them.
+
+    Example: kit parts register
+    """
+
+
+@parts.command()
+@click.option("--vessel", "vessel_ids", multiple=True, help="Only this vessel (repeatable); default all.")
+@click.option("--policy", "policy_file", type=click.Path(path_type=str), help="Company spares policy file (TOML).")
+@db_option()
+def register(engine, vessel_ids: tuple[str, ...], policy_file: str | None) -> None:
+    """Work out every unit's seal kit, oil, filter elements and spares, and add their generic
+    parts to the database, one row per part key, so catalogues and stock can refer to them.
+
+    Example: kit parts register --vessel CORVINA-BAY
+    """
+    from catalog_schema.engine import write_transaction
+    from kit.errors import InputError
+    from kit.fleet_store import read_vessels
+    from kit.parts_store import register_parts
+    from kit.requirements import assess_vessel
+    from kit.spares import load_policy
+
+    policy = load_policy(policy_file)
+    with engine.connect() as conn:
+        vessels = read_vessels(conn, vessel_ids or None)
+    missing = sorted(set(vessel_ids) - {v.id for v in vessels})
+    if missing:
+        raise InputError("--vessel", "vessel", "the id of a vessel in the database (kit load adds them)", got=repr(missing[0]))
+    items = [line for v in vessels for line in assess_vessel(v, 0.0, policy).lines]
+    count = write_transaction(engine, lambda conn: register_parts(conn, items))
+    click.echo(f"{count} generic part(s) for {len(vessels)} vessel(s) are in the database")
+
+
+@parts.command("list")
+@click.option("--kind", help="Only parts of this kind (e.g. rod_seal).")
+@db_option()
+def list_(engine, kind: str | None) -> None:
+    """List the generic parts: key, then designation.
+
+    Example: kit parts list --kind o_ring
+    """
+    from sqlalchemy import select
+
+    from kit.parts_store import PARTS
+
+    query = select(PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)
+    if kind:
+        query = query.where(PARTS.c.kind == kind)
+    with engine.connect() as conn:
+        for key, designation in conn.execute(query):
+            click.echo(f"{key}\t{designation}")

@@ -1,0 +1,60 @@
+# SPDX-License-Identifier: MIT
+"""``kit policy``: the spares policy in force per company or vessel."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option
+
+
+@click.group()
+def policy() -> None:
+    """The spares policy in force for a company's fleet or for one vessel.
+
+    Example: kit policy show --vessel CORVINA-BAY
+    """
+
+
+@policy.command("set")
+@click.option("--company", help="The company the policy is for.")
+@click.option("--vessel", help="The vessel the policy is for (wins over its company's).")
+@click.option("--name", required=True, help="The policy's name, e.g. its file name.")
+@click.option("--days", "cover_days", type=int, required=True, help="Days of cover on board.")
+@click.option("--from", "in_force_from", type=click.DateTime(["%Y-%m-%d"]), required=True, help="In force from (YYYY-MM-DD).")
+@click.option("--note", help="Free text, e.g. who approved it.")
+@db_option()
+def set_(engine, company, vessel, name, cover_days, in_force_from, note) -> None:
+    """Record a spares policy for one company or one vessel from a date.
+
+    Example: kit policy set --company "Marrowgate Ship Management Ltd" --name fleet-2025 --days 90 --from 2025-01-01
+    """
+    from catalog_schema.engine import write_transaction
+    from kit.policy_store import set_policy
+
+    write_transaction(engine, lambda conn: set_policy(conn, name=name, cover_days=cover_days, in_force_from=in_force_from.date(),
+                                                      company=company, vessel=vessel, note=note))
+    click.echo(f"policy {name} in force from {in_force_from.date().isoformat()} for {company or vessel}")
+
+
+@policy.command()
+@click.option("--vessel", required=True, help="The vessel's id.")
+@click.option("--on", type=click.DateTime(["%Y-%m-%d"]), help="The date (default today).")
+@db_option()
+def show(engine, vessel, on) -> None:
+    """Show the spares policy in force for a vessel (its own, else its company's).
+
+    Example: kit policy show --vessel CORVINA-BAY --on 2025-06-30
+    """
+    import datetime as dt
+
+    from kit.policy_store import policy_in_force
+
+    day = on.date() if on else dt.date.today()
+    with engine.connect() as conn:
+        found = policy_in_force(conn, vessel, day)
+    if found is None:
+        click.echo(f"{vessel}: no spares policy in force on {day.isoformat()}")
+    else:
+        click.echo(f"{vessel}: {found.name} ({found.scope} policy from {found.in_force_from.isoformat()}), "
+                   f"{found.cover_days} days of cover" + (f"; {found.note}" if found.note else ""))

@@ -1,0 +1,36 @@
+# SPDX-License-Identifier: MIT
+"""``kit stock``: a vessel's on-board stock in the fleet database."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option
+
+
+@click.group()
+def stock() -> None:
+    """On-board stock per vessel: import a count or receipts and issues.
+
+    Example: kit stock import corvina_stock.xlsx --vessel CORVINA-BAY
+    """
+
+
+@stock.command("import")
+@click.argument("file", type=click.Path(path_type=str))
+@click.option("--vessel", required=True, help="The vessel's id, as in its particulars.")
+@click.option("--mode", type=click.Choice(["count", "adjust"]), default="count", show_default=True,
+              help="count: quantities are what is on board; adjust: + received, - used.")
+@db_option()
+def import_(engine, file: str, vessel: str, mode: str) -> None:
+    """Write FILE's stock rows (.xlsx sheet "stock", or .csv; see `kit template stock`) for VESSEL.
+
+    Columns: part_key, designation (not read), location, quantity, counted_on (YYYY-MM-DD).
+    The whole file is refused if one row is bad; stock never goes below zero.
+
+    Example: kit stock import receipts.csv --vessel CORVINA-BAY --mode adjust
+    """
+    from kit.stock_import import import_stock
+
+    report = import_stock(engine, file, vessel, mode)
+    click.echo(f"{report.vessel}: {report.rows} stock row(s) written ({report.mode})")

@@ -1,0 +1,68 @@
+# SPDX-License-Identifier: MIT
+"""``kit template``: the spreadsheets kit reads, written empty or pre-filled."""
+
+from __future__ import annotations
+
+import click
+
+from kit.commands.common import db_option, reports_errors
+
+
+@click.group()
+def template() -> None:
+    """Write a spreadsheet for typing particulars, a stock count or a catalogue into.
+
+    Example: kit template particulars new_vessel.xlsx
+    """
+
+
+@template.command()
+@click.argument("out", type=click.Path(path_type=str))
+@click.option("--from", "from_toml", type=click.Path(path_type=str), help="Fill it from a .toml particulars file.")
+@reports_errors
+def particulars(out: str, from_toml: str | None) -> None:
+    """Write the particulars workbook OUT (.xlsx); `kit load OUT` reads it back.
+
+    Example: kit template particulars corvina.xlsx --from demo_fleet/corvina_bay.toml
+    """
+    from kit.particulars_sheet import write_particulars_template
+
+    if not out.lower().endswith(".xlsx"):
+        from kit.errors import InputError
+
+        raise InputError(out, "output file", "a name ending in .xlsx", got=repr(out))
+    write_particulars_template(out, from_toml)
+    click.echo(f"wrote {out}")
+
+
+@template.command("stock")
+@click.argument("out", type=click.Path(path_type=str))
+@click.option("--vessel", help="Fill in this vessel's stock as the database holds it.")
+@db_option()
+def stock_(engine, out: str, vessel: str | None) -> None:
+    """Write the stock sheet OUT (.xlsx or .csv): one row per generic part in the database.
+
+    Example: kit template stock corvina_count.xlsx --vessel CORVINA-BAY
+    """
+    from kit.sheets import write_sheet
+    from kit.stock_import import stock_template
+
+    with engine.connect() as conn:
+        sheet = stock_template(conn, vessel)
+    write_sheet(out, sheet)
+    click.echo(f"wrote {out} ({len(sheet.rows)} part row(s))")
+
+
+@template.command("catalogue")
+@click.argument("out", type=click.Path(path_type=str))
+@reports_errors
+def catalogue_(out: str) -> None:
+    """Write an empty catalogue sheet OUT (.xlsx or .csv) with kit's column names.
+
+    Example: kit template catalogue northwind.xlsx
+    """
+    from kit.catalogue_import import COLUMNS, NOTES, SHEET
+    from kit.sheets import Sheet, write_sheet
+
+    write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES))
+    click.echo(f"wrote {out}")

@@ -1,0 +1,99 @@
+# SPDX-License-Identifier: MIT
+"""Generic parts in the fleet database, and the dimensional columns that name one in a sheet.
+
+A generic part is one row per normalised key (:func:`kit.parts.part_key`). Parts come from the
+engine's line items (:func:`register_parts`), so the same housing on two vessels is one row;
+catalogue and stock sheets then refer to them by kind and dimensions, or by key.
+
+The columns a sheet uses to name a part (catalogue rows, see :data:`PART_COLUMNS`):
+
+- ``part_kind``: one of the kinds in :data:`kit.parts.PART_KINDS` (``rod_seal``, ``o_ring``, ...);
+- one column per dimension of that kind, named as in the designation (``d``, ``D``, ``L``,
+  ``t``, ``cut``, ``id``, ``cs``, ``length``, ``h``), each a length with a unit ("280 mm");
+- ``spec``: for kinds without dimensions (oil, filter element, other spares), the text the key
+  carries, e.g. ``HM 46``;
+- or ``part_key``: the normalised key itself, which then wins over the columns above.
+"""
+
+from __future__ import annotations
+
+from typing import Iterable
+
+from sqlalchemy import select
+from sqlalchemy.engine import Connection
+
+from catalog_schema.sql import upsert
+from catalog_schema.tables import PartRow
+from kit.errors import InputError
+from kit.parts import PART_KINDS, LineItem, part_key
+from kit.sheets import Row, Table
+from kit.units import to_si
+
+PARTS = PartRow.__table__
+DIMENSIONS = ("d", "D", "L", "t", "cut", "id", "cs", "length", "h")
+assert {n for _, names in PART_KINDS.values() for n in names} <= set(DIMENSIONS), "a part kind has a dimension with no column"
+PART_COLUMNS = ("part_key", "part_kind", *DIMENSIONS, "spec")
+# Kinds whose first two dimensions are an inner and an outer diameter.
+_INNER_OUTER = {"piston_seal": ("d", "D"), "rod_seal": ("d", "D"), "stock_seal": ("d", "D"), "wiper": ("d", "D"),
+                "guide_ring": ("d", "D")}
+
+
+def register_parts(conn: Connection, items: Iterable[LineItem]) -> int:
+    """Add the generic part of every line item not yet in the database; return how many keys."""
+    rows = {i.key: {"key": i.key, "kind": i.kind, "designation": i.designation, "standard": i.standard or None}
+            for i in items}
+    if rows:
+        conn.execute(upsert(conn, PARTS, ["key"]), sorted(rows.values(), key=lambda r: r["key"]))
+    return len(rows)
+
+
+def part_ids(conn: Connection) -> dict[str, int]:
+    """Every generic part's key and id."""
+    return dict(conn.execute(select(PARTS.c.key, PARTS.c.id)).all())
+
+
+class KeyReader:
+    """Builds part keys from sheet rows, parsing each distinct length string once."""
+
+    def __init__(self, table: Table):
+        self.table = table
+        self._mm: dict[object, float | str] = {}
+
+    def _length_mm(self, row: Row, column: str) -> float:
+        text = row.values[column]
+        cached = self._mm.get(text)
+        if cached is None:
+            try:
+                cached = to_si(text, "length", source="", field="") * 1000.0
+                if cached <= 0:
+                    cached = "a positive length"
+            except InputError as exc:
+                cached = exc.expected
+            self._mm[text] = cached
+        if isinstance(cached, str):
+            raise self.table.error(row, column, cached, text)
+        return cached
+
+    def key(self, row: Row) -> str:
+        given = row.values.get("part_key")
+        if given is not None:
+            text = str(given).strip()
+            if text.split(":", 1)[0] not in PART_KINDS:
+                raise self.table.error(row, "part_key", "a part key starting with a part kind, e.g. rod_seal:d=280:D=300:L=25", given)
+            return text
+        kind = row.values.get("part_kind")
+        if kind not in PART_KINDS:
+            raise self.table.error(row, "part_kind", "one of " + ", ".join(PART_KINDS) + " (or fill part_key)", kind)
+        names = PART_KINDS[kind][1]
+        for name in names:
+            if row.values.get(name) is None:
+                raise self.table.error(row, name, f"a length with a unit, e.g. \"25 mm\" (every {kind} gives {', '.join(names)})", "an empty cell")
+        dims = {name: self._length_mm(row, name) for name in names}
+        if kind in _INNER_OUTER:
+            inner, outer = _INNER_OUTER[kind]
+            if dims[inner] >= dims[outer]:
+                raise self.table.error(row, inner, f"{inner} smaller than {outer}", row.values[inner])
+        spec = row.values.get("spec")
+        if not names and spec is None:
+            raise self.table.error(row, "spec", f"the part's grade or reference (a {kind} has no dimensions)", "an empty cell")
+        return part_key(kind, dims, "" if spec is None else str(spec))

@@ -1,0 +1,153 @@
+# SPDX-License-Identifier: MIT
+"""A vessel's on-board stock from .xlsx or .csv, all or nothing; and the sheet kit writes for it.
+
+Columns (sheet ``stock`` of a workbook, or a CSV file), as :func:`stock_template` writes them:
+
+===============  ==============================================================================
+``part_key``     the generic part's normalised key (required; the template lists them)
+``designation``  what the part is, for the person counting (not read back)
+``location``     where on board it is kept (optional; default ``unassigned``)
+``quantity``     a number >= 0 in the part's unit of measure (pcs, L, m); in ``adjust`` mode the
+                 change: + for a receipt, - for an issue
+``counted_on``   the date of the count, YYYY-MM-DD (optional)
+===============  ==============================================================================
+
+In ``count`` mode each row sets the stock of its part at its location; in ``adjust`` mode it
+adds to it, in the database (``quantity = quantity + change``), so two imports at once both
+count. Stock that would go below zero is refused, and the database's CHECK refuses it too.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+from dataclasses import dataclass
+from pathlib import Path
+
+from sqlalchemy import and_, or_, select
+from sqlalchemy.engine import Connection, Engine
+
+from catalog_schema.engine import write_transaction
+from catalog_schema.sql import upsert
+from catalog_schema.tables import DEFAULT_LOCATION, PartRow, StockRow, VesselRow
+from kit.catalogue_import import number
+from kit.errors import InputError
+from kit.sheets import Row, Sheet, Table, read_table
+
+SHEET = "stock"
+COLUMNS = ("part_key", "designation", "location", "quantity", "counted_on")
+MODES = ("count", "adjust")
+NOTES = {
+    "part_key": "the generic part's key, as kit lists it; do not change it",
+    "designation": "what the part is (for the person counting; not read back)",
+    "location": f"where on board the part is kept; empty means {DEFAULT_LOCATION!r}",
+    "quantity": "count mode: what is on board (>= 0); adjust mode: + received, - used",
+    "counted_on": "date of the count, YYYY-MM-DD",
+}
+STOCK = StockRow.__table__
+PARTS = PartRow.__table__
+VESSELS = VesselRow.__table__
+
+
+@dataclass(frozen=True)
+class StockReport:
+    vessel: str
+    mode: str
+    rows: int
+
+
+def _date(table: Table, row: Row) -> dt.date | None:
+    value = row.values.get("counted_on")
+    if value is None:
+        return None
+    if isinstance(value, dt.datetime):
+        return value.date()
+    if isinstance(value, dt.date):
+        return value
+    try:
+        return dt.date.fromisoformat(str(value))
+    except ValueError:
+        raise table.error(row, "counted_on", "a date, YYYY-MM-DD", value) from None
+
+
+def _rows(table: Table, mode: str) -> list[tuple[Row, str, str, float, dt.date | None]]:
+    seen: dict[tuple[str, str], int] = {}
+    out = []
+    for row in table.rows:
+        key = row.values.get("part_key")
+        if key is None:
+            raise table.error(row, "part_key", "the generic part's key (see kit template stock)", "an empty cell")
+        location = str(row.values.get("location") or DEFAULT_LOCATION)
+        if (key, location) in seen:
+            raise table.error(row, "part_key", f"each part once per location (already on {table.where(seen[key, location])})", key)
+        seen[key, location] = row.line
+        quantity = number(table, row, "quantity", minimum=0.0 if mode == "count" else None)
+        if quantity is None:
+            raise table.error(row, "quantity", "a number", "an empty cell")
+        out.append((row, str(key), location, quantity, _date(table, row)))
+    return out
+
+
+def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count") -> StockReport:
+    """Write the stock rows of ``path`` for ``vessel_id`` in one transaction."""
+    if mode not in MODES:
+        raise InputError(str(path), "--mode", "one of " + ", ".join(MODES), got=repr(mode))
+    table = read_table(path, SHEET, known=COLUMNS, required=("part_key", "quantity"))
+    rows = _rows(table, mode)
+
+    def write(conn: Connection) -> StockReport:
+        if conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel_id)).first() is None:
+            raise InputError(str(path), "--vessel", "the id of a vessel in the database (kit load adds them)", got=repr(vessel_id))
+        keys = sorted({key for _, key, _, _, _ in rows})
+        known = dict(conn.execute(select(PARTS.c.key, PARTS.c.id).where(PARTS.c.key.in_(keys))).all()) if keys else {}
+        entries = []
+        for row, key, location, quantity, counted in rows:
+            if key not in known:
+                raise table.error(row, "part_key", "the key of a generic part in the database (see kit template stock)", key)
+            entries.append((row, {"vessel_id": vessel_id, "part_id": known[key], "location": location,
+                                  "quantity": quantity, "counted_on": counted}))
+        # One lock order for every writer, so two imports cannot deadlock each other.
+        entries.sort(key=lambda e: (e[1]["part_id"], e[1]["location"]))
+        values = [v for _, v in entries]
+        if mode == "adjust":
+            _refuse_negative(conn, table, vessel_id, entries)
+            stmt = upsert(conn, STOCK, ["vessel_id", "part_id", "location"], add=["quantity"])
+        else:
+            stmt = upsert(conn, STOCK, ["vessel_id", "part_id", "location"], update=["quantity", "counted_on"])
+        if values:
+            conn.execute(stmt, values)
+        return StockReport(vessel_id, mode, len(values))
+
+    return write_transaction(engine, write)
+
+
+def _refuse_negative(conn: Connection, table: Table, vessel_id: str, entries: list[tuple[Row, dict]]) -> None:
+    """Lock the rows an adjustment takes from and refuse one that would go below zero."""
+    issues = [(row, v) for row, v in entries if v["quantity"] < 0]
+    if not issues:
+        return
+    query = (select(STOCK.c.part_id, STOCK.c.location, STOCK.c.quantity)
+             .where(STOCK.c.vessel_id == vessel_id,
+                    or_(*[and_(STOCK.c.part_id == v["part_id"], STOCK.c.location == v["location"]) for _, v in issues]))
+             .order_by(STOCK.c.part_id, STOCK.c.location).with_for_update())
+    held = {(r.part_id, r.location): r.quantity for r in conn.execute(query)}
+    for row, v in issues:
+        have = held.get((v["part_id"], v["location"]), 0.0)
+        if have + v["quantity"] < 0:
+            raise table.error(row, "quantity", f"an issue of at most {have:g} (what is on board at {v['location']})", v["quantity"])
+
+
+def stock_template(conn: Connection, vessel_id: str | None) -> Sheet:
+    """The stock sheet: one row per generic part, with the vessel's current stock filled in."""
+    parts = conn.execute(select(PARTS.c.id, PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)).all()
+    held: dict[int, list] = {}
+    if vessel_id is not None:
+        if conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel_id)).first() is None:
+            raise InputError("--vessel", "vessel", "the id of a vessel in the database (kit load adds them)", got=repr(vessel_id))
+        for r in conn.execute(select(STOCK).where(STOCK.c.vessel_id == vessel_id).order_by(STOCK.c.location)):
+            held.setdefault(r.part_id, []).append(r)
+    rows = []
+    for p in parts:
+        for s in held.get(p.id, [None]):
+            rows.append([p.key, p.designation, None if s is None else s.location, None if s is None else s.quantity,
+                         None if s is None or s.counted_on is None else s.counted_on.isoformat()])
+    return Sheet(SHEET, COLUMNS, rows, NOTES)
