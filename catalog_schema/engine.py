@@ -59,15 +59,18 @@ def shown(url: str) -> str:
         return url
 
 
-def make_engine(url: str) -> Engine:
-    """Open an engine on ``url`` with the settings two processes need to share it."""
+def make_engine(url: str, busy_timeout_ms: int = BUSY_TIMEOUT_MS) -> Engine:
+    """Open an engine on ``url`` with the settings two processes need to share it.
+
+    ``busy_timeout_ms`` is how long a SQLite writer waits for another's lock before giving up.
+    """
     try:
         parsed = make_url(url)
     except ArgumentError:
         raise DatabaseError(url, "not a database URL or path", "give a file path or e.g. postgresql+psycopg://user@host/db") from None
     backend = parsed.get_backend_name()
     if backend == "sqlite":
-        return _sqlite_engine(url, parsed.database)
+        return _sqlite_engine(url, parsed.database, busy_timeout_ms)
     if backend == "postgresql":
         if parsed.get_driver_name() != "psycopg":
             raise DatabaseError(shown(url), "PostgreSQL is reached through psycopg 3", "write the URL as postgresql+psycopg://...")
@@ -78,17 +81,17 @@ def make_engine(url: str) -> Engine:
     raise DatabaseError(shown(url), f"unsupported database {backend!r}", "use a SQLite file or postgresql+psycopg://")
 
 
-def _sqlite_engine(url: str, database: str | None) -> Engine:
+def _sqlite_engine(url: str, database: str | None, busy_timeout_ms: int) -> Engine:
     if database and database != ":memory:":
         Path(database).parent.mkdir(parents=True, exist_ok=True)
-    engine = create_engine(url, connect_args={"timeout": BUSY_TIMEOUT_MS / 1000})
+    engine = create_engine(url, connect_args={"timeout": busy_timeout_ms / 1000})
 
     @event.listens_for(engine, "connect")
     def _on_connect(dbapi_connection, _record) -> None:  # type: ignore[no-untyped-def]
         dbapi_connection.isolation_level = None  # SQLAlchemy's "begin" event issues BEGIN itself
         cursor = dbapi_connection.cursor()
         cursor.execute("PRAGMA journal_mode=WAL")
-        cursor.execute(f"PRAGMA busy_timeout={BUSY_TIMEOUT_MS}")
+        cursor.execute(f"PRAGMA busy_timeout={int(busy_timeout_ms)}")
         cursor.execute("PRAGMA foreign_keys=ON")
         cursor.close()
 

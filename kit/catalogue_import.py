@@ -45,7 +45,7 @@ NOTES = {
     "L": 'housing length, e.g. "25 mm"',
     "t": "guide strip thickness", "cut": "cut length of a strip or cord", "id": "O-ring inside diameter",
     "cs": "O-ring cross-section", "length": "vane strip length", "h": "vane height",
-    "spec": "for oil, filter elements and other spares: grade or reference, e.g. HM 46",
+    "spec": "seal compound (NBR, AU ...), oil grade (HM 46) or element/spare reference, as in the part key",
     "pack_qty": "pieces (or L, m) per pack, a whole number, default 1",
     "price": "price per pack, a number", "currency": "ISO 4217 code, e.g. EUR",
     "lead_time_days": "whole days from order to dispatch",

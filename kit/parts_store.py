@@ -10,8 +10,9 @@ The columns a sheet uses to name a part (catalogue rows, see :data:`PART_COLUMNS
 - ``part_kind``: one of the kinds in :data:`kit.parts.PART_KINDS` (``rod_seal``, ``o_ring``, ...);
 - one column per dimension of that kind, named as in the designation (``d``, ``D``, ``L``,
   ``t``, ``cut``, ``id``, ``cs``, ``length``, ``h``), each a length with a unit ("280 mm");
-- ``spec``: for kinds without dimensions (oil, filter element, other spares), the text the key
-  carries, e.g. ``HM 46``;
+- ``spec``: the text the key carries after the dimensions: the seal compound for seals, guide
+  rings and O-rings (``NBR``, ``AU``), the grade for oil (``HM 46``), the reference for a
+  filter element or other spare (required for kinds without dimensions);
 - or ``part_key``: the normalised key itself, which then wins over the columns above.
 """
 

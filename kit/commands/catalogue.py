@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option
 
 
-@click.group()
+@click.group(epilog=SAFETY)
 def catalogue() -> None:
     """Suppliers' catalogues: import one and see which rows match the fleet's generic parts.
 
@@ -16,7 +17,7 @@ def catalogue() -> None:
     """
 
 
-@catalogue.command("import")
+@catalogue.command("import", epilog=SAFETY)
 @click.argument("file", type=click.Path(path_type=str))
 @click.option("--supplier", required=True, help="The supplier whose catalogue FILE is.")
 @click.option("--show-unmatched", default=20, show_default=True, help="How many unmatched rows to list.")
@@ -25,8 +26,8 @@ def import_(engine, file: str, supplier: str, show_unmatched: int) -> None:
     """Replace SUPPLIER's catalogue by FILE (.xlsx sheet "catalogue", or .csv).
 
     Columns: supplier_ref, part_kind with the dimension columns of that kind (d, D, L, t, cut,
-    id, cs, length, h; lengths with a unit, "280 mm") or part_key, spec (oil grade or element
-    reference), description, pack_qty, price, currency (ISO 4217), lead_time_days. The whole
+    id, cs, length, h; lengths with a unit, "280 mm") or part_key, spec (seal compound, oil
+    grade or element reference), description, pack_qty, price, currency (ISO 4217), lead_time_days. The whole
     file is refused if one row is bad. Rows that match no generic part are kept and listed.
 
     Example: kit catalogue import northwind_seals.csv --supplier "Northwind Seals"

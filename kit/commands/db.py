@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option
 
 
-@click.group()
+@click.group(epilog=SAFETY)
 def db() -> None:
     """Build, upgrade and inspect the fleet database.
 
@@ -19,7 +20,7 @@ def db() -> None:
     """
 
 
-@db.command()
+@db.command(epilog=SAFETY)
 @click.option("--to", "revision", default="head", show_default=True, help="Revision to reach.")
 @db_option(migrate=False)
 def upgrade(engine, revision: str) -> None:
@@ -33,7 +34,7 @@ def upgrade(engine, revision: str) -> None:
     click.echo(f"schema at revision {after}" + ("" if before == after else f" (was {before or 'empty'})"))
 
 
-@db.command()
+@db.command(epilog=SAFETY)
 @db_option(migrate=False)
 def status(engine) -> None:
     """Show the database, its schema revision and how many rows each table holds.

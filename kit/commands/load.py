@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option
 
 
-@click.command()
+@click.command(epilog=SAFETY)
 @click.argument("path", type=click.Path(path_type=str))
 @db_option()
 def load(engine, path: str) -> None:

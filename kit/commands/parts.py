@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option
 
 
-@click.group()
+@click.group(epilog=SAFETY)
 def parts() -> None:
     """Generic parts: register those the fleet's units need, and list them.
 
@@ -16,7 +17,7 @@ def parts() -> None:
     """
 
 
-@parts.command()
+@parts.command(epilog=SAFETY)
 @click.option("--vessel", "vessel_ids", multiple=True, help="Only this vessel (repeatable); default all.")
 @click.option("--policy", "policy_file", type=click.Path(path_type=str), help="Company spares policy file (TOML).")
 @db_option()
@@ -44,7 +45,7 @@ def register(engine, vessel_ids: tuple[str, ...], policy_file: str | None) -> No
     click.echo(f"{count} generic part(s) for {len(vessels)} vessel(s) are in the database")
 
 
-@parts.command("list")
+@parts.command("list", epilog=SAFETY)
 @click.option("--kind", help="Only parts of this kind (e.g. rod_seal).")
 @db_option()
 def list_(engine, kind: str | None) -> None:

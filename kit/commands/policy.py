@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option
 
 
-@click.group()
+@click.group(epilog=SAFETY)
 def policy() -> None:
     """The spares policy in force for a company's fleet or for one vessel.
 
@@ -16,7 +17,7 @@ def policy() -> None:
     """
 
 
-@policy.command("set")
+@policy.command("set", epilog=SAFETY)
 @click.option("--company", help="The company the policy is for.")
 @click.option("--vessel", help="The vessel the policy is for (wins over its company's).")
 @click.option("--name", required=True, help="The policy's name, e.g. its file name.")
@@ -37,7 +38,7 @@ def set_(engine, company, vessel, name, cover_days, in_force_from, note) -> None
     click.echo(f"policy {name} in force from {in_force_from.date().isoformat()} for {company or vessel}")
 
 
-@policy.command()
+@policy.command(epilog=SAFETY)
 @click.option("--vessel", required=True, help="The vessel's id.")
 @click.option("--on", type=click.DateTime(["%Y-%m-%d"]), help="The date (default today).")
 @db_option()

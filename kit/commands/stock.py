@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option
 
 
-@click.group()
+@click.group(epilog=SAFETY)
 def stock() -> None:
     """On-board stock per vessel: import a count or receipts and issues.
 
@@ -16,7 +17,7 @@ def stock() -> None:
     """
 
 
-@stock.command("import")
+@stock.command("import", epilog=SAFETY)
 @click.argument("file", type=click.Path(path_type=str))
 @click.option("--vessel", required=True, help="The vessel's id, as in its particulars.")
 @click.option("--mode", type=click.Choice(["count", "adjust"]), default="count", show_default=True,

@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import click
 
+from kit.cli import SAFETY
 from kit.commands.common import db_option, reports_errors
 
 
-@click.group()
+@click.group(epilog=SAFETY)
 def template() -> None:
     """Write a spreadsheet for typing particulars, a stock count or a catalogue into.
 
@@ -16,7 +17,7 @@ def template() -> None:
     """
 
 
-@template.command()
+@template.command(epilog=SAFETY)
 @click.argument("out", type=click.Path(path_type=str))
 @click.option("--from", "from_toml", type=click.Path(path_type=str), help="Fill it from a .toml particulars file.")
 @reports_errors
@@ -35,7 +36,7 @@ def particulars(out: str, from_toml: str | None) -> None:
     click.echo(f"wrote {out}")
 
 
-@template.command("stock")
+@template.command("stock", epilog=SAFETY)
 @click.argument("out", type=click.Path(path_type=str))
 @click.option("--vessel", help="Fill in this vessel's stock as the database holds it.")
 @db_option()
@@ -53,7 +54,7 @@ def stock_(engine, out: str, vessel: str | None) -> None:
     click.echo(f"wrote {out} ({len(sheet.rows)} part row(s))")
 
 
-@template.command("catalogue")
+@template.command("catalogue", epilog=SAFETY)
 @click.argument("out", type=click.Path(path_type=str))
 @reports_errors
 def catalogue_(out: str) -> None:

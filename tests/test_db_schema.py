@@ -1,0 +1,111 @@
+# SPDX-License-Identifier: MIT
+"""Schema and migrations on SQLite and PostgreSQL: the head schema equals the tables, an old
+database upgrades with every row intact, and the database itself refuses bad rows."""
+
+from __future__ import annotations
+
+import datetime as dt
+
+import pytest
+from alembic.autogenerate import compare_metadata
+from alembic.runtime.migration import MigrationContext
+from sqlalchemy import MetaData, insert, text
+from sqlalchemy.exc import IntegrityError
+
+from catalog_schema.engine import make_engine
+from catalog_schema.errors import SchemaVersionError
+from catalog_schema.migrate import current, head, require_current, upgrade
+from catalog_schema.tables import DEFAULT_LOCATION, PartRow, SQLModel, StockRow, VesselRow
+from db_support import db_url, engine  # noqa: F401  (fixtures)
+
+
+def test_fresh_database_reaches_the_tables_schema(db_url):
+    eng = make_engine(db_url)
+    assert upgrade(eng) == (None, head())
+    with eng.connect() as conn:
+        diff = compare_metadata(MigrationContext.configure(conn, opts={"compare_type": True}), SQLModel.metadata)
+    assert diff == []
+    eng.dispose()
+
+
+def _fill_revision_0001(conn) -> dict[str, list[dict]]:
+    rows = {
+        "companies": [{"id": 1, "name": "Brackwater Test Shipping"}],
+        "vessels": [{"id": "V1", "name": "One", "ship_type": "cargo", "gross_tonnage": 5000.0, "company_id": 1, "source": "v1.toml"},
+                    {"id": "V2", "name": "Two", "ship_type": "tanker", "gross_tonnage": 30000.5, "company_id": None, "source": None}],
+        "units": [{"id": 7, "vessel_id": "V1", "ref": "SG1", "seq": 0, "service": "steering", "actuator": "ram", "count": 2,
+                   "working_pressure": 16e6, "fluid_category": "HM", "fluid_grade": 46, "max_rudder_angle": 0.61, "isolation_valves": True}],
+        "actuators": [{"unit_id": 7, "ram_diameter": 0.28, "bore": None, "rod": None, "stroke": 0.9, "tiller_radius": 0.6,
+                       "vanes": None, "vane_height": None, "housing_bore": None, "hub_diameter": None, "stock_diameter": None}],
+        "power_units": [{"unit_id": 7, "pumps": 2, "pump_flow": 0.002, "reservoir": 0.3, "system_oil": None,
+                         "oil_leakage": 0.0, "pump_model": None, "valve_blocks": 1}],
+        "filter_positions": [{"unit_id": 7, "seq": 0, "position": "return", "elements": 1, "change_interval": 7.2e6,
+                              "duty_hours_per_day": 24.0, "element_ref": None}],
+        "parts": [{"id": 3, "key": "o_ring:id=236:cs=5.3:nbr", "kind": "o_ring", "designation": "O-ring ID 236 x CS 5.3", "standard": "ISO 3601-1"}],
+        "suppliers": [{"id": 4, "name": "Test Seals"}],
+        "catalogue_entries": [{"id": 9, "supplier_id": 4, "supplier_ref": "OR-236", "part_key": "o_ring:id=236:cs=5.3:nbr", "part_id": 3,
+                               "description": None, "pack_qty": 10, "price": 12.5, "currency": "EUR", "lead_time_days": 5}],
+        "stock": [{"id": 11, "vessel_id": "V1", "part_id": 3, "quantity": 4.0, "counted_on": dt.date(2025, 3, 1)}],
+    }
+    old = MetaData()
+    old.reflect(conn)  # the tables as revision 0001 built them, not as the head models are
+    for name, values in rows.items():
+        conn.execute(insert(old.tables[name]).values(values))
+    return rows
+
+
+def test_upgrade_from_first_revision_keeps_every_row(db_url):
+    eng = make_engine(db_url)
+    upgrade(eng, "0001")
+    with eng.begin() as conn:
+        before = _fill_revision_0001(conn)
+    with pytest.raises(SchemaVersionError, match="schema is at revision 0001, this kit needs 0002; run: kit db upgrade"):
+        require_current(eng)
+    assert upgrade(eng) == ("0001", "0002")
+    with eng.connect() as conn:
+        for name, rows in before.items():
+            table = SQLModel.metadata.tables[name]
+            found = [r._asdict() for r in conn.execute(table.select().order_by(*table.primary_key.columns))]
+            if name == "stock":
+                assert [r.pop("location") for r in found] == [DEFAULT_LOCATION]
+            assert found == rows, name
+    # The new natural key lets the same part be kept in a second place.
+    with eng.begin() as conn:
+        conn.execute(insert(StockRow.__table__).values(vessel_id="V1", part_id=3, location="steering gear room", quantity=2.0))
+    eng.dispose()
+
+
+@pytest.mark.parametrize("bad", [
+    {"quantity": -1.0},                      # CHECK quantity >= 0
+    {"vessel_id": "NO-SUCH-VESSEL"},         # foreign key
+    {"location": "store"},                   # unique (vessel, part, location): second row
+], ids=["negative", "foreign-key", "duplicate"])
+def test_database_refuses_bad_stock_rows(engine, bad):
+    with engine.begin() as conn:
+        conn.execute(insert(VesselRow.__table__).values(id="V1", name="One", ship_type="cargo", gross_tonnage=100.0))
+        pid = conn.execute(insert(PartRow.__table__).values(key="spare:x", kind="spare", designation="x")
+                           .returning(PartRow.__table__.c.id)).scalar_one()
+        conn.execute(insert(StockRow.__table__).values(vessel_id="V1", part_id=pid, location="store", quantity=1.0))
+    row = {"vessel_id": "V1", "part_id": pid, "location": "other", "quantity": 1.0, **bad}
+    with pytest.raises(IntegrityError):
+        with engine.begin() as conn:
+            conn.execute(insert(StockRow.__table__).values(**row))
+
+
+def test_part_key_is_unique(engine):
+    parts = PartRow.__table__
+    with engine.begin() as conn:
+        conn.execute(insert(parts).values(key="oil:hm 46", kind="oil", designation="hydraulic oil HM 46"))
+    with pytest.raises(IntegrityError):
+        with engine.begin() as conn:
+            conn.execute(insert(parts).values(key="oil:hm 46", kind="oil", designation="again"))
+
+
+def test_sqlite_is_shared_safely(tmp_path):
+    eng = make_engine(f"sqlite:///{tmp_path / 'f.sqlite'}")
+    with eng.connect() as conn:
+        assert conn.execute(text("PRAGMA journal_mode")).scalar() == "wal"
+        assert conn.execute(text("PRAGMA busy_timeout")).scalar() == 30000
+        assert conn.execute(text("PRAGMA foreign_keys")).scalar() == 1
+    assert current(eng) is None
+    eng.dispose()
