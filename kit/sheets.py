@@ -121,7 +121,20 @@ def _open_workbook(path: Path):
     try:
         return openpyxl.load_workbook(path, read_only=True, data_only=True)
     except (InvalidFileException, zipfile.BadZipFile, KeyError, OSError, ValueError) as exc:
-        raise InputError(source, "file", WORKBOOK, got=type(exc).__name__ + (f": {exc}" if str(exc) else "")) from None
+        raise _refusal(source, exc) from None
+
+
+def _refusal(source: str, exc: BaseException) -> InputError:
+    """One line for a workbook openpyxl could not read; entity tricks named as such."""
+    from defusedxml import DefusedXmlException
+
+    cause: BaseException | None = exc
+    while cause is not None:
+        if isinstance(cause, DefusedXmlException):
+            return InputError(source, "file", "a workbook without XML entity declarations", got=type(cause).__name__)
+        cause = cause.__cause__ or cause.__context__
+    first = str(exc).strip().splitlines()[0] if str(exc).strip() else ""
+    return InputError(source, "file", WORKBOOK, got=type(exc).__name__ + (f": {first}" if first else ""))
 
 
 def _xlsx_lines(ws) -> Iterable[tuple[int, Sequence[Any]]]:
@@ -135,10 +148,8 @@ def _safely(path: str, lines: Iterable[tuple[int, Sequence[Any]]]) -> Iterable[t
 
     try:
         yield from lines
-    except DefusedXmlException as exc:
-        raise InputError(path, "file", "a workbook without XML entity declarations", got=type(exc).__name__) from None
-    except (SyntaxError, KeyError, zipfile.BadZipFile) as exc:  # ElementTree.ParseError is a SyntaxError
-        raise InputError(path, "file", WORKBOOK, got=f"damaged sheet XML ({exc})") from None
+    except (DefusedXmlException, SyntaxError, KeyError, ValueError, zipfile.BadZipFile) as exc:
+        raise _refusal(path, exc) from None  # ElementTree.ParseError is a SyntaxError
 
 
 def read_table(path: str | Path, sheet: str, *, known: Sequence[str] | None = None, required: Sequence[str] = (),

@@ -23,7 +23,7 @@ import datetime as dt
 from dataclasses import dataclass
 from pathlib import Path
 
-from sqlalchemy import and_, or_, select
+from sqlalchemy import and_, bindparam, or_, select, update
 from sqlalchemy.engine import Connection, Engine
 
 from catalog_schema.engine import write_transaction
@@ -108,13 +108,22 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "
         # One lock order for every writer, so two imports cannot deadlock each other.
         entries.sort(key=lambda e: (e[1]["part_id"], e[1]["location"]))
         values = [v for _, v in entries]
-        if mode == "adjust":
-            _refuse_negative(conn, table, vessel_id, entries)
-            stmt = upsert(conn, STOCK, ["vessel_id", "part_id", "location"], add=["quantity"])
-        else:
-            stmt = upsert(conn, STOCK, ["vessel_id", "part_id", "location"], update=["quantity", "counted_on"])
-        if values:
-            conn.execute(stmt, values)
+        natural_key = ["vessel_id", "part_id", "location"]
+        if mode == "count":
+            if values:
+                conn.execute(upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]), values)
+            return StockReport(vessel_id, mode, len(values))
+        _refuse_negative(conn, table, vessel_id, entries)
+        # An issue only changes a row that exists (checked above). It cannot go through
+        # INSERT ... ON CONFLICT: both engines check the CHECK on the row proposed for insertion.
+        issues = [{"d": v["quantity"], "v": v["vessel_id"], "p": v["part_id"], "l": v["location"]} for v in values if v["quantity"] < 0]
+        receipts = [v for v in values if v["quantity"] >= 0]
+        if receipts:
+            conn.execute(upsert(conn, STOCK, natural_key, add=["quantity"]), receipts)
+        if issues:
+            conn.execute(update(STOCK).where(STOCK.c.vessel_id == bindparam("v"), STOCK.c.part_id == bindparam("p"),
+                                             STOCK.c.location == bindparam("l"))
+                         .values(quantity=STOCK.c.quantity + bindparam("d")), issues)
         return StockReport(vessel_id, mode, len(values))
 
     return write_transaction(engine, write)

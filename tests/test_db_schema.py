@@ -109,3 +109,12 @@ def test_sqlite_is_shared_safely(tmp_path):
         assert conn.execute(text("PRAGMA foreign_keys")).scalar() == 1
     assert current(eng) is None
     eng.dispose()
+
+
+def test_check_constraints_are_in_the_database_as_named_in_the_tables(engine):
+    from sqlalchemy import CheckConstraint, inspect
+
+    found = inspect(engine)
+    for table in SQLModel.metadata.sorted_tables:
+        declared = {c.name for c in table.constraints if isinstance(c, CheckConstraint)}
+        assert {c["name"] for c in found.get_check_constraints(table.name)} == declared, table.name

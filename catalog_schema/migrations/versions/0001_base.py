@@ -25,7 +25,7 @@ def _unit_child(name: str, *columns: sa.Column, checks: tuple[tuple[str, str], .
         *columns,
         sa.PrimaryKeyConstraint(*[c.name for c in keys], name=f"pk_{name}"),
         sa.ForeignKeyConstraint(["unit_id"], ["units.id"], name=f"fk_{name}_unit_id_units", ondelete="CASCADE"),
-        *[sa.CheckConstraint(sql, name=f"ck_{name}_{label}") for label, sql in checks],
+        *[sa.CheckConstraint(sql, name=op.f(f"ck_{name}_{label}")) for label, sql in checks],
     )
 
 
@@ -55,8 +55,8 @@ def upgrade() -> None:
         _int("company_id", True), _text("source", True),
         sa.PrimaryKeyConstraint("id", name="pk_vessels"),
         sa.ForeignKeyConstraint(["company_id"], ["companies.id"], name="fk_vessels_company_id_companies", ondelete="RESTRICT"),
-        sa.CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker')", name="ck_vessels_ship_type"),
-        sa.CheckConstraint("gross_tonnage >= 1", name="ck_vessels_gross_tonnage"),
+        sa.CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker')", name=op.f("ck_vessels_ship_type")),
+        sa.CheckConstraint("gross_tonnage >= 1", name=op.f("ck_vessels_gross_tonnage")),
     )
     op.create_table(
         "units",
@@ -67,10 +67,10 @@ def upgrade() -> None:
         sa.PrimaryKeyConstraint("id", name="pk_units"),
         sa.ForeignKeyConstraint(["vessel_id"], ["vessels.id"], name="fk_units_vessel_id_vessels", ondelete="CASCADE"),
         sa.UniqueConstraint("vessel_id", "ref", name="uq_units_vessel_id_ref"),
-        sa.CheckConstraint("actuator IN ('ram', 'rotary_vane', 'cylinder')", name="ck_units_actuator"),
-        sa.CheckConstraint("count >= 1", name="ck_units_count"),
-        sa.CheckConstraint("working_pressure > 0", name="ck_units_working_pressure"),
-        sa.CheckConstraint("fluid_grade > 0", name="ck_units_fluid_grade"),
+        sa.CheckConstraint("actuator IN ('ram', 'rotary_vane', 'cylinder')", name=op.f("ck_units_actuator")),
+        sa.CheckConstraint("count >= 1", name=op.f("ck_units_count")),
+        sa.CheckConstraint("working_pressure > 0", name=op.f("ck_units_working_pressure")),
+        sa.CheckConstraint("fluid_grade > 0", name=op.f("ck_units_fluid_grade")),
     )
     _unit_child(
         "actuators",
@@ -130,10 +130,10 @@ def upgrade() -> None:
         sa.ForeignKeyConstraint(["supplier_id"], ["suppliers.id"], name="fk_catalogue_entries_supplier_id_suppliers", ondelete="CASCADE"),
         sa.ForeignKeyConstraint(["part_id"], ["parts.id"], name="fk_catalogue_entries_part_id_parts", ondelete="SET NULL"),
         sa.UniqueConstraint("supplier_id", "supplier_ref", name="uq_catalogue_entries_supplier_id_supplier_ref"),
-        sa.CheckConstraint("pack_qty >= 1", name="ck_catalogue_entries_pack_qty"),
-        sa.CheckConstraint("price IS NULL OR price >= 0", name="ck_catalogue_entries_price"),
-        sa.CheckConstraint("lead_time_days IS NULL OR lead_time_days >= 0", name="ck_catalogue_entries_lead_time_days"),
-        sa.CheckConstraint("length(currency) = 3", name="ck_catalogue_entries_currency"),
+        sa.CheckConstraint("pack_qty >= 1", name=op.f("ck_catalogue_entries_pack_qty")),
+        sa.CheckConstraint("price IS NULL OR price >= 0", name=op.f("ck_catalogue_entries_price")),
+        sa.CheckConstraint("lead_time_days IS NULL OR lead_time_days >= 0", name=op.f("ck_catalogue_entries_lead_time_days")),
+        sa.CheckConstraint("length(currency) = 3", name=op.f("ck_catalogue_entries_currency")),
     )
     op.create_index("ix_catalogue_entries_part_key", "catalogue_entries", ["part_key"])
     op.create_table(
@@ -144,7 +144,7 @@ def upgrade() -> None:
         sa.ForeignKeyConstraint(["vessel_id"], ["vessels.id"], name="fk_stock_vessel_id_vessels", ondelete="CASCADE"),
         sa.ForeignKeyConstraint(["part_id"], ["parts.id"], name="fk_stock_part_id_parts", ondelete="RESTRICT"),
         sa.UniqueConstraint("vessel_id", "part_id", name="uq_stock_vessel_id_part_id"),
-        sa.CheckConstraint("quantity >= 0", name="ck_stock_quantity"),
+        sa.CheckConstraint("quantity >= 0", name=op.f("ck_stock_quantity")),
     )
 
 

@@ -32,8 +32,8 @@ def upgrade() -> None:
         sa.PrimaryKeyConstraint("id", name="pk_spares_policies"),
         sa.ForeignKeyConstraint(["company_id"], ["companies.id"], name="fk_spares_policies_company_id_companies", ondelete="CASCADE"),
         sa.ForeignKeyConstraint(["vessel_id"], ["vessels.id"], name="fk_spares_policies_vessel_id_vessels", ondelete="CASCADE"),
-        sa.CheckConstraint("(company_id IS NULL) <> (vessel_id IS NULL)", name="ck_spares_policies_one_scope"),
-        sa.CheckConstraint("cover_days >= 0", name="ck_spares_policies_cover_days"),
+        sa.CheckConstraint("(company_id IS NULL) <> (vessel_id IS NULL)", name=op.f("ck_spares_policies_one_scope")),
+        sa.CheckConstraint("cover_days >= 0", name=op.f("ck_spares_policies_cover_days")),
         sa.UniqueConstraint("company_id", "in_force_from", name="uq_spares_policies_company_id_in_force_from"),
         sa.UniqueConstraint("vessel_id", "in_force_from", name="uq_spares_policies_vessel_id_in_force_from"),
     )
