@@ -70,3 +70,14 @@ class TableChecksumError(KitError, RuntimeError):
 
     def __str__(self) -> str:
         return f"data table {self.table} changed: sha256 {self.actual}, recorded {self.expected}"
+
+
+@dataclass
+class OutputError(KitError, OSError):
+    """An output file could not be written; nothing was left half-written."""
+
+    target: str
+    expected: str
+
+    def __str__(self) -> str:
+        return f"{self.target}: output: expected {self.expected}"

@@ -1,0 +1,301 @@
+# SPDX-License-Identifier: MIT
+"""The bill of materials workbook (openpyxl, write-only mode).
+
+Sheets: ``Cover`` (scope, date, period, policy, totals, the caution and the basis notes),
+``Order lines``, ``Vessel split``, ``Seal kits``, ``Oil and filters`` and ``Gear checks``.
+"To order", packs, line totals, the oil package plan and the cover totals are live formulas over
+"Required" and "On board", so a purchaser who edits an on-board count sees the order follow.
+Text that starts with a formula character is written as a string cell (:mod:`kit.safe_text`).
+The file is written to a temporary name beside the target and renamed into place, so a crash
+never leaves half a workbook.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import os
+import tempfile
+from pathlib import Path
+from typing import Any, Iterable
+
+from openpyxl import Workbook
+from openpyxl.cell import WriteOnlyCell
+from openpyxl.styles import Alignment, Font, PatternFill
+from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.properties import PageSetupProperties
+
+from kit.bom import Order
+from kit.cli import SAFETY
+from kit.errors import KitError, OutputError
+from kit.oil import L_PER_M3, US_GAL_PER_M3
+from kit.oil_grades import density_kg_per_l
+from kit.parts import fmt_mm
+from kit.report import seal_json
+from kit.safe_text import is_risky
+from kit.seal_kit import mm
+
+HEADER_FONT = Font(bold=True)
+HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
+WRAP = Alignment(wrap_text=True, vertical="top")
+
+ORDER_COLUMNS = (
+    ("No", 6, "0"), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
+    ("Required", 11, "#,##0.0"), ("On board", 11, "#,##0.0"), ("To order", 11, "#,##0.0"), ("UoM", 6, None),
+    ("Pack size", 10, "#,##0.##"), ("Packs", 8, "0"), ("Supplier", 18, None), ("Supplier part no", 18, None),
+    ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
+    ("Lead time [days]", 10, "0"), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
+)
+COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS, 1)}
+
+
+class _Sheet:
+    """A write-only sheet with a styled, frozen, filtered header row and print set-up."""
+
+    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True,
+                 wrap: bool = False):
+        self.ws = wb.create_sheet(title)
+        self.wrap = wrap
+        self.columns = list(columns)
+        self.formats = [fmt for _, _, fmt in self.columns]
+        for i, (_, width, _) in enumerate(self.columns, 1):
+            self.ws.column_dimensions[get_column_letter(i)].width = width
+        ps = self.ws.page_setup
+        ps.orientation = "landscape"
+        ps.fitToWidth, ps.fitToHeight = 1, 0
+        self.ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=True)
+        self.rows = 0
+        if header_row:
+            self.ws.freeze_panes = "A2"
+            self.ws.print_title_rows = "1:1"
+            self.append([name for name, _, _ in self.columns], header=True)
+
+    def cell(self, value: Any, fmt: str | None = None, header: bool = False) -> WriteOnlyCell:
+        c = WriteOnlyCell(self.ws, value=value)
+        if is_risky(value) and not getattr(value, "is_formula", False):
+            c.data_type = "s"  # user or supplier text: never a formula
+        if header:
+            c.font, c.fill, c.alignment = HEADER_FONT, HEADER_FILL, WRAP
+        elif fmt and (not isinstance(value, str) or isinstance(value, Formula)):
+            c.number_format = fmt
+        if self.wrap:
+            c.alignment = WRAP
+        return c
+
+    def append(self, values: list[Any], header: bool = False) -> int:
+        cells = [self.cell(v, self.formats[i] if i < len(self.formats) else None, header) for i, v in enumerate(values)]
+        self.ws.append(cells)
+        self.rows += 1
+        return self.rows
+
+    def finish(self) -> None:
+        if self.rows > 1:
+            self.ws.auto_filter.ref = f"A1:{get_column_letter(len(self.columns))}{self.rows}"
+
+
+class Formula(str):
+    """A formula kit itself writes (never user text)."""
+
+    is_formula = True
+
+
+def _roundup(ratio: str) -> str:
+    """Whole packs for ``ratio`` (a formula), never below 0; the 1e-9 keeps 3.0000000001 at 3."""
+    return f"ROUNDUP(MAX(0,{ratio}-0.000000001),0)"
+
+
+def _order_sheet(wb: Workbook, order: Order) -> dict[str, int]:
+    sheet = _Sheet(wb, "Order lines", ORDER_COLUMNS)
+    rows: dict[str, int] = {}
+    for line in order.lines:
+        r = sheet.rows + 1
+        m = line.match
+        pack = m.pack_quantity if m else (None if line.kind == "oil" else 1)
+        c = COL
+        packs = _roundup(f"{c['To order']}{r}/{c['Pack size']}{r}")
+        sheet.append([
+            line.number, line.designation, line.standard, line.compound,
+            round(line.required, 3), round(line.on_board, 3),
+            Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), line.uom, pack,
+            Formula(f'=IF({c["Pack size"]}{r}="","",{packs})'),
+            m.supplier if m else None, m.part_number if m else None, m.price if m else None,
+            m.currency if m else None,
+            Formula(f'=IF(OR({c["Price per pack"]}{r}="",{c["Packs"]}{r}=""),"",{c["Packs"]}{r}*{c["Price per pack"]}{r})'),
+            m.lead_time_days if m else None, line.basis,
+            "; ".join(f"{v}: {q:g}" for v, q in line.split.items()), line.key,
+        ])
+        rows[line.key] = r
+    sheet.finish()
+    return rows
+
+
+def _split_sheet(wb: Workbook, order: Order) -> None:
+    sheet = _Sheet(wb, "Vessel split", (("No", 6, "0"), ("Designation", 60, None), ("Vessel", 20, None),
+                                         ("Required", 11, "#,##0.0"), ("UoM", 6, None)))
+    for line in order.lines:
+        for vessel, qty in line.split.items():
+            sheet.append([line.number, line.designation, vessel, round(qty, 3), line.uom])
+    sheet.finish()
+
+
+def _seal_sheet(wb: Workbook, order: Order) -> None:
+    cols = (("Vessel", 18, None), ("Unit", 10, None), ("Actuator", 11, None), ("Role", 8, None), ("Part", 40, None),
+            ("d [mm]", 9, "0.0#"), ("D [mm]", 9, "0.0#"), ("L [mm]", 9, "0.0#"), ("O-ring ID [mm]", 10, "0.0#"),
+            ("O-ring CS [mm]", 10, "0.00"), ("Strip t [mm]", 9, "0.0#"), ("Cut length [mm]", 11, "0.0"),
+            ("Qty per actuator", 10, "0"), ("Qty per unit", 9, "0"), ("Compound", 10, None), ("Standard", 22, None),
+            ("Dimensions from", 34, None))
+    sheet = _Sheet(wb, "Seal kits", cols)
+    for r in order.results:
+        for u in r.units:
+            g = u.unit.geometry
+            vane = (mm(g.hub_diameter), mm(g.housing_bore)) if u.unit.actuator == "rotary_vane" else None
+            for s in u.kit.lines:
+                j = seal_json(s, u.kit, vane)
+                sheet.append([r.vessel.id, u.unit.id, u.unit.actuator, j["role"], j["part"], j["d_mm"], j["D_mm"], j["L_mm"],
+                              j.get("id_mm"), j.get("cs_mm"), j.get("strip_thickness_mm"), j.get("cut_length_mm"),
+                              j["qty_per_actuator"], j["qty"], j["compound"], j["standard"], j["origin"]])
+    sheet.finish()
+
+
+def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) -> None:
+    packages = sorted(order.packages, key=lambda p: -p.volume)
+    cols = [("Fluid", 30, None), ("Required [L]", 12, "#,##0.0"), ("On board [L]", 12, "#,##0.0"),
+            ("To order [L]", 12, "#,##0.0"), ("To order [kg]", 12, "#,##0.0"), ("To order [US gal]", 12, "#,##0.0")]
+    cols += [(f"{p.name} {p.volume * L_PER_M3:g} L", 11, "0") for p in packages] + [("Supply [L]", 12, "#,##0.0")]
+    sheet = _Sheet(wb, "Oil and filters", cols)
+    smallest = packages[-1].volume * L_PER_M3 if packages else 1.0
+    for oil in order.oil:
+        r = sheet.rows + 1
+        o = order_rows[oil.fluid_key]
+        category = oil.fluid_key.split(":")[1].split()[0].upper()
+        to_order = f"D{r}"
+        row: list[Any] = [oil.designation, Formula(f"='Order lines'!{COL['Required']}{o}"),
+                          Formula(f"='Order lines'!{COL['On board']}{o}"), Formula(f"='Order lines'!{COL['To order']}{o}"),
+                          Formula(f"={to_order}*{density_kg_per_l(category)}"), Formula(f"={to_order}/{L_PER_M3 / US_GAL_PER_M3}")]
+        # The package rule of kit.oil.plan_packages, cell by cell: remaining = to order less what is planned so far.
+        planned = []
+        for i, p in enumerate(packages):
+            size = p.volume * L_PER_M3
+            rem = f"({to_order}-{'-'.join(planned) or '0'})" if planned else to_order
+            letter = get_column_letter(7 + i)
+            up = _roundup(f"{rem}/{size:g}")
+            if i == len(packages) - 1:
+                row.append(Formula(f"={up}"))
+            else:
+                down = f"ROUNDDOWN(MAX(0,{rem}/{size:g}+0.000000001),0)"
+                row.append(Formula(f"=IF({up}*{size:g}-{rem}<{smallest:g},{up},{down})"))
+            planned.append(f"{letter}{r}*{size:g}")
+        row.append(Formula("=" + "+".join(planned)))
+        sheet.append(row)
+    sheet.finish()
+    filters = _Sheet(wb, "Filter elements", (("Vessel", 18, None), ("Unit", 10, None), ("Position", 12, None),
+                                             ("Element", 20, None), ("Elements per change", 10, "0"), ("Changes due", 10, "0"),
+                                             ("Spare sets", 10, "0"), ("Elements", 10, "0")))
+    for r in order.results:
+        for u in r.units:
+            for f in u.filters:
+                filters.append([r.vessel.id, u.unit.id, f.position, f.element_ref, f.elements_per_change, f.changes,
+                                f.spare_sets, Formula(f"=E{filters.rows + 1}*(F{filters.rows + 1}+G{filters.rows + 1})")])
+    filters.finish()
+
+
+def _checks_sheet(wb: Workbook, order: Order) -> None:
+    cols = (("Vessel", 18, None), ("Ship type", 10, None), ("Unit", 10, None), ("Service", 11, None), ("Actuator", 11, None),
+            ("Torque midships [kNm]", 12, "#,##0.0"), ("Torque at max angle [kNm]", 12, "#,##0.0"),
+            ("Swing 35-30 one pump [s]", 11, "0.0"), ("Swing 35-30 all pumps [s]", 11, "0.0"),
+            ("Swing judged [s]", 10, "0.0"), ("Judged on", 40, None), ("Limit [s]", 8, "0"), ("28 s rule", 9, None),
+            ("Travel [mm]", 10, "0"), ("Stroke [mm]", 10, "0"), ("Travel within stroke", 10, None),
+            ("Working pressure [bar]", 11, "0.0"), ("Pressure within ratings", 10, None), ("Warnings", 80, None))
+    sheet = _Sheet(wb, "Gear checks", cols)
+    yes = {True: "yes", False: "NO", None: None}
+    for r in order.results:
+        for u in r.units:
+            c = u.checks
+            k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
+            s = lambda x: None if x is None else round(x, 1)  # noqa: E731
+            sheet.append([r.vessel.id, r.vessel.ship_type, u.unit.id, u.unit.service, u.unit.actuator,
+                          k(c.torque_midships), k(c.torque_max_angle), s(c.swing_time_one_pump), s(c.swing_time_all_pumps),
+                          s(c.swing_time_judged), c.judging_case, 28 if u.unit.is_steering else None,
+                          yes[c.swing_rule_met], None if c.travel is None else round(c.travel * 1000),
+                          None if c.stroke is None else round(c.stroke * 1000), yes[c.travel_ok],
+                          round(u.unit.working_pressure / 1e5, 1), yes[c.pressure_ok], " | ".join(u.warnings)])
+    sheet.finish()
+
+
+def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
+    sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False, wrap=True)
+    policy = order.results[0].policy if order.results else None
+    sheet.append(["Bill of materials: steering gear and hydraulic spares"], header=True)
+    sheet.append(["Scope", scope])
+    sheet.append(["Vessels", ", ".join(f"{r.vessel.name} ({r.vessel.id})" for r in order.results)])
+    sheet.append(["Prepared on", dt.date.today().isoformat()])
+    sheet.append(["Period [days]", days])
+    sheet.append(["Spares policy in force", f"{policy.name} ({policy.source})" if policy else ""])
+    n = len(order.lines) + 1
+    sheet.append(["Order lines", len(order.lines)])
+    sheet.append(["Lines with something to order", Formula(f"=COUNTIF('Order lines'!{COL['To order']}2:{COL['To order']}{n},\">0\")")])
+    currencies = sorted({line.match.currency for line in order.lines if line.match and line.match.currency})
+    for cur in currencies:
+        sheet.append([f"Total of priced lines [{cur}]",
+                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},\"{cur}\","
+                              f"'Order lines'!{COL['Line total']}2:{COL['Line total']}{n})")])
+    unpriced = sum(1 for line in order.lines if not (line.match and line.match.price is not None))
+    sheet.append(["Lines with no catalogue price", unpriced])
+    sheet.append([])
+    sheet.append(["CAUTION", SAFETY], header=True)
+    notes = [
+        ("Series housings", "Seal housings and O-rings sized from the ISO series (ISO 5597, ISO 6195, ISO 10766, ISO 3601) "
+                            "are to be checked against the maker's drawing before ordering; rows of kit's tables marked "
+                            "'from memory' are not confirmed from the standard's text."),
+        ("Basis of each line", "SOLAS II-1/29.12.3: storage tank able to recharge one power actuating system including "
+                               "its reservoir. 'common practice': a trade rule of thumb. 'company policy': the company's "
+                               "spares policy file."),
+        ("Live formulas", "To order = MAX(0, Required - On board); Packs = To order / Pack size, rounded up; "
+                          "Line total = Packs x Price per pack. Edit 'On board' and the order follows."),
+        ("Oil packages", "Largest package first: as many as fit, or one more when it overshoots by less than the smallest "
+                         "package; the smallest package rounds up. Supply is never short."),
+    ]
+    for item, text in notes:
+        sheet.append([item, text])
+
+
+def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> Path:
+    """Write the bill of materials workbook of ``order`` to ``path`` atomically."""
+    path = Path(path)
+    wb = Workbook(write_only=True)
+    _cover(wb, order, days, scope)
+    rows = _order_sheet(wb, order)
+    _split_sheet(wb, order)
+    _seal_sheet(wb, order)
+    _oil_filter_sheet(wb, order, rows)
+    _checks_sheet(wb, order)
+    save_atomically(wb, path)
+    return path
+
+
+def save_atomically(wb: Workbook, path: Path) -> None:
+    """Save ``wb`` to a temporary file beside ``path`` and rename it into place."""
+    directory = path.parent if str(path.parent) else Path(".")
+    try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
+    except OSError as exc:
+        raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
+    os.close(fd)
+    try:
+        wb.save(tmp)
+        os.replace(tmp, path)
+    except OSError as exc:
+        _discard(tmp)
+        raise OutputError(str(path), f"room and permission to write the file ({exc.strerror})") from None
+    except BaseException:
+        _discard(tmp)
+        raise
+
+
+def _discard(tmp: str) -> None:
+    try:
+        os.unlink(tmp)
+    except OSError:
+        pass
+
+
+__all__ = ["write_workbook", "save_atomically", "KitError"]
