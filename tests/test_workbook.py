@@ -11,6 +11,7 @@ import openpyxl
 import pytest
 
 from kit.bom import CatalogueMatch, consolidate
+from kit.errors import OutputError
 from kit.particulars import load_vessel
 from kit.requirements import assess_vessel
 from kit.spares import load_policy
@@ -134,20 +135,23 @@ def test_hostile_text_stays_text(case):
     assert '=HYPERLINK("http://x","click")' in recalculated  # shown as typed, never evaluated
 
 
-# openpyxl's abandoned write-only generators complain when collected; that is the crash we stage
-@pytest.mark.filterwarnings("ignore::pytest.PytestUnraisableExceptionWarning")
-def test_failed_write_leaves_the_old_file_whole(case, monkeypatch, tmp_path):
+@pytest.mark.parametrize("stop", [KeyboardInterrupt, OSError])
+def test_failed_write_leaves_the_old_file_whole(case, monkeypatch, tmp_path, stop):
     order, path, _, _ = case
     target = tmp_path / "bom.xlsx"
     target.write_bytes(path.read_bytes())
     before = target.read_bytes()
+    real_save = openpyxl.Workbook.save
 
     def crash(self, filename):
-        Path(filename).write_bytes(b"PK\x03\x04 half a workbook")
-        raise KeyboardInterrupt  # the process is stopped mid-write
+        real_save(self, filename)
+        with open(filename, "r+b") as fh:  # stopped half-way: the file on disk is cut short
+            fh.truncate(100)
+        raise stop(28, "No space left on device") if stop is OSError else stop()
 
     monkeypatch.setattr(openpyxl.Workbook, "save", crash)
-    with pytest.raises(KeyboardInterrupt):
+    expected = KeyboardInterrupt if stop is KeyboardInterrupt else OutputError
+    with pytest.raises(expected):
         write_workbook(order, target, 90, "again")
     assert target.read_bytes() == before
     assert [p.name for p in tmp_path.iterdir()] == ["bom.xlsx"]
