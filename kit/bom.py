@@ -150,23 +150,3 @@ KIND_ORDER = ("piston_seal", "rod_seal", "stock_seal", "wiper", "guide_ring", "o
 
 def _kind_order(kind: str) -> int:
     return KIND_ORDER.index(kind) if kind in KIND_ORDER else len(KIND_ORDER)
-
-
-@dataclass(frozen=True)
-class Shortfall:
-    key: str
-    designation: str
-    uom: str
-    required: float
-    on_board: float
-
-    @property
-    def short(self) -> float:
-        return max(0.0, self.required - self.on_board)
-
-
-def shortfalls(result: VesselResult, on_board: Mapping[tuple[str, str], float]) -> list[Shortfall]:
-    """Every part of one vessel's requirement that its on-board stock does not cover."""
-    order = consolidate([result], on_board)
-    return [Shortfall(line.key, line.designation, line.uom, line.required, line.on_board)
-            for line in order.lines if line.to_order > 1e-9]

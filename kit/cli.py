@@ -21,6 +21,9 @@ SAFETY = (
 # command name -> (module, attribute, one-line summary shown in ``kit --help``)
 COMMANDS: dict[str, tuple[str, str, str]] = {
     "calc": ("kit.commands.calc", "calc", "Work out seals, oil, filters, spares and checks for one vessel."),
+    "bom": ("kit.commands.bom", "bom", "Write the bill of materials workbook for vessels or the whole fleet."),
+    "check": ("kit.commands.check", "check", "Check a vessel's on-board stock against a voyage (exit 1 if short)."),
+    "demo": ("kit.commands.demo", "demo", "Build the demo fleet and write its workbook and a pre-voyage check."),
     "db": ("kit.commands.db", "db", "Build, upgrade and inspect the fleet database."),
     "load": ("kit.commands.load", "load", "Load vessel particulars (.toml, .xlsx or a folder) into the fleet database."),
     "parts": ("kit.commands.parts", "parts", "Register the generic parts the fleet needs; list them."),

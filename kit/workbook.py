@@ -13,8 +13,6 @@ never leaves half a workbook.
 from __future__ import annotations
 
 import datetime as dt
-import os
-import tempfile
 from pathlib import Path
 from typing import Any, Iterable
 
@@ -26,7 +24,7 @@ from openpyxl.worksheet.properties import PageSetupProperties
 
 from kit.bom import Order
 from kit.cli import SAFETY
-from kit.errors import KitError, OutputError
+from kit.atomic import replace_atomically
 from kit.oil import L_PER_M3, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
 from kit.parts import fmt_mm
@@ -274,28 +272,7 @@ def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> P
 
 def save_atomically(wb: Workbook, path: Path) -> None:
     """Save ``wb`` to a temporary file beside ``path`` and rename it into place."""
-    directory = path.parent if str(path.parent) else Path(".")
-    try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
-    except OSError as exc:
-        raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
-    os.close(fd)
-    try:
-        wb.save(tmp)
-        os.replace(tmp, path)
-    except OSError as exc:
-        _discard(tmp)
-        raise OutputError(str(path), f"room and permission to write the file ({exc.strerror})") from None
-    except BaseException:
-        _discard(tmp)
-        raise
+    replace_atomically(path, wb.save)
 
 
-def _discard(tmp: str) -> None:
-    try:
-        os.unlink(tmp)
-    except OSError:
-        pass
-
-
-__all__ = ["write_workbook", "save_atomically", "KitError"]
+__all__ = ["write_workbook", "save_atomically"]

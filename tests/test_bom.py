@@ -8,7 +8,8 @@ import math
 
 import pytest
 
-from kit.bom import CatalogueMatch, consolidate, shortfalls
+from kit.bom import CatalogueMatch, consolidate
+from kit.preflight import preflight_order
 from kit.particulars import vessel_from_dict
 from kit.requirements import assess_vessel
 from kit.spares import load_policy
@@ -83,9 +84,9 @@ def test_shortfalls_empty_when_everything_is_on_board(policy):
     full: dict = {}
     for li in a.lines:  # storage charge and top-up are the same oil: one key
         full[("ALPHA", li.key)] = full.get(("ALPHA", li.key), 0) + li.quantity
-    assert shortfalls(a, full) == []
+    assert preflight_order(a, full).lines == []
     short = dict(full)
     key = a.lines[0].key
     short[("ALPHA", key)] = 0
-    (gap,) = shortfalls(a, short)
-    assert gap.key == key and gap.short == pytest.approx(a.lines[0].quantity)
+    (gap,) = preflight_order(a, short).lines
+    assert gap.key == key and gap.number == 1 and gap.to_order == pytest.approx(a.lines[0].quantity)

@@ -1,0 +1,48 @@
+# SPDX-License-Identifier: MIT
+"""``kit bom``: the bill of materials for one vessel, several, or the whole fleet."""
+
+from __future__ import annotations
+
+import click
+
+from kit.cli import SAFETY
+from kit.commands.common import db_option
+
+
+@click.command(epilog=SAFETY)
+@click.option("--vessel", "vessel_ids", multiple=True, metavar="ID", help="A vessel's id (repeatable); default the whole fleet.")
+@click.option("--days", type=click.FloatRange(min=0), default=90, show_default=True, help="Period to cover, in days.")
+@click.option("--out", "out", type=click.Path(dir_okay=False), default="kit-bom.xlsx", show_default=True,
+              help="Workbook to write (.xlsx).")
+@click.option("--csv", "csv_out", type=click.Path(dir_okay=False), help="Also write the order lines as CSV.")
+@click.option("--json", "json_out", type=click.Path(dir_okay=False), help="Also write the order as JSON.")
+@click.option("--particulars", type=click.Path(exists=False), help="Read vessels from a .toml file or folder instead of "
+              "the database (no stock, no catalogue: a first list for a new-build series).")
+@click.option("--policy", "policy_file", type=click.Path(dir_okay=False), help="Company spares policy (TOML).")
+@db_option()
+def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file) -> None:
+    """Write the bill of materials: what the vessels need for the period, less what is on board,
+    with the same generic part across units and vessels on one line and its split per vessel, oil
+    and filter elements rounded to packs over the whole order, and supplier part numbers, prices
+    and lead times where a catalogue matched. "To order", packs and totals are live formulas.
+
+    Example: kit bom --days 180 --out fleet-order.xlsx
+    """
+    from kit.fleet_orders import build_order
+    from kit.workbook import write_workbook
+
+    order, scope = build_order(engine, vessel_ids, days, particulars, policy_file)
+    path = write_workbook(order, out, days, scope)
+    written = [str(path)]
+    if csv_out:
+        from kit.bom_export import write_csv
+
+        written.append(str(write_csv(order, csv_out)))
+    if json_out:
+        from kit.bom_export import write_json
+
+        written.append(str(write_json(order, json_out, days)))
+    to_order = sum(1 for line in order.lines if line.to_order > 0)
+    click.echo(f"{len(order.lines)} order line(s) for {len(order.results)} vessel(s), {to_order} with something to order")
+    for w in written:
+        click.echo(f"wrote {w}")

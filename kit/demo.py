@@ -1,0 +1,124 @@
+# SPDX-License-Identifier: MIT
+"""The demo: a throwaway fleet database built from ``demo_fleet/``, with invented stock and an
+invented supplier catalogue, then the fleet's bill of materials and one vessel's pre-voyage check.
+
+Everything goes through the same imports a user runs (particulars, parts, catalogue CSV, stock
+CSV), so the demo exercises the real paths. The stock and the catalogue are invented here by a
+fixed rule so the demo is the same every run: most parts fully on board, some short, filter
+elements and oil below what a long voyage needs.
+"""
+
+from __future__ import annotations
+
+import csv
+import shutil
+from dataclasses import dataclass
+from pathlib import Path
+
+DEMO_SUPPLIER = "Northgate Marine Seals & Hydraulics (invented)"
+CHECK_VESSEL = "CORVINA-BAY"
+
+
+@dataclass(frozen=True)
+class DemoOutput:
+    folder: Path
+    database: Path
+    workbook: Path
+    check_workbook: Path
+    vessels: int
+    order_lines: int
+    short_lines: int
+
+
+def demo_fleet_folder() -> Path:
+    """``demo_fleet/`` beside the package (a source checkout, as the README installs it)."""
+    return Path(__file__).resolve().parents[1] / "demo_fleet"
+
+
+def _invented_stock(lines, index_seed: int) -> list[dict]:
+    rows = []
+    for i, line in enumerate(sorted({li.key: li for li in lines}.values(), key=lambda li: li.key)):
+        need = sum(li.quantity for li in lines if li.key == line.key)
+        if line.kind == "oil":
+            qty = round(need * 0.6)
+        elif line.kind == "filter_element":
+            qty = max(0, int(need) - 2)
+        elif (i + index_seed) % 5 == 0:
+            qty = 0
+        else:
+            qty = need
+        rows.append({"part_key": line.key, "designation": line.designation, "location": "steering gear room",
+                     "quantity": qty, "counted_on": "2026-11-15"})
+    return rows
+
+
+def _invented_catalogue(lines) -> list[dict]:
+    rows = []
+    for n, line in enumerate(sorted({li.key: li for li in lines if li.kind not in ("oil", "spare")}.values(),
+                                    key=lambda li: li.key), 1):
+        size = max(line.dims.values()) if line.dims else 100.0
+        pack = 2 if line.kind == "filter_element" else 1
+        price = round(18 + 0.25 * size, 2) if line.kind != "filter_element" else 64.0
+        rows.append({"supplier_ref": f"NMS-{n:05d}", "part_key": line.key, "description": line.designation,
+                     "pack_qty": pack, "price": price, "currency": "EUR", "lead_time_days": 10 + (n % 4) * 7})
+    return rows
+
+
+def _write_csv(path: Path, rows: list[dict]) -> None:
+    with path.open("w", newline="", encoding="utf-8") as f:
+        writer = csv.DictWriter(f, fieldnames=list(rows[0]))
+        writer.writeheader()
+        writer.writerows(rows)
+
+
+def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
+    """Build the demo in ``out`` (replaced if it exists) and return where everything is."""
+    from catalog_schema.engine import make_engine, write_transaction
+    from catalog_schema.migrate import upgrade
+    from kit.bom import consolidate
+    from kit.catalogue_import import import_catalogue
+    from kit.fleet_store import read_vessels, save_vessels
+    from kit.order_sources import catalogue_offers, stock_on_board
+    from kit.particulars import load_folder
+    from kit.parts_store import register_parts
+    from kit.preflight import preflight_order
+    from kit.requirements import assess_vessel
+    from kit.spares import load_policy
+    from kit.stock_import import import_stock
+    from kit.workbook import write_workbook
+
+    fleet = fleet or demo_fleet_folder()
+    vessels = load_folder(fleet)
+    if out.exists():
+        shutil.rmtree(out)
+    (out / "imports").mkdir(parents=True)
+    database = out / "fleet.sqlite"
+    engine = make_engine(f"sqlite:///{database}")
+    try:
+        upgrade(engine)
+        write_transaction(engine, lambda conn: save_vessels(conn, vessels))
+        policy = load_policy()
+        results = {v.id: assess_vessel(v, days, policy) for v in vessels}
+        all_lines = [li for r in results.values() for li in r.lines]
+        write_transaction(engine, lambda conn: register_parts(conn, all_lines))
+        catalogue_csv = out / "imports" / "catalogue.csv"
+        _write_csv(catalogue_csv, _invented_catalogue(all_lines))
+        import_catalogue(engine, catalogue_csv, DEMO_SUPPLIER)
+        for i, v in enumerate(vessels):
+            stock_csv = out / "imports" / f"stock-{v.id.lower()}.csv"
+            _write_csv(stock_csv, _invented_stock(results[v.id].lines, i))
+            import_stock(engine, stock_csv, v.id)
+        with engine.connect() as conn:
+            stored = read_vessels(conn)
+            ids = [v.id for v in stored]
+            on_board = stock_on_board(conn, ids)
+            offers = catalogue_offers(conn)
+        order = consolidate([assess_vessel(v, days, policy) for v in stored], on_board, offers)
+        workbook = write_workbook(order, out / "fleet-bom.xlsx", days, f"whole fleet, {len(stored)} vessels")
+        check_vessel = next(v for v in stored if v.id == CHECK_VESSEL) if CHECK_VESSEL in ids else stored[0]
+        check = preflight_order(assess_vessel(check_vessel, check_days, policy), on_board, offers)
+        check_workbook = write_workbook(check, out / f"{check_vessel.id.lower()}-voyage-check.xlsx", check_days,
+                                        f"pre-voyage check of {check_vessel.name}: shortfall for {check_days:g} days")
+    finally:
+        engine.dispose()
+    return DemoOutput(out, database, workbook, check_workbook, len(vessels), len(order.lines), len(check.lines))
