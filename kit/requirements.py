@@ -8,6 +8,7 @@ dimensional, so any seal supplier can quote them.
 
 from __future__ import annotations
 
+import math
 from collections import defaultdict
 from dataclasses import dataclass, field
 
@@ -58,6 +59,11 @@ class VesselResult:
     @property
     def lines(self) -> list[LineItem]:
         return [line for u in self.units for line in u.lines]
+
+
+def litres_up(volume_m3: float) -> float:
+    """Litres rounded up to 0.1 L: what is listed is never below the need, and reads cleanly."""
+    return math.ceil(round(volume_m3 * M3_TO_L * 10, 6)) / 10
 
 
 def _designation(kind: str, **values: object) -> str:
@@ -141,11 +147,11 @@ def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> Unit
     storage_item = policy.item("storage_oil")
     if storage is not None and storage_item:
         lines.append(LineItem(unit.id, "oil", "storage", _designation("oil", fluid=fluid) + ", storage tank charge",
-                              "ISO 6743-4, ISO 3448", storage * M3_TO_L, "L", storage_item.basis,
+                              "ISO 6743-4, ISO 3448", litres_up(storage), "L", storage_item.basis,
                               part_key("oil", {}, fluid), compound="", origin=charge_basis))
     if leak > 0:
         lines.append(LineItem(unit.id, "oil", "top-up", _designation("oil", fluid=fluid) + f", top-up for {days:g} days",
-                              "ISO 6743-4, ISO 3448", leak * M3_TO_L, "L", "leakage rate x period",
+                              "ISO 6743-4, ISO 3448", litres_up(leak), "L", "leakage rate x period",
                               part_key("oil", {}, fluid)))
 
     needs = []
