@@ -28,19 +28,12 @@ def register(engine, vessel_ids: tuple[str, ...], policy_file: str | None) -> No
     Example: kit parts register --vessel CORVINA-BAY
     """
     from catalog_schema.engine import write_transaction
-    from kit.errors import InputError
-    from kit.fleet_store import read_vessels
+    from kit.fleet_orders import assess_all, load_fleet
     from kit.parts_store import register_parts
-    from kit.requirements import assess_vessel
     from kit.spares import load_policy
 
-    policy = load_policy(policy_file)
-    with engine.connect() as conn:
-        vessels = read_vessels(conn, vessel_ids or None)
-    missing = sorted(set(vessel_ids) - {v.id for v in vessels})
-    if missing:
-        raise InputError("--vessel", "vessel", "the id of a vessel in the database (kit load adds them)", got=repr(missing[0]))
-    items = [line for v in vessels for line in assess_vessel(v, 0.0, policy).lines]
+    vessels = load_fleet(engine, vessel_ids)
+    items = [line for r in assess_all(vessels, 0.0, load_policy(policy_file)) for line in r.lines]
     count = write_transaction(engine, lambda conn: register_parts(conn, items))
     click.echo(f"{count} generic part(s) for {len(vessels)} vessel(s) are in the database")
 
