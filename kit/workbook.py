@@ -49,10 +49,9 @@ COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS
 class _Sheet:
     """A write-only sheet with a styled, frozen, filtered header row and print set-up."""
 
-    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True,
-                 wrap: bool = False):
+    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True):
         self.ws = wb.create_sheet(title)
-        self.wrap = wrap
+        self.table = header_row
         self.columns = list(columns)
         self.formats = [fmt for _, _, fmt in self.columns]
         for i, (_, width, _) in enumerate(self.columns, 1):
@@ -72,11 +71,11 @@ class _Sheet:
         if is_risky(value) and not getattr(value, "is_formula", False):
             c.data_type = "s"  # user or supplier text: never a formula
         if header:
-            c.font, c.fill, c.alignment = HEADER_FONT, HEADER_FILL, WRAP
+            c.font, c.fill = HEADER_FONT, HEADER_FILL
+            if self.table:  # column headings wrap; the cover's own lines do not
+                c.alignment = WRAP
         elif fmt and (not isinstance(value, str) or isinstance(value, Formula)):
             c.number_format = fmt
-        if self.wrap:
-            c.alignment = WRAP
         return c
 
     def append(self, values: list[Any], header: bool = False) -> int:
@@ -219,12 +218,28 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
     sheet.finish()
 
 
+MAX_VESSELS_LISTED = 12
+COVER_LINE_CHARS = 110
+
+
+def _long(sheet: _Sheet, item: str, text: str, header: bool = False) -> None:
+    """Long cover text over as many rows as it needs: row heights do not grow by themselves in
+    every spreadsheet program, so a wrapped cell could hide its end."""
+    import textwrap
+
+    for i, part in enumerate(textwrap.wrap(text, COVER_LINE_CHARS) or [""]):
+        sheet.append([item if i == 0 else None, part], header=header and i == 0)
+
+
 def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
-    sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False, wrap=True)
+    sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False)
     policy = order.results[0].policy if order.results else None
     sheet.append(["Bill of materials: steering gear and hydraulic spares"], header=True)
     sheet.append(["Scope", scope])
-    sheet.append(["Vessels", ", ".join(f"{r.vessel.name} ({r.vessel.id})" for r in order.results)])
+    if len(order.results) <= MAX_VESSELS_LISTED:
+        _long(sheet, "Vessels", ", ".join(f"{r.vessel.name} ({r.vessel.id})" for r in order.results))
+    else:
+        sheet.append(["Vessels", f"{len(order.results)} vessels: see the Vessel split sheet"])
     sheet.append(["Prepared on", dt.date.today().isoformat()])
     sheet.append(["Period [days]", days])
     sheet.append(["Spares policy in force", f"{policy.name} ({policy.source})" if policy else ""])
@@ -239,7 +254,7 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     unpriced = sum(1 for line in order.lines if not (line.match and line.match.price is not None))
     sheet.append(["Lines with no catalogue price", unpriced])
     sheet.append([])
-    sheet.append(["CAUTION", SAFETY], header=True)
+    _long(sheet, "CAUTION", SAFETY, header=True)
     notes = [
         ("Series housings", "Seal housings and O-rings sized from the ISO series (ISO 5597, ISO 6195, ISO 10766, ISO 3601) "
                             "are to be checked against the maker's drawing before ordering; rows of kit's tables marked "
@@ -253,7 +268,7 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
                          "package; the smallest package rounds up. Supply is never short."),
     ]
     for item, text in notes:
-        sheet.append([item, text])
+        _long(sheet, item, text)
 
 
 def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> Path:
