@@ -1,0 +1,313 @@
+# SPDX-License-Identifier: MIT
+"""Fleet-scale benchmark: kit's commands as whole processes, each beside a baseline measured in
+the same run, reported as ratios (medians of ``--runs`` runs; shared machines are noisy).
+
+    python -m benchmarks.run [--vessels 1000] [--small 100] [--runs 3] [--pg URL] [--out FILE.json]
+
+Steps (targets from issue 6):
+
+1. ``kit --help`` and ``kit bom --help`` against ``python -c "import click"`` (<= 2.5);
+2. ``kit load FOLDER`` of N vessels into SQLite against parsing the same TOML with tomllib (<= 4);
+3. ``kit catalogue import`` of the 100,000-row catalogue (CSV, xlsx) against the csv module or
+   openpyxl read-only with sqlite3 executemany in one transaction (<= 2);
+4. ``kit bom`` of the whole fleet against writing the same cells with openpyxl write-only
+   (<= 1.5, peak memory <= 300 MB);
+5. ``kit bom`` at ``--small`` vessels against N vessels (time grows at most 11x for 10x);
+6. the load, the imports and the BOM against PostgreSQL (``--pg``, default ``KIT_TEST_PG_URL``),
+   beside SQLite. The benchmark makes a database of its own there and drops it at the end.
+
+The databases are prepared (untimed) with kit itself: ``kit db upgrade``, ``kit load``,
+``kit parts register``, the catalogue and every vessel's stock. Peak memory is the child's
+maximum resident set size, from ``os.wait4``. Results go to ``--out`` (JSON) and a table on stdout.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import platform
+import shutil
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from benchmarks.fleet import generate
+
+PY = sys.executable
+KIT = [PY, "-m", "kit"]
+BASE = [PY, "-m", "benchmarks.baselines"]
+ROOT = Path(__file__).resolve().parent.parent
+PG_DB = "kit_benchmark"
+
+
+@dataclass
+class Timing:
+    seconds: list[float] = field(default_factory=list)
+    peak_mb: list[float] = field(default_factory=list)
+
+    @property
+    def median(self) -> float:
+        return statistics.median(self.seconds)
+
+    @property
+    def peak(self) -> float:
+        return max(self.peak_mb)
+
+
+def run_once(cmd: list[str], cwd: Path) -> tuple[float, float]:
+    """Wall time (s) and peak RSS (MB) of ``cmd`` as one child process; fails loudly."""
+    env = {**os.environ, "PYTHONPATH": str(ROOT)}
+    start = time.perf_counter()
+    proc = subprocess.Popen(cmd, cwd=cwd, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    _, status, usage = os.wait4(proc.pid, 0)
+    elapsed = time.perf_counter() - start
+    proc.returncode = os.waitstatus_to_exitcode(status)
+    err = proc.stderr.read().decode(errors="replace")
+    proc.stderr.close()
+    if proc.returncode != 0:
+        raise SystemExit(f"benchmark step failed ({proc.returncode}): {' '.join(cmd)}\n{err}")
+    return elapsed, usage.ru_maxrss / 1024
+
+
+def measure(cmd: list[str], cwd: Path, runs: int, before=None) -> Timing:
+    t = Timing()
+    for _ in range(runs):
+        if before:
+            before()
+        s, mb = run_once(cmd, cwd)
+        t.seconds.append(s)
+        t.peak_mb.append(mb)
+    return t
+
+
+def kit(*args: str, cwd: Path) -> None:
+    run_once([*KIT, *args], cwd)
+
+
+# --- databases --------------------------------------------------------------------------------
+
+
+def pg_url(base: str) -> str:
+    from sqlalchemy.engine import make_url
+
+    return make_url(base).set(database=PG_DB).render_as_string(hide_password=False)
+
+
+def pg_recreate(base: str) -> None:
+    from sqlalchemy import create_engine, text
+
+    engine = create_engine(base, isolation_level="AUTOCOMMIT")
+    with engine.connect() as conn:
+        conn.execute(text(f"DROP DATABASE IF EXISTS {PG_DB} WITH (FORCE)"))
+        conn.execute(text(f"CREATE DATABASE {PG_DB}"))
+    engine.dispose()
+
+
+def pg_drop(base: str) -> None:
+    from sqlalchemy import create_engine, text
+
+    engine = create_engine(base, isolation_level="AUTOCOMMIT")
+    with engine.connect() as conn:
+        conn.execute(text(f"DROP DATABASE IF EXISTS {PG_DB} WITH (FORCE)"))
+    engine.dispose()
+
+
+def import_all_stock(db: str, stock: Path) -> None:
+    """Every vessel's stock count, in this process (one command per vessel would take minutes)."""
+    from catalog_schema.engine import make_engine, resolve_url
+    from kit.stock_import import import_stock
+
+    engine = make_engine(resolve_url(db))
+    try:
+        for path in sorted(stock.glob("*.csv")):
+            import_stock(engine, path, path.stem, "count")
+    finally:
+        engine.dispose()
+
+
+def clear_supplier(db: str, supplier: str) -> None:
+    """Drop a supplier's entries, so every timed import starts from the same database."""
+    from sqlalchemy import delete, select
+
+    from catalog_schema.engine import make_engine, resolve_url
+    from catalog_schema.tables import CatalogueEntryRow, SupplierRow
+
+    entries, suppliers = CatalogueEntryRow.__table__, SupplierRow.__table__
+    engine = make_engine(resolve_url(db))
+    with engine.begin() as conn:
+        ids = select(suppliers.c.id).where(suppliers.c.name == supplier).scalar_subquery()
+        conn.execute(delete(entries).where(entries.c.supplier_id == ids))
+    engine.dispose()
+
+
+def prepare(db: str, fleet: dict[str, Path], cwd: Path) -> None:
+    """A fleet database as an office would have it: fleet, parts, a catalogue, stock."""
+    kit("db", "upgrade", "--db", db, cwd=cwd)
+    kit("load", str(fleet["particulars"]), "--db", db, cwd=cwd)
+    kit("parts", "register", "--db", db, cwd=cwd)
+    kit("catalogue", "import", str(fleet["catalogue_csv"]), "--supplier", "Synthetic Seals GmbH", "--db", db, cwd=cwd)
+    import_all_stock(db, fleet["stock"])
+
+
+# --- the steps --------------------------------------------------------------------------------
+
+
+def workbook_cells(path: Path, out: Path) -> None:
+    """Every sheet's cell values of kit's workbook, for the write-only baseline to write again."""
+    import pickle
+
+    import openpyxl
+
+    wb = openpyxl.load_workbook(path, read_only=True)
+    sheets = [(ws.title, [list(r) for r in ws.iter_rows(values_only=True)]) for ws in wb.worksheets]
+    wb.close()
+    out.write_bytes(pickle.dumps(sheets))
+
+
+def bench(args: argparse.Namespace) -> dict:
+    work = Path(args.work or tempfile.mkdtemp(prefix="kit-bench-"))
+    work.mkdir(parents=True, exist_ok=True)
+    runs = args.runs
+    results: dict = {"vessels": args.vessels, "small": args.small, "runs": runs, "catalogue_rows": args.catalogue_rows,
+                     "python": platform.python_version(), "machine": f"{platform.machine()}, {os.cpu_count()} cores",
+                     "date": time.strftime("%Y-%m-%d"), "steps": []}
+
+    def record(step: str, what: str, kit_t: Timing, base_t: Timing | None, target: float | None, base_name: str,
+               **extra) -> None:
+        ratio = kit_t.median / base_t.median if base_t else None
+        entry = {"step": step, "what": what, "kit_s": round(kit_t.median, 3), "kit_peak_mb": round(kit_t.peak, 1),
+                 "baseline": base_name, "baseline_s": round(base_t.median, 3) if base_t else None,
+                 "ratio": None if ratio is None else round(ratio, 2), "target": target,
+                 "met": None if ratio is None or target is None else ratio <= target, "kit_runs_s": [round(s, 3) for s in kit_t.seconds],
+                 **extra}
+        results["steps"].append(entry)
+        print(f"  {step:<4} {what:<44} kit {kit_t.median:7.3f} s  {base_name:<26} "
+              f"{'' if base_t is None else f'{base_t.median:7.3f} s'}  ratio {entry['ratio']}", flush=True)
+
+    print(f"generating {args.vessels} and {args.small} vessels in {work}", flush=True)
+    big = generate(work / "fleet", args.vessels, args.catalogue_rows)
+    small = generate(work / "fleet-small", args.small, 0)
+    small["catalogue_csv"] = big["catalogue_csv"]
+
+    # 1. start-up
+    click_t = measure([PY, "-c", "import click"], work, runs * 3)
+    for label, cmd in (("kit --help", ["--help"]), ("kit bom --help", ["bom", "--help"])):
+        record("1", label, measure([*KIT, *cmd], work, runs * 3), click_t, 2.5, "import click")
+
+    toml_t = measure([*BASE, "toml", str(big["particulars"])], work, runs)
+    dbs = {"sqlite": lambda name: str(work / f"{name}.sqlite")}
+    if args.pg:
+        dbs["postgresql"] = lambda name: pg_url(args.pg)
+
+    def fresh(engine: str, name: str):
+        def make() -> None:
+            if engine == "sqlite":
+                for suffix in ("", "-wal", "-shm"):
+                    Path(dbs["sqlite"](name) + suffix).unlink(missing_ok=True)
+            else:
+                pg_recreate(args.pg)
+            kit("db", "upgrade", "--db", dbs[engine](name), cwd=work)
+        return make
+
+    csv_t = xlsx_t = None
+    cells_t = None
+    for engine, db_of in dbs.items():
+        print(f"{engine}:", flush=True)
+        # 2. loading the particulars into a freshly built database
+        db = db_of("load")
+        record("2", f"kit load {args.vessels} vessels [{engine}]",
+               measure([*KIT, "load", str(big["particulars"]), "--db", db], work, runs, fresh(engine, "load")),
+               toml_t, 4.0, "tomllib alone")
+
+        # 3. the catalogue into a database holding the fleet and its parts
+        if engine == "sqlite":
+            base_db = work / "baseline.sqlite"
+
+            def fresh_baseline() -> None:
+                base_db.unlink(missing_ok=True)
+            csv_t = measure([*BASE, "csv", str(big["catalogue_csv"]), str(base_db)], work, runs, fresh_baseline)
+            xlsx_t = measure([*BASE, "xlsx", str(big["catalogue_xlsx"]), str(base_db)], work, runs, fresh_baseline)
+        db = db_of("fleet")
+        if engine == "postgresql":
+            pg_recreate(args.pg)
+        prepare(db, big, work)
+        for label, path, base_t, base_name in (("CSV", big["catalogue_csv"], csv_t, "csv + sqlite3"),
+                                               ("xlsx", big["catalogue_xlsx"], xlsx_t, "openpyxl r/o + sqlite3")):
+            supplier = "Synthetic Bench Supplier"
+            record("3", f"kit catalogue import {args.catalogue_rows:,} rows {label} [{engine}]",
+                   measure([*KIT, "catalogue", "import", str(path), "--supplier", supplier, "--db", db], work, runs,
+                           lambda: clear_supplier(db, supplier)),
+                   base_t, 2.0, base_name)
+        clear_supplier(db, "Synthetic Bench Supplier")
+
+        # 4. the fleet's bill of materials
+        out = work / f"bom-{engine}.xlsx"
+        bom_t = measure([*KIT, "bom", "--db", db, "--days", "90", "--out", str(out)], work, runs)
+        if cells_t is None:
+            cells = work / "bom-cells.pickle"
+            workbook_cells(out, cells)
+            cells_t = measure([*BASE, "cells", str(cells), str(work / "baseline-bom.xlsx")], work, runs)
+        record("4", f"kit bom {args.vessels} vessels [{engine}]", bom_t, cells_t, 1.5, "openpyxl write-only",
+               peak_target_mb=300, peak_met=bom_t.peak <= 300)
+
+        # 5. scaling: the same at the small fleet (same catalogue)
+        db_small = db_of("small") if engine == "sqlite" else db
+        if engine == "postgresql":
+            pg_recreate(args.pg)
+        prepare(db_small, small, work)
+        small_t = measure([*KIT, "bom", "--db", db_small, "--days", "90", "--out", str(work / "bom-small.xlsx")], work, runs)
+        growth = bom_t.median / small_t.median
+        results["steps"].append({"step": "5", "what": f"kit bom {args.small} -> {args.vessels} vessels [{engine}]",
+                                 "kit_s": round(bom_t.median, 3), "baseline": f"kit bom {args.small} vessels",
+                                 "baseline_s": round(small_t.median, 3), "ratio": round(growth, 2),
+                                 "target": 11.0, "met": growth <= 11.0})
+        print(f"  5    kit bom {args.small} -> {args.vessels} vessels: {small_t.median:.3f} s -> {bom_t.median:.3f} s, "
+              f"x{growth:.2f}", flush=True)
+    if args.pg:
+        pg_drop(args.pg)
+    if not args.keep and not args.work:
+        shutil.rmtree(work, ignore_errors=True)
+    return results
+
+
+def table(results: dict) -> str:
+    """The results as a Markdown table (the README's Performance section)."""
+    lines = ["| step | what | kit [s] | baseline | baseline [s] | ratio | target | met |",
+             "| --- | --- | ---: | --- | ---: | ---: | ---: | --- |"]
+    for s in results["steps"]:
+        met = {True: "yes", False: "**no**", None: ""}[s["met"]]
+        if "peak_met" in s:
+            met += f"; peak {s['kit_peak_mb']:.0f} MB {'yes' if s['peak_met'] else '**no**'}"
+        lines.append(f"| {s['step']} | {s['what']} | {s['kit_s']:.2f} | {s['baseline']} | "
+                     f"{'' if s['baseline_s'] is None else format(s['baseline_s'], '.2f')} | {s['ratio']} | "
+                     f"<= {s['target']:g} | {met} |")
+    return "\n".join(lines)
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description="kit's fleet-scale benchmark (not a test; not run in CI).")
+    parser.add_argument("--vessels", type=int, default=1000)
+    parser.add_argument("--small", type=int, default=100)
+    parser.add_argument("--catalogue-rows", type=int, default=100_000)
+    parser.add_argument("--runs", type=int, default=3, help="runs per figure; the median is reported")
+    parser.add_argument("--pg", default=os.environ.get("KIT_TEST_PG_URL"),
+                        help="PostgreSQL URL of a server to use (a database of the benchmark's own is made there)")
+    parser.add_argument("--no-pg", dest="pg", action="store_const", const=None)
+    parser.add_argument("--work", help="folder for the generated fleet and databases (default a temporary one)")
+    parser.add_argument("--keep", action="store_true", help="keep the temporary folder")
+    parser.add_argument("--out", default=str(ROOT / "benchmarks" / "results.json"))
+    args = parser.parse_args()
+    results = bench(args)
+    Path(args.out).write_text(json.dumps(results, indent=2) + "\n", encoding="utf-8")
+    print()
+    print(table(results))
+    print(f"\nwrote {args.out}")
+
+
+if __name__ == "__main__":
+    main()
