@@ -13,7 +13,7 @@ from __future__ import annotations
 import datetime as dt
 from typing import Optional
 
-from sqlalchemy import CheckConstraint, Column, ForeignKey, Integer, String, UniqueConstraint
+from sqlalchemy import CheckConstraint, Column, ForeignKey, Integer, String, Text, UniqueConstraint
 from sqlmodel import Field, SQLModel
 
 # Named constraints, so migrations can find and change them on every engine.
@@ -253,7 +253,8 @@ class SparesPolicyRow(SQLModel, table=True):
     """The spares policy in force for a whole company or for one vessel, from a date.
 
     Exactly one of ``company_id`` and ``vessel_id`` is set; a vessel's own policy wins over its
-    company's. (Added in revision 0002.)
+    company's. ``content`` is the company policy file's TOML text, validated by :mod:`kit.spares`
+    before it is stored; null means kit's default policy. (Added in revision 0002; content in 0003.)
     """
 
     __tablename__ = "spares_policies"
@@ -271,3 +272,4 @@ class SparesPolicyRow(SQLModel, table=True):
     cover_days: int
     in_force_from: dt.date
     note: Optional[str] = None
+    content: Optional[str] = Field(default=None, sa_type=Text)

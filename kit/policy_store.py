@@ -1,9 +1,10 @@
 # SPDX-License-Identifier: MIT
 """The spares policy in force per company or per vessel, kept in the fleet database.
 
-A policy row names the policy (e.g. a company policy file), the days of cover it asks for, and
-the date it is in force from. For a vessel on a date, its own latest policy in force wins;
-without one, its company's.
+A policy row names the policy (e.g. a company policy file), the days of cover it asks for, the
+date it is in force from and its content: the company policy file's TOML text, validated by
+:mod:`kit.spares` before it is stored (null: kit's default policy). For a vessel on a date, its
+own latest policy in force wins; without one, its company's; without either, kit's default.
 """
 
 from __future__ import annotations
@@ -18,6 +19,7 @@ from catalog_schema.sql import upsert
 from catalog_schema.tables import SparesPolicyRow
 from kit.errors import InputError
 from kit.fleet_store import COMPANIES, VESSELS, company_id
+from kit.spares import Policy, policy_from_text
 
 POLICIES = SparesPolicyRow.__table__
 
@@ -29,21 +31,35 @@ class PolicyInForce:
     cover_days: int
     in_force_from: dt.date
     note: str | None
+    content: str | None = None  # the company policy file's TOML; None = kit's default
+
+    def policy(self) -> Policy:
+        """The policy this row says, as kit works with it (a row stored by another program is
+        validated here again, and refused with the row named)."""
+        source = f"fleet database: {self.name}, {self.scope} policy from {self.in_force_from.isoformat()}"
+        return policy_from_text(self.content, source if self.content is not None else source + "; no content stored, so kit's default")
 
 
 def set_policy(conn: Connection, *, name: str, cover_days: int, in_force_from: dt.date,
-               company: str | None = None, vessel: str | None = None, note: str | None = None) -> None:
-    """Record a policy for exactly one company or one vessel (replacing one of the same date)."""
+               company: str | None = None, vessel: str | None = None, note: str | None = None,
+               content: str | None = None, content_source: str = "kit policy set") -> None:
+    """Record a policy for exactly one company or one vessel (replacing one of the same date).
+
+    ``content`` (a company policy file's TOML text) is validated first; a policy that does not
+    parse or validate is refused with ``content_source`` (the file) named.
+    """
     if (company is None) == (vessel is None):
         raise InputError("kit policy set", "--company/--vessel", "exactly one of the two", got="both" if company else "neither")
     if cover_days < 0:
         raise InputError("kit policy set", "--days", "a whole number of days >= 0", got=repr(cover_days))
+    if content is not None:
+        policy_from_text(content, content_source)
     if vessel is not None and conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel)).first() is None:
         raise InputError("kit policy set", "--vessel", "the id of a vessel in the database (kit load adds them)", got=repr(vessel))
     row = {"company_id": company_id(conn, company), "vessel_id": vessel, "name": name, "cover_days": cover_days,
-           "in_force_from": in_force_from, "note": note}
+           "in_force_from": in_force_from, "note": note, "content": content}
     scope = ["vessel_id" if vessel is not None else "company_id", "in_force_from"]
-    conn.execute(upsert(conn, POLICIES, scope, update=["name", "cover_days", "note"]), [row])
+    conn.execute(upsert(conn, POLICIES, scope, update=["name", "cover_days", "note", "content"]), [row])
 
 
 def policy_in_force(conn: Connection, vessel_id: str, on: dt.date) -> PolicyInForce | None:
@@ -57,5 +73,21 @@ def policy_in_force(conn: Connection, vessel_id: str, on: dt.date) -> PolicyInFo
         row = conn.execute(select(POLICIES).where(column == value, POLICIES.c.in_force_from <= on)
                            .order_by(POLICIES.c.in_force_from.desc()).limit(1)).first()
         if row is not None:
-            return PolicyInForce(scope, row.name, row.cover_days, row.in_force_from, row.note)
+            return PolicyInForce(scope, row.name, row.cover_days, row.in_force_from, row.note, row.content)
     return None
+
+
+def policies_in_force(conn: Connection, vessel_ids: list[str], on: dt.date) -> dict[str, Policy]:
+    """Each vessel's spares policy on date ``on``: its own, else its company's, else kit's default.
+
+    Vessels under the same stored policy share one :class:`Policy` object.
+    """
+    built: dict[tuple, Policy] = {}
+    out = {}
+    for vessel_id in vessel_ids:
+        found = policy_in_force(conn, vessel_id, on)
+        key = None if found is None else (found.scope, found.name, found.in_force_from, found.content)
+        if key not in built:
+            built[key] = policy_from_text(None) if found is None else found.policy()
+        out[vessel_id] = built[key]
+    return out

@@ -21,6 +21,7 @@ from kit.units import to_si
 PER = ("unit", "actuator", "actuator_size", "voltage", "valve_block", "hose_size", "pump_model")
 ITEM_KINDS = ("seal_set", "storage_oil", "solenoid_coil", "valve_seal_kit", "relief_cartridge", "hose", "pump_shaft_seal")
 HOUSING_LENGTHS = ("short", "medium", "long")
+DEFAULT_SOURCE = "kit default spares policy"
 
 
 @dataclass(frozen=True)
@@ -61,13 +62,21 @@ def _merge(base: dict[str, Any], override: dict[str, Any]) -> dict[str, Any]:
     return merged
 
 
-def _read(path: Path) -> dict[str, Any]:
+def read_policy_text(path: str | Path) -> str:
+    """The text of a company policy file, or one line saying why it cannot be read."""
     try:
-        return tomllib.loads(path.read_text(encoding="utf-8"))
+        return Path(path).read_text(encoding="utf-8")
     except OSError as exc:
         raise InputError(str(path), "file", "a readable spares policy file", got=exc.strerror) from None
-    except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
+    except UnicodeDecodeError as exc:
         raise InputError(str(path), "file", "valid TOML", got=str(exc)) from None
+
+
+def _parse(text: str, source: str) -> dict[str, Any]:
+    try:
+        return tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(source, "file", "valid TOML", got=str(exc)) from None
 
 
 def _build(data: dict[str, Any], source: str) -> Policy:
@@ -115,11 +124,17 @@ def default_policy_data() -> dict[str, Any]:
     return tomllib.loads(resources.files("kit.data").joinpath("spares_policy.toml").read_text(encoding="utf-8"))
 
 
+def policy_from_text(text: str | None, source: str = DEFAULT_SOURCE) -> Policy:
+    """The default policy with ``text`` (a company policy file's TOML, e.g. as stored in the fleet
+    database) merged over it; ``None`` is the default policy itself. Errors name ``source``."""
+    data = default_policy_data()
+    if text is not None:
+        data = _merge(data, _parse(text, source))
+    return _build(data, source)
+
+
 def load_policy(override: str | Path | None = None) -> Policy:
     """The default policy, with ``override`` (a company policy file) merged over it."""
-    data = default_policy_data()
-    source = "kit default spares policy"
-    if override is not None:
-        data = _merge(data, _read(Path(override)))
-        source = str(override)
-    return _build(data, source)
+    if override is None:
+        return policy_from_text(None)
+    return policy_from_text(read_policy_text(override), str(override))

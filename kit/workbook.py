@@ -231,9 +231,18 @@ def _long(sheet: _Sheet, item: str, text: str, header: bool = False) -> None:
         sheet.append([item if i == 0 else None, part], header=header and i == 0)
 
 
+def policies_in_force(order: Order) -> list[tuple[str, list[str]]]:
+    """One entry per distinct spares policy of the order, first vessel's first: "name (source)"
+    and the ids of the vessels worked out under it."""
+    found: dict[str, list[str]] = {}
+    for r in order.results:
+        found.setdefault(f"{r.policy.name} ({r.policy.source})", []).append(r.vessel.id)
+    return list(found.items())
+
+
 def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False)
-    policy = order.results[0].policy if order.results else None
+    policies = policies_in_force(order)
     sheet.append(["Bill of materials: steering gear and hydraulic spares"], header=True)
     sheet.append(["Scope", scope])
     if len(order.results) <= MAX_VESSELS_LISTED:
@@ -242,7 +251,15 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
         sheet.append(["Vessels", f"{len(order.results)} vessels: see the Vessel split sheet"])
     sheet.append(["Prepared on", dt.date.today().isoformat()])
     sheet.append(["Period [days]", days])
-    sheet.append(["Spares policy in force", f"{policy.name} ({policy.source})" if policy else ""])
+    if len(policies) <= 1:
+        sheet.append(["Spares policy in force", policies[0][0] if policies else ""])
+    else:
+        for text, ids in policies:
+            vessels = ", ".join(ids) if len(ids) <= MAX_VESSELS_LISTED else f"{len(ids)} vessels"
+            _long(sheet, "Spares policy in force", f"{text}: {vessels}")
+        first = order.results[0].policy
+        _long(sheet, "Oil packages bought", f"from the first vessel's policy, {first.name}: "
+              + ", ".join(f"{p.name} {p.volume * L_PER_M3:g} L" for p in order.packages))
     n = len(order.lines) + 1
     sheet.append(["Order lines", len(order.lines)])
     sheet.append(["Lines with something to order", Formula(f"=COUNTIF('Order lines'!{COL['To order']}2:{COL['To order']}{n},\">0\")")])

@@ -53,7 +53,7 @@ def test_where_the_database_is(monkeypatch, tmp_path):
 def test_upgrade_status_and_load_through_the_cli(db_url, tmp_path):
     runner = CliRunner()
     result = runner.invoke(main, ["db", "upgrade", "--db", db_url])
-    assert (result.exit_code, result.output) == (0, "schema at revision 0002 (was empty)\n")
+    assert (result.exit_code, result.output) == (0, "schema at revision 0003 (was empty)\n")
     toml = tmp_path / "v.toml"
     toml.write_text(TOML_CYLINDER)
     book = tmp_path / "v.xlsx"
@@ -61,7 +61,7 @@ def test_upgrade_status_and_load_through_the_cli(db_url, tmp_path):
     result = runner.invoke(main, ["load", str(book)], env={"KIT_DB": db_url})
     assert (result.exit_code, result.output) == (0, "loaded 1 vessel(s): TEST-ONE\n")
     result = runner.invoke(main, ["db", "status", "--db", db_url])
-    assert "revision: 0002" in result.output
+    assert "revision: 0003" in result.output
     assert [line.split() for line in result.output.splitlines() if line.split()[0] in ("vessels", "units")] == [
         ["vessels", "1"], ["units", "1"]]
 
@@ -83,7 +83,10 @@ def test_policy_of_vessel_wins_over_company(db_url, tmp_path):
     own = ["policy", "set", "--vessel", "TEST-ONE", "--name", "long-voyage", "--days", "180", "--from", "2025-06-01", "--db", db_url]
     assert runner.invoke(main, own).exit_code == 0
     show = ["policy", "show", "--vessel", "TEST-ONE", "--db", db_url, "--on"]
-    assert runner.invoke(main, show + ["2025-03-01"]).output == "TEST-ONE: fleet (company policy from 2025-01-01), 90 days of cover\n"
-    assert runner.invoke(main, show + ["2025-07-01"]).output == "TEST-ONE: long-voyage (vessel policy from 2025-06-01), 180 days of cover\n"
+    assert runner.invoke(main, show + ["2025-03-01"]).output.splitlines()[:2] == [
+        "TEST-ONE: fleet (company policy from 2025-01-01), 90 days of cover",
+        "  policy: kit default (fleet database: fleet, company policy from 2025-01-01; no content stored, so kit's default)"]
+    assert runner.invoke(main, show + ["2025-07-01"]).output.splitlines()[0] == (
+        "TEST-ONE: long-voyage (vessel policy from 2025-06-01), 180 days of cover")
     both = runner.invoke(main, ["policy", "set", "--name", "x", "--days", "1", "--from", "2025-01-01", "--db", db_url])
     assert both.exit_code == 2 and both.output.strip() == "kit: error: kit policy set: --company/--vessel: expected exactly one of the two (got neither)"

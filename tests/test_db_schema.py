@@ -17,6 +17,7 @@ from catalog_schema.errors import SchemaVersionError
 from catalog_schema.migrate import current, head, require_current, upgrade
 from catalog_schema.tables import DEFAULT_LOCATION, PartRow, SQLModel, StockRow, VesselRow
 from db_support import db_url, engine  # noqa: F401  (fixtures)
+from kit.policy_store import policy_in_force
 
 
 def test_fresh_database_reaches_the_tables_schema(db_url):
@@ -47,10 +48,25 @@ def _fill_revision_0001(conn) -> dict[str, list[dict]]:
                                "description": None, "pack_qty": 10, "price": 12.5, "currency": "EUR", "lead_time_days": 5}],
         "stock": [{"id": 11, "vessel_id": "V1", "part_id": 3, "quantity": 4.0, "counted_on": dt.date(2025, 3, 1)}],
     }
+    _insert_as_built(conn, rows)
+    return rows
+
+
+def _insert_as_built(conn, rows: dict[str, list[dict]]) -> None:
     old = MetaData()
-    old.reflect(conn)  # the tables as revision 0001 built them, not as the head models are
+    old.reflect(conn)  # the tables as the old revision built them, not as the head models are
     for name, values in rows.items():
         conn.execute(insert(old.tables[name]).values(values))
+
+
+def _fill_revision_0002(conn) -> dict[str, list[dict]]:
+    """Policy rows as revision 0002 stored them: a name and dates, no content."""
+    rows = {"spares_policies": [
+        {"id": 1, "company_id": 1, "vessel_id": None, "name": "fleet-2025", "cover_days": 90,
+         "in_force_from": dt.date(2025, 1, 1), "note": "approved by the technical manager"},
+        {"id": 2, "company_id": None, "vessel_id": "V1", "name": "long-voyage", "cover_days": 180,
+         "in_force_from": dt.date(2025, 6, 1), "note": None}]}
+    _insert_as_built(conn, rows)
     return rows
 
 
@@ -59,9 +75,14 @@ def test_upgrade_from_first_revision_keeps_every_row(db_url):
     upgrade(eng, "0001")
     with eng.begin() as conn:
         before = _fill_revision_0001(conn)
-    with pytest.raises(SchemaVersionError, match="schema is at revision 0001, this kit needs 0002; run: kit db upgrade"):
+    with pytest.raises(SchemaVersionError, match=f"schema is at revision 0001, this kit needs {head()}; run: kit db upgrade"):
         require_current(eng)
-    assert upgrade(eng) == ("0001", "0002")
+    assert upgrade(eng, "0002") == ("0001", "0002")
+    with eng.begin() as conn:
+        before.update(_fill_revision_0002(conn))
+    with pytest.raises(SchemaVersionError, match="schema is at revision 0002, this kit needs 0003; run: kit db upgrade"):
+        require_current(eng)
+    assert upgrade(eng) == ("0002", "0003")
     with eng.connect() as conn:  # an old database reaches the same schema as a fresh one
         assert compare_metadata(MigrationContext.configure(conn, opts={"compare_type": True}), SQLModel.metadata) == []
     with eng.connect() as conn:
@@ -70,7 +91,12 @@ def test_upgrade_from_first_revision_keeps_every_row(db_url):
             found = [r._asdict() for r in conn.execute(table.select().order_by(*table.primary_key.columns))]
             if name == "stock":
                 assert [r.pop("location") for r in found] == [DEFAULT_LOCATION]
+            if name == "spares_policies":  # no content: kit's default policy
+                assert [r.pop("content") for r in found] == [None, None]
             assert found == rows, name
+    with eng.connect() as conn:  # and the rows still say which policy is in force
+        found = policy_in_force(conn, "V1", dt.date(2025, 7, 1))
+    assert (found.name, found.scope, found.content, found.policy().name) == ("long-voyage", "vessel", None, "kit default")
     # The new natural key lets the same part be kept in a second place.
     with eng.begin() as conn:
         conn.execute(insert(StockRow.__table__).values(vessel_id="V1", part_id=3, location="steering gear room", quantity=2.0))

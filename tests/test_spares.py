@@ -3,10 +3,12 @@
 
 from __future__ import annotations
 
+import dataclasses
+
 import pytest
 
 from kit.errors import InputError
-from kit.spares import ITEM_KINDS, load_policy
+from kit.spares import ITEM_KINDS, load_policy, policy_from_text
 
 
 def write(tmp_path, text):
@@ -79,3 +81,15 @@ def test_unreadable_and_invalid_files(tmp_path):
         load_policy(tmp_path / "missing.toml")
     with pytest.raises(InputError, match=r"file: expected valid TOML"):
         load_policy(write(tmp_path, "[policy\n"))
+
+
+def test_policy_from_stored_text_is_the_file_policy(tmp_path):
+    text = '[policy]\nname = "Marrowgate"\nspare_filter_sets = 2\n[[oil.package]]\nname = "drum"\nvolume = "208 L"\n'
+    from_file, stored = load_policy(write(tmp_path, text)), policy_from_text(text, "fleet database: fleet-2025")
+    assert stored.source == "fleet database: fleet-2025"
+    assert stored == dataclasses.replace(from_file, source="fleet database: fleet-2025")
+    assert policy_from_text(None) == load_policy()  # no content: kit's default
+    with pytest.raises(InputError, match=r"^fleet database: x: policy.housing_length: expected one of short, medium, long"):
+        policy_from_text('[policy]\nhousing_length = "huge"\n', "fleet database: x")
+    with pytest.raises(InputError, match=r"^fleet database: x: file: expected valid TOML"):
+        policy_from_text("[policy", "fleet database: x")

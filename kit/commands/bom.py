@@ -18,13 +18,18 @@ from kit.commands.common import db_option
 @click.option("--json", "json_out", type=click.Path(dir_okay=False), help="Also write the order as JSON.")
 @click.option("--particulars", type=click.Path(exists=False), help="Read vessels from a .toml file or folder instead of "
               "the database (no stock, no catalogue: a first list for a new-build series).")
-@click.option("--policy", "policy_file", type=click.Path(dir_okay=False), help="Company spares policy (TOML).")
+@click.option("--policy", "policy_file", type=click.Path(dir_okay=False),
+              help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
 @db_option()
 def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file) -> None:
     """Write the bill of materials: what the vessels need for the period, less what is on board,
     with the same generic part across units and vessels on one line and its split per vessel, oil
     and filter elements rounded to packs over the whole order, and supplier part numbers, prices
     and lead times where a catalogue matched. "To order", packs and totals are live formulas.
+
+    Each vessel is worked out under its spares policy in force today in the fleet database (its
+    own, else its company's, else kit's default; see kit policy show) unless --policy is given.
+    The oil packages are those of the first vessel's policy.
 
     Example: kit bom --days 180 --out fleet-order.xlsx
     """

@@ -15,11 +15,15 @@ from kit.commands.common import db_option
 @click.argument("vessel_id")
 @click.option("--days", type=click.FloatRange(min=0), required=True, help="Length of the voyage, in days.")
 @click.option("--out", type=click.Path(dir_okay=False), help="Also write the shortfall as a workbook (.xlsx).")
-@click.option("--policy", "policy_file", type=click.Path(dir_okay=False), help="Company spares policy (TOML).")
+@click.option("--policy", "policy_file", type=click.Path(dir_okay=False),
+              help="Company spares policy (TOML); default the vessel's policy in force in the fleet database.")
 @db_option()
 def check(engine, vessel_id, days, out, policy_file) -> None:
     """Check VESSEL_ID's on-board stock against what a voyage of --days needs: seals to the spares
     policy, oil for the storage tank and the top-up, filter elements for the changes due.
+
+    The spares policy is --policy when given, else the vessel's policy in force today in the fleet
+    database (its own, else its company's, else kit's default; see kit policy show).
 
     Prints the shortfall. Exit status: 0 nothing short, 1 something short, 2 bad input.
 
@@ -28,14 +32,13 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     from rich.console import Console
     from rich.table import Table
 
-    from kit.fleet_orders import load_fleet
+    from kit.fleet_orders import load_fleet, vessel_policies
     from kit.order_sources import catalogue_offers, stock_on_board
     from kit.preflight import preflight_order
     from kit.requirements import assess_vessel
-    from kit.spares import load_policy
 
     (vessel,) = load_fleet(engine, [vessel_id])
-    result = assess_vessel(vessel, days, load_policy(policy_file))
+    result = assess_vessel(vessel, days, vessel_policies(engine, [vessel.id], policy_file)[vessel.id])
     with engine.connect() as conn:
         on_board = stock_on_board(conn, [vessel.id])
         offers = catalogue_offers(conn, {li.key for li in result.lines})

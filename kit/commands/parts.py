@@ -28,12 +28,12 @@ def register(engine, vessel_ids: tuple[str, ...], policy_file: str | None) -> No
     Example: kit parts register --vessel CORVINA-BAY
     """
     from catalog_schema.engine import write_transaction
-    from kit.fleet_orders import assess_all, load_fleet
+    from kit.fleet_orders import assess_all, load_fleet, vessel_policies
     from kit.parts_store import register_parts
-    from kit.spares import load_policy
 
     vessels = load_fleet(engine, vessel_ids)
-    items = [line for r in assess_all(vessels, 0.0, load_policy(policy_file)) for line in r.lines]
+    policies = vessel_policies(engine, [v.id for v in vessels], policy_file)
+    items = [line for r in assess_all(vessels, 0.0, policies) for line in r.lines]
     count = write_transaction(engine, lambda conn: register_parts(conn, items))
     click.echo(f"{count} generic part(s) for {len(vessels)} vessel(s) are in the database")
 

@@ -24,17 +24,24 @@ def policy() -> None:
 @click.option("--days", "cover_days", type=int, required=True, help="Days of cover on board.")
 @click.option("--from", "in_force_from", type=click.DateTime(["%Y-%m-%d"]), required=True, help="In force from (YYYY-MM-DD).")
 @click.option("--note", help="Free text, e.g. who approved it.")
+@click.option("--file", "policy_file", type=click.Path(dir_okay=False),
+              help="The company spares policy file (TOML, as for --policy); without it, kit's default policy.")
 @db_option()
-def set_(engine, company, vessel, name, cover_days, in_force_from, note) -> None:
-    """Record a spares policy for one company or one vessel from a date.
+def set_(engine, company, vessel, name, cover_days, in_force_from, note, policy_file) -> None:
+    """Record a spares policy for one company or one vessel from a date. With --file the policy
+    file's content is stored too (checked first: a file that does not parse or validate is refused),
+    and kit bom and kit check use it for the vessels it is in force for.
 
-    Example: kit policy set --company "Marrowgate Ship Management Ltd" --name fleet-2025 --days 90 --from 2025-01-01
+    Example: kit policy set --company "Marrowgate Ship Management Ltd" --name fleet-2025 --days 90 --from 2025-01-01 --file company-policy.toml
     """
     from catalog_schema.engine import write_transaction
     from kit.policy_store import set_policy
+    from kit.spares import read_policy_text
 
+    content = read_policy_text(policy_file) if policy_file else None
     write_transaction(engine, lambda conn: set_policy(conn, name=name, cover_days=cover_days, in_force_from=in_force_from.date(),
-                                                      company=company, vessel=vessel, note=note))
+                                                      company=company, vessel=vessel, note=note,
+                                                      content=content, content_source=str(policy_file)))
     click.echo(f"policy {name} in force from {in_force_from.date().isoformat()} for {company or vessel}")
 
 
@@ -43,13 +50,15 @@ def set_(engine, company, vessel, name, cover_days, in_force_from, note) -> None
 @click.option("--on", type=click.DateTime(["%Y-%m-%d"]), help="The date (default today).")
 @db_option()
 def show(engine, vessel, on) -> None:
-    """Show the spares policy in force for a vessel (its own, else its company's).
+    """Show the spares policy in force for a vessel (its own, else its company's, else kit's
+    default): the record, then the policy's name and source and each item with its basis.
 
     Example: kit policy show --vessel CORVINA-BAY --on 2025-06-30
     """
     import datetime as dt
 
     from kit.policy_store import policy_in_force
+    from kit.spares import load_policy
 
     day = on.date() if on else dt.date.today()
     with engine.connect() as conn:
@@ -59,3 +68,8 @@ def show(engine, vessel, on) -> None:
     else:
         click.echo(f"{vessel}: {found.name} ({found.scope} policy from {found.in_force_from.isoformat()}), "
                    f"{found.cover_days} days of cover" + (f"; {found.note}" if found.note else ""))
+    rules = load_policy() if found is None else found.policy()
+    click.echo(f"  policy: {rules.name} ({rules.source})")
+    click.echo(f"  spare filter element sets: {rules.spare_filter_sets}; housing length: {rules.housing_length}")
+    for item in rules.items:
+        click.echo(f"  {item.kind}: {item.quantity} per {item.per}, {item.text}; basis: {item.basis}")
