@@ -1,11 +1,13 @@
 # SPDX-License-Identifier: MIT
-"""Files kit writes appear whole or not at all: written to a temporary name beside the target,
+"""Files kit writes appear whole or not at all: written to a temporary file beside the target,
 then renamed into place (``os.replace`` is atomic on one file system)."""
 
 from __future__ import annotations
 
+import errno
 import os
 import tempfile
+import uuid
 from pathlib import Path
 from typing import Callable
 
@@ -17,9 +19,74 @@ def replace_atomically(path: Path, write: Callable[[Path], object]) -> Path:
 
     On any failure the temporary file is removed and ``path`` is left as it was; an OSError
     (no room, no permission, read-only folder) becomes :class:`~kit.errors.OutputError`.
+    Where the system offers it (Linux, ``O_TMPFILE``) the file being written has no name until it
+    is complete, so even a process killed outright (SIGKILL, power loss) leaves no partial file.
     """
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
+    try:
+        _write_unnamed(path, write)
+    except _NoUnnamedFiles:
+        _write_named(path, write)
+    return path
+
+
+class _NoUnnamedFiles(Exception):
+    """The file system cannot make a file without a name (no ``O_TMPFILE``)."""
+
+
+def _write_unnamed(path: Path, write: Callable[[Path], object]) -> None:
+    flag = getattr(os, "O_TMPFILE", 0)
+    if not flag or not os.path.isdir("/proc/self/fd"):
+        raise _NoUnnamedFiles
+    try:
+        fd = os.open(path.parent, flag | os.O_WRONLY, 0o644 & ~_umask())
+    except OSError as exc:
+        if exc.errno in (errno.EOPNOTSUPP, errno.EISDIR, errno.EINVAL, errno.ENOENT):
+            raise _NoUnnamedFiles from None
+        raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
+    tmp = None
+    try:
+        write(Path(f"/proc/self/fd/{fd}"))  # reopening the magic link writes the unnamed file
+        os.fsync(fd)
+        # The content is complete: give it a name beside the target, then move it into place.
+        tmp = path.parent / f".{path.name}.{os.getpid()}.{uuid.uuid4().hex[:8]}.part"
+        _link_following(f"/proc/self/fd/{fd}", tmp)
+        os.replace(tmp, path)
+        tmp = None
+    except OSError as exc:
+        raise OutputError(str(path), f"room and permission to write the file ({exc.strerror})") from None
+    finally:
+        os.close(fd)
+        if tmp is not None and os.path.exists(tmp):
+            os.unlink(tmp)
+
+
+def _link_following(source: str, target: Path) -> None:
+    """``linkat(..., AT_SYMLINK_FOLLOW)``: name the file a /proc/self/fd link points at.
+
+    ``os.link`` links the /proc symlink itself (which fails across file systems), so libc's
+    linkat is called directly.
+    """
+    import ctypes
+
+    at_fdcwd, at_symlink_follow = -100, 0x400
+    libc = ctypes.CDLL(None, use_errno=True)
+    if libc.linkat(at_fdcwd, os.fsencode(source), at_fdcwd, os.fsencode(str(target)), at_symlink_follow) != 0:
+        code = ctypes.get_errno()
+        raise OSError(code, os.strerror(code), str(target))
+
+
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
+
+
+def _write_named(path: Path, write: Callable[[Path], object]) -> None:
+    try:
         fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".part")
     except OSError as exc:
         raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
@@ -32,4 +99,3 @@ def replace_atomically(path: Path, write: Callable[[Path], object]) -> Path:
     finally:
         if os.path.exists(tmp):
             os.unlink(tmp)
-    return path

@@ -29,6 +29,9 @@ MAX_HOUSING_BORE_M = 6.0
 MAX_STROKE_M = 5.0
 MAX_PRESSURE_PA = 700e5
 MAX_RUDDER_ANGLE_RAD = math.radians(70)
+MAX_GROSS_TONNAGE = 1_000_000
+MAX_COUNT = 1000  # rams, cylinders, pumps, elements, coils, hoses: past this, a typing error
+MAX_TEXT = 200
 
 
 @dataclass(frozen=True)
@@ -188,25 +191,33 @@ class _Reader:
             return value
         if not isinstance(value, str) or not value.strip():
             raise InputError(self.source, self._name(key), "a non-empty string", got=repr(value))
+        if len(value) > MAX_TEXT or any(ord(ch) < 32 or ord(ch) == 127 for ch in value):
+            # A NUL cannot be stored in PostgreSQL text; a newline or tab would break the one-line reports.
+            raise InputError(self.source, self._name(key), f"one line of at most {MAX_TEXT} characters, no control characters",
+                             got=repr(value[:40] + ("..." if len(value) > 40 else "")))
         value = value.strip()
         if choices and value not in choices:
             raise InputError(self.source, self._name(key), "one of " + ", ".join(choices), got=repr(value))
         return value
 
-    def integer(self, key: str, default: Any = ..., minimum: int = 0) -> int:
+    def integer(self, key: str, default: Any = ..., minimum: int = 0, maximum: int = MAX_COUNT) -> int:
         value = self.raw(key, default)
         if value is default and default is not ...:
             return value
-        if isinstance(value, bool) or not isinstance(value, int) or value < minimum:
-            raise InputError(self.source, self._name(key), f"a whole number of at least {minimum}", got=repr(value))
+        if isinstance(value, bool) or not isinstance(value, int) or not minimum <= value <= maximum:
+            bound = f"at most {maximum}" if isinstance(value, int) and value > maximum else f"at least {minimum}"
+            raise InputError(self.source, self._name(key), f"a whole number of {bound}", got=repr(value))
         return value
 
-    def number(self, key: str, default: Any = ..., minimum: float = 0.0) -> float:
+    def number(self, key: str, default: Any = ..., minimum: float = 0.0, maximum: float = math.inf) -> float:
         value = self.raw(key, default)
         if value is default and default is not ...:
             return value
-        if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) or value < minimum:
-            raise InputError(self.source, self._name(key), f"a number of at least {minimum:g}", got=repr(value))
+        if (isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value)
+                or not minimum <= value <= maximum):
+            over = isinstance(value, (int, float)) and not isinstance(value, bool) and value > maximum
+            bound = f"at most {maximum:g}" if over else f"at least {minimum:g}"
+            raise InputError(self.source, self._name(key), f"a number of {bound}", got=repr(value))
         return float(value)
 
     def quantity(self, key: str, kind: str, default: Any = ..., *, positive: bool = True,
@@ -382,7 +393,7 @@ def vessel_from_dict(data: Any, source: str = "") -> Vessel:
     vid = v.text("id")
     name = v.text("name")
     ship_type = v.text("ship_type", choices=SHIP_TYPES)
-    gt = v.number("gross_tonnage", minimum=1)
+    gt = v.number("gross_tonnage", minimum=1, maximum=MAX_GROSS_TONNAGE)
     v.finish()
     units = tuple(_unit(u) for u in top.tables("unit"))
     if not units:

@@ -18,3 +18,8 @@ def is_risky(value: object) -> bool:
 def csv_field(value: object) -> object:
     """A value safe to put in a CSV field: risky text gets a leading single quote."""
     return "'" + value if is_risky(value) else value
+
+
+def from_csv_field(value: str) -> str:
+    """The text :func:`csv_field` was given: a leading quote before a formula character dropped."""
+    return value[1:] if value.startswith("'") and is_risky(value[1:]) else value

@@ -5,22 +5,26 @@ Reading refuses, with one line naming the file, what would be dangerous or is si
 table: a file that is not a workbook, XML entity tricks (openpyxl parses through defusedxml,
 which is a dependency and is checked here), a workbook whose parts unpack past
 :data:`MAX_UNPACKED_BYTES`, more than ``max_rows`` data rows, a duplicated or unknown column.
-Writing goes to a temporary file that replaces the target only when complete.
+Writing goes to a temporary file that replaces the target only when complete (:mod:`kit.atomic`).
+Text that starts with a formula character is written as a string cell in a workbook and with a
+leading ``'`` in a CSV (:mod:`kit.safe_text`); reading a CSV drops that ``'`` again.
 """
 
 from __future__ import annotations
 
 import csv
-import os
-import tempfile
 import zipfile
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any, Iterable, Sequence
 
+from kit.atomic import replace_atomically
 from kit.errors import InputError
+from kit.safe_text import csv_field, from_csv_field, is_risky
 
-MAX_ROWS = 1_000_000
+# Data rows read from one sheet. Sheets are streamed (openpyxl read-only mode, csv line by line)
+# and refused at the first row past the limit, so a huge sheet is never held whole in memory.
+MAX_ROWS = 100_000
 MAX_UNPACKED_BYTES = 512 * 1024 * 1024
 WORKBOOK = "an .xlsx workbook (Office Open XML spreadsheet)"
 
@@ -153,13 +157,14 @@ def _safely(path: str, lines: Iterable[tuple[int, Sequence[Any]]]) -> Iterable[t
 
 
 def read_table(path: str | Path, sheet: str, *, known: Sequence[str] | None = None, required: Sequence[str] = (),
-               max_rows: int = MAX_ROWS) -> Table:
+               max_rows: int | None = None) -> Table:
     """Read the sheet called ``sheet`` of an .xlsx workbook (or its only sheet), or a .csv file.
 
     ``known`` lists the columns allowed (None: any), ``required`` those that must be there.
     """
     path = Path(path)
     source = str(path)
+    max_rows = MAX_ROWS if max_rows is None else max_rows
     if not path.is_file():
         raise InputError(source, "file", "an existing .xlsx or .csv file", got="no such file")
     if path.suffix.lower() == ".csv":
@@ -204,23 +209,24 @@ def read_sheets(path: str | Path) -> dict[str, list[tuple[int, Sequence[Any]]]]:
 def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], max_rows: int) -> Table:
     source = str(path)
     try:
-        text = path.read_text(encoding="utf-8-sig")
-    except UnicodeDecodeError:
-        raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
+        handle = path.open(encoding="utf-8-sig", newline="")
     except OSError as exc:
         raise InputError(source, "file", "a readable CSV file", got=exc.strerror or str(exc)) from None
-    reader = csv.reader(text.splitlines(keepends=True))
+    with handle:
+        reader = csv.reader(handle)
 
-    def lines() -> Iterable[tuple[int, Sequence[Any]]]:
-        start = 1
-        try:
-            for cells in reader:
-                yield start, cells
-                start = reader.line_num + 1
-        except csv.Error as exc:
-            raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None
+        def lines() -> Iterable[tuple[int, Sequence[Any]]]:
+            start = 1
+            try:
+                for cells in reader:
+                    yield start, [from_csv_field(c) for c in cells]
+                    start = reader.line_num + 1
+            except csv.Error as exc:
+                raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None
+            except UnicodeDecodeError:
+                raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
 
-    return _table(source, None, lines(), known, required, max_rows)
+        return _table(source, None, lines(), known, required, max_rows)
 
 
 # --- writing -------------------------------------------------------------------------------
@@ -234,18 +240,6 @@ class Sheet:
     columns: Sequence[str]
     rows: Sequence[Sequence[Any]] = ()
     notes: dict[str, str] | None = None
-
-
-def _replace_atomically(path: Path, write) -> None:
-    path.parent.mkdir(parents=True, exist_ok=True)
-    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
-    os.close(fd)
-    try:
-        write(Path(tmp))
-        os.replace(tmp, path)
-    finally:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
 
 
 def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
@@ -264,6 +258,9 @@ def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
                 cell.font = Font(bold=True)
             for row in sheet.rows:
                 ws.append(list(row))
+                for cell in ws[ws.max_row]:
+                    if is_risky(cell.value):
+                        cell.data_type = "s"  # user text: never a formula
             ws.freeze_panes = "A2"
             for i, name in enumerate(sheet.columns, start=1):
                 ws.column_dimensions[ws.cell(1, i).column_letter].width = max(12, len(name) + 4)
@@ -274,10 +271,13 @@ def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
             cell.font = Font(bold=True)
         for note in notes:
             ws.append(list(note))
+            for cell in ws[ws.max_row]:
+                if is_risky(cell.value):
+                    cell.data_type = "s"
         ws.column_dimensions["C"].width = 90
         wb.save(tmp)
 
-    _replace_atomically(Path(path), write)
+    replace_atomically(Path(path), write)
 
 
 def write_csv(path: str | Path, columns: Sequence[str], rows: Sequence[Sequence[Any]] = ()) -> None:
@@ -285,9 +285,9 @@ def write_csv(path: str | Path, columns: Sequence[str], rows: Sequence[Sequence[
         with tmp.open("w", newline="", encoding="utf-8") as f:
             out = csv.writer(f)
             out.writerow(columns)
-            out.writerows(rows)
+            out.writerows([csv_field(v) for v in row] for row in rows)
 
-    _replace_atomically(Path(path), write)
+    replace_atomically(Path(path), write)
 
 
 def write_sheet(path: str | Path, sheet: Sheet) -> None:

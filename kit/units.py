@@ -9,6 +9,7 @@ m^3, s). Nothing inside the engine sees pint.
 from __future__ import annotations
 
 import math
+import re
 from functools import lru_cache
 
 import pint
@@ -41,6 +42,22 @@ EXAMPLES = {
 }
 
 
+# What a quantity may look like before pint sees it: a plain number, then unit words joined by
+# spaces, ``/``, ``*`` or ``.``, with one-digit powers (``m**3``, ``m^3``). pint evaluates the
+# text as arithmetic, so "9**9**9 mm" would tie up the process and "1 mm * 10**400" would
+# overflow; neither is a measurement, and neither reaches pint.
+MAX_TEXT = 60
+_QUANTITY = re.compile(
+    r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d{1,3})?\s*"
+    r"(?:[^\W\d]|[°µ])(?:[^\W\d]|[°µ\s/*.]|(?:\*\*|\^)-?\d(?!\s*(?:\*\*|\^)))*"
+)
+
+
+def looks_like_quantity(text: str) -> bool:
+    """True if ``text`` is a plain number followed by a unit, short enough to parse safely."""
+    return len(text) <= MAX_TEXT and _QUANTITY.fullmatch(text) is not None
+
+
 @lru_cache(maxsize=4096)
 def _parse(text: str) -> pint.Quantity:
     return ureg.Quantity(text)
@@ -53,11 +70,11 @@ def to_si(value: object, kind: str, *, source: str, field: str) -> float:
     string, carries no unit, has a unit of another kind, or is not a finite number.
     """
     want = f"a {kind} with a unit, e.g. {EXAMPLES[kind]}"
-    if isinstance(value, bool) or not isinstance(value, str):
-        raise InputError(source, field, want, got=repr(value))
+    if isinstance(value, bool) or not isinstance(value, str) or not looks_like_quantity(value.strip()):
+        raise InputError(source, field, want, got=repr(value if len(str(value)) <= MAX_TEXT else str(value)[:MAX_TEXT] + "..."))
     try:
         q = _parse(value.strip())
-    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError, KeyError):
+    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError, KeyError, OverflowError):
         raise InputError(source, field, want, got=repr(value)) from None
     if not isinstance(q, pint.Quantity):
         raise InputError(source, field, want, got=repr(value))
@@ -69,10 +86,10 @@ def to_si(value: object, kind: str, *, source: str, field: str) -> float:
         raise InputError(source, field, want, got=repr(value))
     try:
         magnitude = float(q.to(si).magnitude)
-    except (pint.errors.PintError, TypeError, ValueError):
+    except (pint.errors.PintError, TypeError, ValueError, OverflowError):
         raise InputError(source, field, want, got=repr(value)) from None
     if not math.isfinite(magnitude):
-        raise InputError(source, field, "a finite " + want, got=repr(value))
+        raise InputError(source, field, "a finite " + want.removeprefix("a "), got=repr(value))
     return magnitude
 
 
