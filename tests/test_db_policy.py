@@ -173,3 +173,17 @@ def test_bad_policy_stored_by_another_program_is_refused_by_bom_and_check(fleet,
     # a --policy file does not read the stored policy at all
     assert fleet("bom", "--days", "30", "--out", str(tmp_path / "o.xlsx"), "--policy",
                  policy_file(tmp_path, SETS_2)).exit_code == 0
+
+
+def test_oil_packages_come_from_the_first_vessels_policy(fleet, tmp_path):
+    drums = policy_file(tmp_path, '[policy]\nname = "drums only"\n[[oil.package]]\nname = "drum"\nvolume = "208 L"\n')
+    out = tmp_path / "order.json"
+
+    def packages():
+        assert fleet("bom", "--days", "30", "--out", str(tmp_path / "o.xlsx"), "--json", str(out)).exit_code == 0
+        return {p["name"] for oil in json.loads(out.read_text())["oil"] for p in oil["packages"]}
+
+    set_policy(fleet, "--vessel", "TEST-TWO", drums)
+    assert "pail" in packages()  # TEST-ONE, first by id, is under kit's default, which has pails
+    set_policy(fleet, "--vessel", "TEST-ONE", drums)
+    assert packages() == {"drum"}
