@@ -47,16 +47,23 @@ class Policy:
         return next((i for i in self.items if i.kind == kind), None)
 
 
-def _merge(base: dict[str, Any], override: dict[str, Any]) -> dict[str, Any]:
+WHERE = "_where"  # the item's place in the file it came from, for error messages
+
+
+def _merge(base: dict[str, Any], override: dict[str, Any], source: str) -> dict[str, Any]:
     merged = dict(base)
     for key, value in override.items():
         if key == "item":
-            items = {i.get("kind"): i for i in base.get("item", [])}
-            for i in value if isinstance(value, list) else []:
-                items[i.get("kind") if isinstance(i, dict) else None] = i
+            if not isinstance(value, list):
+                raise InputError(source, "item", "an array of tables ([[item]])", got=type(value).__name__)
+            items = {i.get("kind"): {**i, WHERE: f"{DEFAULT_SOURCE}: item[{n}]"} for n, i in enumerate(base.get("item", []))}
+            for n, i in enumerate(value):
+                if not isinstance(i, dict):
+                    raise InputError(source, f"item[{n}]", "a table", got=repr(i))
+                items[i.get("kind")] = {**i, WHERE: f"item[{n}]"}
             merged["item"] = list(items.values())
         elif isinstance(value, dict) and isinstance(base.get(key), dict):
-            merged[key] = _merge(base[key], value)
+            merged[key] = _merge(base[key], value, source)
         else:
             merged[key] = value
     return merged
@@ -105,16 +112,17 @@ def _build(data: dict[str, Any], source: str) -> Policy:
     for i, it in enumerate(data.get("item", [])):
         if not isinstance(it, dict):
             raise bad(f"item[{i}]", "a table", it)
+        where = it.get(WHERE, f"item[{i}]")
         kind, per, qty = it.get("kind"), it.get("per"), it.get("quantity")
         if kind not in ITEM_KINDS:
-            raise bad(f"item[{i}].kind", "one of " + ", ".join(ITEM_KINDS), kind)
+            raise bad(f"{where}.kind", "one of " + ", ".join(ITEM_KINDS), kind)
         if per not in PER:
-            raise bad(f"item[{i}].per", "one of " + ", ".join(PER), per)
+            raise bad(f"{where}.per", "one of " + ", ".join(PER), per)
         if isinstance(qty, bool) or not isinstance(qty, int) or qty < 0:
-            raise bad(f"item[{i}].quantity", "a whole number of 0 or more", qty)
+            raise bad(f"{where}.quantity", "a whole number of 0 or more", qty)
         basis = it.get("basis")
         if not isinstance(basis, str) or not basis.strip():
-            raise bad(f"item[{i}].basis", 'the basis, e.g. "common practice" or "company policy"', basis)
+            raise bad(f"{where}.basis", 'the basis, e.g. "common practice" or "company policy"', basis)
         if qty:
             items.append(PolicyItem(kind, str(it.get("text", kind)), per, qty, basis.strip()))
     return Policy(str(head.get("name", "unnamed")), sets, length, ratings, tuple(packages), tuple(items), source)
@@ -129,7 +137,7 @@ def policy_from_text(text: str | None, source: str = DEFAULT_SOURCE) -> Policy:
     database) merged over it; ``None`` is the default policy itself. Errors name ``source``."""
     data = default_policy_data()
     if text is not None:
-        data = _merge(data, _parse(text, source))
+        data = _merge(data, _parse(text, source), source)
     return _build(data, source)
 
 

@@ -63,9 +63,9 @@ basis = "company policy"
         ("[policy]\nspare_filter_sets = -1\n", "policy.spare_filter_sets: expected a whole number of 0 or more (got -1)"),
         ('[policy]\nhousing_length = "huge"\n', "policy.housing_length: expected one of short, medium, long (got 'huge')"),
         ('[[item]]\nkind = "anchor"\nper = "unit"\nquantity = 1\nbasis = "x"\n',
-         "item[7].kind: expected one of " + ", ".join(ITEM_KINDS) + " (got 'anchor')"),
+         "item[0].kind: expected one of " + ", ".join(ITEM_KINDS) + " (got 'anchor')"),
         ('[[item]]\nkind = "hose"\nper = "unit"\nquantity = 1\nbasis = " "\n',
-         "item[5].basis: expected the basis, e.g. \"common practice\" or \"company policy\" (got ' ')"),
+         "item[0].basis: expected the basis, e.g. \"common practice\" or \"company policy\" (got ' ')"),
         ('[ratings]\nhose = "250"\n', "ratings.hose: expected a pressure with a unit"),
     ],
 )
@@ -93,3 +93,11 @@ def test_policy_from_stored_text_is_the_file_policy(tmp_path):
         policy_from_text('[policy]\nhousing_length = "huge"\n', "fleet database: x")
     with pytest.raises(InputError, match=r"^fleet database: x: file: expected valid TOML"):
         policy_from_text("[policy", "fleet database: x")
+
+
+def test_bad_item_is_named_by_its_place_in_the_file(tmp_path):
+    path = write(tmp_path, '[[item]]\nkind = "hose"\nper = "unit"\nquantity = 1\nbasis = "company policy"\n'
+                           '[[item]]\nkind = "relief_cartridge"\nper = "everywhere"\nquantity = 1\nbasis = "company policy"\n')
+    with pytest.raises(InputError) as info:
+        load_policy(path)
+    assert str(info.value).startswith(f"{path}: item[1].per: expected one of ")
