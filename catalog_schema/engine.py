@@ -83,7 +83,10 @@ def make_engine(url: str, busy_timeout_ms: int = BUSY_TIMEOUT_MS) -> Engine:
 
 def _sqlite_engine(url: str, database: str | None, busy_timeout_ms: int) -> Engine:
     if database and database != ":memory:":
-        Path(database).parent.mkdir(parents=True, exist_ok=True)
+        try:
+            Path(database).parent.mkdir(parents=True, exist_ok=True)
+        except OSError as exc:
+            raise DatabaseError(shown(url), f"its folder cannot be made ({exc.strerror})", "give a writable path") from None
     engine = create_engine(url, connect_args={"timeout": busy_timeout_ms / 1000})
 
     @event.listens_for(engine, "connect")
@@ -137,4 +140,14 @@ def connect_check(engine: Engine) -> None:
             pass
     except OperationalError as exc:
         first = str(exc.orig).strip().splitlines()[0] if exc.orig else str(exc)
-        raise DatabaseError(shown(str(engine.url)), "cannot be opened", first) from None
+        raise DatabaseError(shown(str(engine.url)), _why_not_opened(engine), first) from None
+
+
+def _why_not_opened(engine: Engine) -> str:
+    """'cannot be opened', and why when it is a SQLite file kit may not write (WAL needs to)."""
+    database = engine.url.database if engine.url.get_backend_name() == "sqlite" else None
+    if database and database != ":memory:":
+        path = Path(database)
+        if (path.exists() and not os.access(path, os.W_OK)) or not os.access(path.parent, os.W_OK):
+            return "cannot be opened: the file or its folder is read-only (kit writes to it, even to read)"
+    return "cannot be opened"

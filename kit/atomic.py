@@ -5,7 +5,9 @@ then renamed into place (``os.replace`` is atomic on one file system)."""
 from __future__ import annotations
 
 import errno
+import gc
 import os
+import sys
 import tempfile
 import uuid
 from pathlib import Path
@@ -47,8 +49,10 @@ def _write_unnamed(path: Path, write: Callable[[Path], object]) -> None:
         if exc.errno in (errno.EOPNOTSUPP, errno.EISDIR, errno.EINVAL, errno.ENOENT):
             raise _NoUnnamedFiles from None
         raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
-    tmp = None
-    try:
+    tmp: Path | None = None
+
+    def finish() -> None:
+        nonlocal tmp
         write(Path(f"/proc/self/fd/{fd}"))  # reopening the magic link writes the unnamed file
         os.fsync(fd)
         # The content is complete: give it a name beside the target, then move it into place.
@@ -56,12 +60,53 @@ def _write_unnamed(path: Path, write: Callable[[Path], object]) -> None:
         _link_following(f"/proc/self/fd/{fd}", tmp)
         os.replace(tmp, path)
         tmp = None
-    except OSError as exc:
-        raise OutputError(str(path), f"room and permission to write the file ({exc.strerror})") from None
+
+    try:
+        _refuse_quietly(path, finish, write)
     finally:
         os.close(fd)
         if tmp is not None and os.path.exists(tmp):
             os.unlink(tmp)
+
+
+def _refuse_quietly(path: Path, step: Callable[[], object], write: Callable[[Path], object]) -> None:
+    """Run ``step``; an OSError becomes one :class:`OutputError`, and nothing else is printed.
+
+    A writer that failed half way (openpyxl's zip archive, its write-only sheet generators)
+    is left holding a dead file; when it is collected it fails again and Python would print
+    those second failures as "Exception ignored" tracebacks. They repeat the error reported
+    here, so they are dropped while the failed writer is collected, and only then.
+    """
+    failure = None
+    hook = sys.unraisablehook
+    try:
+        try:
+            step()
+        except OSError as exc:
+            failure = exc.strerror or str(exc)
+            sys.unraisablehook = _drop
+            _close_unsaved_sheets(write)
+        gc.collect()  # the failed writer's leftovers, while they are still dropped
+    finally:
+        sys.unraisablehook = hook
+    if failure is not None:
+        raise OutputError(str(path), f"room and permission to write the file ({failure})")
+
+
+def _close_unsaved_sheets(write: Callable[[Path], object]) -> None:
+    """When ``write`` is an openpyxl workbook's ``save``, end the row streams of the write-only
+    sheets it did not reach (``_rows``, openpyxl 3.1), which would fail again when collected."""
+    for ws in getattr(getattr(write, "__self__", None), "worksheets", ()):
+        rows = getattr(ws, "_rows", None)
+        if rows is not None and hasattr(rows, "close"):
+            try:
+                rows.close()
+            except (OSError, ValueError):
+                pass  # the stream's file is already gone; the write was refused above
+
+
+def _drop(_unraisable: object) -> None:
+    """An unraisable-exception hook that prints nothing (see :func:`_refuse_quietly`)."""
 
 
 def _link_following(source: str, target: Path) -> None:
@@ -92,10 +137,7 @@ def _write_named(path: Path, write: Callable[[Path], object]) -> None:
         raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
     os.close(fd)
     try:
-        write(Path(tmp))
-        os.replace(tmp, path)
-    except OSError as exc:
-        raise OutputError(str(path), f"room and permission to write the file ({exc.strerror})") from None
+        _refuse_quietly(path, lambda: (write(Path(tmp)), os.replace(tmp, path)), write)
     finally:
         if os.path.exists(tmp):
             os.unlink(tmp)
