@@ -11,7 +11,7 @@ from __future__ import annotations
 
 from typing import Iterable
 
-from sqlalchemy import delete, insert, select, update
+from sqlalchemy import bindparam, delete, insert, select, update
 from sqlalchemy.engine import Connection
 
 from catalog_schema.sql import upsert
@@ -107,42 +107,74 @@ def _power_row(u: Unit) -> dict:
 
 def save_vessel(conn: Connection, vessel: Vessel) -> None:
     """Insert or update one vessel and its units, inside the caller's transaction."""
-    row = {"id": vessel.id, "name": vessel.name, "ship_type": vessel.ship_type, "gross_tonnage": vessel.gross_tonnage,
-           "company_id": company_id(conn, vessel.company), "source": vessel.source or None}
-    conn.execute(upsert(conn, VESSELS, ["id"], update=[c for c in row if c != "id"]), [row])
+    save_vessels(conn, [vessel])
 
-    existing = dict(conn.execute(select(UNITS.c.ref, UNITS.c.id).where(UNITS.c.vessel_id == vessel.id)).all())
-    wanted = {u.id for u in vessel.units}
-    gone = [uid for ref, uid in existing.items() if ref not in wanted]
-    if gone:
-        conn.execute(delete(UNITS).where(UNITS.c.id.in_(gone)))
-    unit_ids: list[int] = []
-    for seq, unit in enumerate(vessel.units):
-        values = _unit_row(unit, seq)
-        if unit.id in existing:
-            uid = existing[unit.id]
-            conn.execute(update(UNITS).where(UNITS.c.id == uid).values(**values))
-        else:
-            uid = conn.execute(insert(UNITS).values(vessel_id=vessel.id, **values).returning(UNITS.c.id)).scalar_one()
-        unit_ids.append(uid)
 
-    tables = [ACTUATORS, POWER_UNITS] + [t for t, _, _ in _CHILDREN.values()]
-    for table in tables:
-        conn.execute(delete(table).where(table.c.unit_id.in_(unit_ids)))
-    conn.execute(insert(ACTUATORS), [{"unit_id": uid, **_geometry_row(u)} for uid, u in zip(unit_ids, vessel.units)])
-    conn.execute(insert(POWER_UNITS), [{"unit_id": uid, **_power_row(u)} for uid, u in zip(unit_ids, vessel.units)])
-    for table, rows_of, _ in _CHILDREN.values():
-        rows = [{"unit_id": uid, "seq": i, **r} for uid, u in zip(unit_ids, vessel.units) for i, r in enumerate(rows_of(u))]
-        if rows:
-            conn.execute(insert(table), rows)
+# Ids per IN (...) list: well inside every engine's limit on bound parameters.
+_CHUNK = 500
+
+
+def _chunks(values: list) -> Iterable[list]:
+    for i in range(0, len(values), _CHUNK):
+        yield values[i:i + _CHUNK]
 
 
 def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
-    """Save every vessel in the caller's transaction; return their ids."""
-    ids = []
-    for vessel in vessels:
-        save_vessel(conn, vessel)
-        ids.append(vessel.id)
+    """Save every vessel in the caller's transaction; return their ids.
+
+    The fleet is written a table at a time (one statement per table and chunk of ids, not a
+    handful per vessel and unit), so a thousand vessels are a few dozen round trips. A vessel id
+    given twice is saved as its last occurrence, as saving them one after the other would.
+    """
+    given = list(vessels)
+    ids = [v.id for v in given]
+    latest = list({v.id: v for v in given}.values())
+    if not latest:
+        return ids
+    companies = {name: company_id(conn, name) for name in dict.fromkeys(v.company for v in given if v.company is not None)}
+    rows = [{"id": v.id, "name": v.name, "ship_type": v.ship_type, "gross_tonnage": v.gross_tonnage,
+             "company_id": companies.get(v.company), "source": v.source or None} for v in latest]
+    conn.execute(upsert(conn, VESSELS, ["id"], update=[c for c in rows[0] if c != "id"]), rows)
+
+    def unit_ids_of(vessel_ids: list[str]) -> dict[tuple[str, str], int]:
+        found: dict[tuple[str, str], int] = {}
+        for chunk in _chunks(vessel_ids):
+            query = select(UNITS.c.vessel_id, UNITS.c.ref, UNITS.c.id).where(UNITS.c.vessel_id.in_(chunk))
+            found.update({(vid, ref): uid for vid, ref, uid in conn.execute(query)})
+        return found
+
+    vessel_ids_ = [v.id for v in latest]
+    existing = unit_ids_of(vessel_ids_)
+    wanted = {(v.id, u.id) for v in latest for u in v.units}
+    gone = [uid for key, uid in existing.items() if key not in wanted]
+    for chunk in _chunks(gone):
+        conn.execute(delete(UNITS).where(UNITS.c.id.in_(chunk)))
+    changed, added = [], []
+    for v in latest:
+        for seq, unit in enumerate(v.units):
+            values = _unit_row(unit, seq)
+            if (v.id, unit.id) in existing:
+                changed.append({"uid": existing[(v.id, unit.id)], **{f"new_{k}": x for k, x in values.items()}})
+            else:
+                added.append({"vessel_id": v.id, **values})
+    if changed:
+        conn.execute(update(UNITS).where(UNITS.c.id == bindparam("uid"))
+                     .values({k.removeprefix("new_"): bindparam(k) for k in changed[0] if k != "uid"}), changed)
+    if added:
+        conn.execute(insert(UNITS), added)
+    unit_id = unit_ids_of(vessel_ids_)
+    units = [(unit_id[(v.id, u.id)], u) for v in latest for u in v.units]
+
+    tables = [ACTUATORS, POWER_UNITS] + [t for t, _, _ in _CHILDREN.values()]
+    for chunk in _chunks([uid for uid, _ in units]):
+        for table in tables:
+            conn.execute(delete(table).where(table.c.unit_id.in_(chunk)))
+    conn.execute(insert(ACTUATORS), [{"unit_id": uid, **_geometry_row(u)} for uid, u in units])
+    conn.execute(insert(POWER_UNITS), [{"unit_id": uid, **_power_row(u)} for uid, u in units])
+    for table, rows_of, _ in _CHILDREN.values():
+        child_rows = [{"unit_id": uid, "seq": i, **r} for uid, u in units for i, r in enumerate(rows_of(u))]
+        if child_rows:
+            conn.execute(insert(table), child_rows)
     return ids
 
 
