@@ -52,6 +52,7 @@ class _Sheet:
     def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True):
         self.ws = wb.create_sheet(title)
         self.table = header_row
+        self._reused: dict[tuple[int, bool], WriteOnlyCell] = {}
         self.columns = list(columns)
         self.formats = [fmt for _, _, fmt in self.columns]
         for i, (_, width, _) in enumerate(self.columns, 1):
@@ -66,7 +67,24 @@ class _Sheet:
             self.ws.print_title_rows = "1:1"
             self.append([name for name, _, _ in self.columns], header=True)
 
-    def cell(self, value: Any, fmt: str | None = None, header: bool = False) -> WriteOnlyCell:
+    def cell(self, value: Any, fmt: str | None = None, header: bool = False, column: int | None = None) -> Any:
+        """The cell for ``value``: the value itself when it needs no style and is safe as it is,
+        else a cell with its number format or string type (one per column, reused row by row:
+        a write-only sheet writes each row out as it is appended)."""
+        if column is not None and not header:
+            risky = is_risky(value) and not getattr(value, "is_formula", False)
+            styled = bool(fmt) and (not isinstance(value, str) or isinstance(value, Formula))
+            if not (risky or styled):
+                return value
+            c = self._reused.get((column, styled))
+            if c is None:
+                c = self._reused[(column, styled)] = WriteOnlyCell(self.ws)
+                if styled:
+                    c.number_format = fmt
+            c.value = value
+            if risky:
+                c.data_type = "s"  # user or supplier text: never a formula
+            return c
         c = WriteOnlyCell(self.ws, value=value)
         if is_risky(value) and not getattr(value, "is_formula", False):
             c.data_type = "s"  # user or supplier text: never a formula
@@ -79,7 +97,7 @@ class _Sheet:
         return c
 
     def append(self, values: list[Any], header: bool = False) -> int:
-        cells = [self.cell(v, self.formats[i] if i < len(self.formats) else None, header) for i, v in enumerate(values)]
+        cells = [self.cell(v, self.formats[i] if i < len(self.formats) else None, header, i) for i, v in enumerate(values)]
         self.ws.append(cells)
         self.rows += 1
         return self.rows
