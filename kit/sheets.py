@@ -13,6 +13,7 @@ leading ``'`` in a CSV (:mod:`kit.safe_text`); reading a CSV drops that ``'`` ag
 from __future__ import annotations
 
 import csv
+import re
 import zipfile
 from dataclasses import dataclass
 from pathlib import Path
@@ -26,6 +27,12 @@ from kit.safe_text import csv_field, from_csv_field, is_risky
 # and refused at the first row past the limit, so a huge sheet is never held whole in memory.
 MAX_ROWS = 100_000
 MAX_UNPACKED_BYTES = 512 * 1024 * 1024
+# openpyxl's read-only reader passes once over a sheet that lacks a dimension record and keeps a
+# small element per row, so the row elements of every sheet are counted (streamed) first.
+ROW_TAG = re.compile(rb"<(?:\w+:)?row[\s/>]")
+# openpyxl holds a workbook's shared-string table (the text of its cells) whole while the rows
+# stream past, so that one part has a tighter limit of its own.
+MAX_SHARED_STRINGS_BYTES = 64 * 1024 * 1024
 WORKBOOK = "an .xlsx workbook (Office Open XML spreadsheet)"
 
 
@@ -117,15 +124,40 @@ def _open_workbook(path: Path):
     try:
         with zipfile.ZipFile(path) as archive:
             unpacked = sum(info.file_size for info in archive.infolist())
+            strings = sum(info.file_size for info in archive.infolist() if info.filename.lower().endswith("sharedstrings.xml"))
+            for info in archive.infolist():
+                if info.filename.startswith("xl/worksheets/") and info.filename.endswith(".xml"):
+                    _count_rows(source, archive, info.filename)
     except (zipfile.BadZipFile, OSError) as exc:
         raise InputError(source, "file", WORKBOOK, got=str(exc)) from None
     if unpacked > MAX_UNPACKED_BYTES:
         raise InputError(source, "file", f"a workbook that unpacks to at most {MAX_UNPACKED_BYTES >> 20} MiB",
                          got=f"{unpacked >> 20} MiB")
+    if strings > MAX_SHARED_STRINGS_BYTES:
+        raise InputError(source, "file", f"cell text (shared strings) of at most {MAX_SHARED_STRINGS_BYTES >> 20} MiB unpacked",
+                         got=f"{strings / 2**20:.1f} MiB")
     try:
         return openpyxl.load_workbook(path, read_only=True, data_only=True)
     except (InvalidFileException, zipfile.BadZipFile, KeyError, OSError, ValueError) as exc:
         raise _refusal(source, exc) from None
+
+
+def _row_scan_limit() -> int:
+    return 2 * MAX_ROWS + 100  # the data rows, the header and room for blank rows
+
+
+def _count_rows(source: str, archive: zipfile.ZipFile, part: str) -> None:
+    """Refuse a sheet with far more rows than :data:`MAX_ROWS`, reading its XML in chunks."""
+    limit = _row_scan_limit()
+    count, tail = 0, b""
+    with archive.open(part) as stream:
+        while chunk := stream.read(1 << 16):
+            data = tail + chunk
+            count += sum(1 for _ in ROW_TAG.finditer(data)) - sum(1 for _ in ROW_TAG.finditer(tail))
+            if count > limit:
+                raise InputError(f"{source}, {part}", "rows", f"at most {MAX_ROWS:,} data rows (and a few blank ones)",
+                                 got=f"more than {limit:,} rows")
+            tail = data[-16:]
 
 
 def _refusal(source: str, exc: BaseException) -> InputError:
