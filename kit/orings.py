@@ -28,6 +28,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 
 from kit.errors import OutOfSeriesError
 from kit.tables import load_table
@@ -71,8 +72,14 @@ def _glands() -> dict[float, tuple[float, float]]:
 
 def series_sizes(cross_section: float) -> list[float]:
     """ISO 3601-1 inside diameters made in ``cross_section`` [mm], ascending."""
-    return sorted(float(r["inside_diameter_mm"]) for r in load_table("iso3601_1_2012_o_ring_sizes.csv")
-                  if abs(float(r["cross_section_mm"]) - cross_section) < 1e-9)
+    return list(_series_sizes(cross_section))
+
+
+@lru_cache(maxsize=64)
+def _series_sizes(cross_section: float) -> tuple[float, ...]:
+    # Once per cross-section, not once per unit: a fleet asks for the same few sections.
+    return tuple(sorted(float(r["inside_diameter_mm"]) for r in load_table("iso3601_1_2012_o_ring_sizes.csv")
+                        if abs(float(r["cross_section_mm"]) - cross_section) < 1e-9))
 
 
 def _fit(bore: float, cs: float, inside: float, depth: float, width: float, cord: float | None = None) -> ORingFit:
