@@ -18,7 +18,6 @@ The columns a sheet uses to name a part (catalogue rows, see :data:`PART_COLUMNS
 
 from __future__ import annotations
 
-import re
 from typing import Iterable
 
 from sqlalchemy import select
@@ -54,37 +53,18 @@ def part_ids(conn: Connection) -> dict[str, int]:
     return dict(conn.execute(select(PARTS.c.key, PARTS.c.id)).all())
 
 
-# "280 mm", "11.5 in": a plain decimal and a unit word, the way nearly every catalogue cell reads.
-_PLAIN_LENGTH = re.compile(r"(0|[1-9][0-9]{0,8})(\.[0-9]{1,9})? ?([A-Za-z]{1,12})")
-
-
 class KeyReader:
     """Builds part keys from sheet rows, parsing each distinct length string once.
 
-    A plain ``"<decimal> <unit>"`` is worked out as the decimal times the unit's factor to metres,
-    the factor asked of pint once per unit word: pint converts ``Quantity(x, unit)`` by that same
-    multiplication, so the value is the same float and a catalogue of 100,000 rows with thousands
-    of distinct sizes is not thousands of pint parses. Anything else goes to pint whole.
+    :func:`kit.units.to_si` works a length out as its number times the unit's factor (pint is
+    asked once per unit word), and each distinct text is worked out once per import.
     """
 
     def __init__(self, table: Table):
         self.table = table
         self._mm: dict[object, float | str] = {}
-        self._factor: dict[str, float | None] = {}
-
-    def _unit_factor(self, unit: str) -> float | None:
-        if unit not in self._factor:
-            try:
-                self._factor[unit] = to_si(f"1 {unit}", "length", source="", field="")
-            except InputError:
-                self._factor[unit] = None  # not a length: the whole text goes to pint for its error
-        return self._factor[unit]
 
     def _parse_mm(self, text: object) -> float:
-        plain = _PLAIN_LENGTH.fullmatch(text) if isinstance(text, str) else None
-        factor = plain and self._unit_factor(plain[3])
-        if factor:
-            return float(plain[1] + (plain[2] or "")) * factor * 1000.0
         return to_si(text, "length", source="", field="") * 1000.0
 
     def _length_mm(self, row: Row, column: str) -> float:

@@ -12,11 +12,7 @@ import math
 import re
 from functools import lru_cache
 
-import pint
-
 from kit.errors import InputError
-
-ureg = pint.UnitRegistry()
 
 # What each kind of field is measured in, as a pint dimensionality and its SI unit.
 KINDS: dict[str, tuple[str, str]] = {
@@ -58,35 +54,92 @@ def looks_like_quantity(text: str) -> bool:
     return len(text) <= MAX_TEXT and _QUANTITY.fullmatch(text) is not None
 
 
-@lru_cache(maxsize=4096)
-def _parse(text: str) -> pint.Quantity:
-    return ureg.Quantity(text)
+# Factors to SI of the unit words particulars, policies and sheets use most, as pint computes
+# them (tests/test_units.py checks every one against pint). With them a file in these units is
+# read without importing pint at all; any other unit goes to pint, once per unit word.
+COMMON_FACTORS: dict[str, dict[str, float]] = {
+    "length": {"mm": 0.001, "m": 1.0, "cm": 0.01, "in": 0.0254, "inch": 0.0254, "ft": 0.30479999999999996},
+    "pressure": {"bar": 100000.0, "Pa": 1.0, "kPa": 1000.0, "MPa": 1000000.0, "psi": 6894.7572931683635},
+    "flow": {"L/min": 1.666666666666667e-05, "l/min": 1.666666666666667e-05, "L/h": 2.7777777777777787e-07,
+             "L/day": 1.1574074074074076e-08, "l/day": 1.1574074074074076e-08, "gal/min": 6.309019639999999e-05,
+             "gal/day": 4.381263638888888e-08, "m**3/h": 0.0002777777777777778, "m^3/h": 0.0002777777777777778},
+    "volume": {"L": 0.0010000000000000002, "l": 0.0010000000000000002, "litre": 0.0010000000000000002,
+               "liter": 0.0010000000000000002, "gal": 0.0037854117839999993, "m**3": 1.0, "m^3": 1.0},
+    "time": {"s": 1.0, "min": 60.0, "h": 3600.0, "hour": 3600.0, "hours": 3600.0, "d": 86400.0, "day": 86400.0,
+             "days": 86400.0, "week": 604800.0, "weeks": 604800.0, "month": 2629800.0, "months": 2629800.0,
+             "year": 31557600.0, "years": 31557600.0},
+    "angle": {"deg": 0.017453292519943295, "degree": 0.017453292519943295, "degrees": 0.017453292519943295, "rad": 1.0},
+    "mass": {"kg": 1.0, "t": 1000.0},
+    "voltage": {"V": 1.0},
+}
+
+# "<number> <unit words>": the number, then the unit as written.
+_NUMBER_UNIT = re.compile(r"([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d{1,3})?)\s*(\S.*?)")
+
+
+@lru_cache(maxsize=1)
+def registry():
+    """The package's one pint registry, made on first use (pint is slow to import and to set up)."""
+    import pint
+
+    return pint.UnitRegistry()
+
+
+@lru_cache(maxsize=512)
+def _factor(unit: str, kind: str) -> float | None:
+    """SI value of one ``unit`` of ``kind``, or None when ``unit`` is not of that kind."""
+    common = COMMON_FACTORS[kind].get(unit)
+    if common is not None:
+        return common
+    try:
+        return _pint_si(f"1 {unit}", kind)
+    except _NotOfKind:
+        return None
+
+
+class _NotOfKind(Exception):
+    pass
+
+
+def _pint_si(text: str, kind: str) -> float:
+    """``text`` parsed by pint and converted to the SI unit of ``kind``; _NotOfKind if it is not one."""
+    import pint
+
+    ureg = registry()
+    try:
+        q = ureg.Quantity(text)
+        if not isinstance(q, pint.Quantity):
+            raise _NotOfKind
+        _, si = KINDS[kind]
+        if kind == "angle":
+            if q.dimensionless and str(q.units) not in ("degree", "radian", "arcminute"):
+                raise _NotOfKind
+        elif q.unitless or q.dimensionality != ureg.Quantity(1, si).dimensionality:
+            raise _NotOfKind
+        return float(q.to(si).magnitude)
+    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError, KeyError, OverflowError):
+        raise _NotOfKind from None
 
 
 def to_si(value: object, kind: str, *, source: str, field: str) -> float:
     """Parse ``value`` (a string with a unit) as a quantity of ``kind`` and return it in SI.
 
+    The number times the unit's factor (asked of pint once per unit word, or taken from
+    :data:`COMMON_FACTORS`): pint converts a plain quantity by that same multiplication.
     Raises :class:`~kit.errors.InputError` naming ``source`` and ``field`` when the value is not a
     string, carries no unit, has a unit of another kind, or is not a finite number.
     """
     want = f"a {kind} with a unit, e.g. {EXAMPLES[kind]}"
     if isinstance(value, bool) or not isinstance(value, str) or not looks_like_quantity(value.strip()):
         raise InputError(source, field, want, got=repr(value if len(str(value)) <= MAX_TEXT else str(value)[:MAX_TEXT] + "..."))
-    try:
-        q = _parse(value.strip())
-    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError, KeyError, OverflowError):
-        raise InputError(source, field, want, got=repr(value)) from None
-    if not isinstance(q, pint.Quantity):
-        raise InputError(source, field, want, got=repr(value))
-    dim, si = KINDS[kind]
-    if kind == "angle":
-        if q.dimensionless and str(q.units) not in ("degree", "radian", "arcminute"):
-            raise InputError(source, field, want, got=repr(value))
-    elif q.unitless or q.dimensionality != ureg.Quantity(1, si).dimensionality:
+    text = value.strip()
+    plain = _NUMBER_UNIT.fullmatch(text)
+    factor = _factor(plain[2], kind) if plain else None
+    if factor is None:
         raise InputError(source, field, want, got=repr(value))
     try:
-        magnitude = float(q.to(si).magnitude)
-    except (pint.errors.PintError, TypeError, ValueError, OverflowError):
+        magnitude = float(plain[1]) * factor
+    except OverflowError:
         raise InputError(source, field, want, got=repr(value)) from None
     if not math.isfinite(magnitude):
         raise InputError(source, field, "a finite " + want.removeprefix("a "), got=repr(value))
@@ -95,4 +148,4 @@ def to_si(value: object, kind: str, *, source: str, field: str) -> float:
 
 def convert(value: float, from_unit: str, to_unit: str) -> float:
     """Convert a float between two units (used at the output edge)."""
-    return float(ureg.Quantity(value, from_unit).to(to_unit).magnitude)
+    return float(registry().Quantity(value, from_unit).to(to_unit).magnitude)

@@ -14,7 +14,7 @@ from kit.checks import check_unit
 from kit.errors import InputError
 from kit.seal_kit import build_seal_kit
 from kit.spares import load_policy
-from kit.units import convert, to_si
+from kit.units import COMMON_FACTORS, KINDS, convert, to_si
 
 UREG = pint.UnitRegistry()  # independent of kit.units.ureg: the reference the test checks against
 
@@ -86,3 +86,29 @@ def test_inch_psi_gallons_give_the_metric_results():
 
     assert oil.system_charge(v_i.units[0])[0] == pytest.approx(oil.system_charge(v_m.units[0])[0], rel=1e-9)
     assert oil.top_up(v_i.units[0].oil_leakage, 90) == pytest.approx(0.045, rel=1e-9)
+
+
+@pytest.mark.parametrize("kind, unit", [(k, u) for k, units in COMMON_FACTORS.items() for u in units])
+def test_common_factors_agree_with_pint(kind, unit):
+    # pint (the reference library) converts one of the unit to the kind's SI unit
+    si = KINDS[kind][1]
+    assert COMMON_FACTORS[kind][unit] == pytest.approx(UREG.Quantity(f"1 {unit}").to(si).magnitude, rel=1e-12)
+
+
+def test_plain_numbers_times_the_factor_match_pint():
+    for text, kind in [("3.38 mm", "length"), ("2400 psi", "pressure"), ("45 gal/min", "flow"), ("0.5 L/day", "flow"),
+                       ("6 months", "time"), ("13 in", "length"), ("35 deg", "angle"), ("7.25 ft", "length")]:
+        si = KINDS[kind][1]
+        assert to_si(text, kind, source="t", field="f") == pytest.approx(UREG.Quantity(text).to(si).magnitude, rel=1e-15)
+
+
+def test_reading_a_demo_file_in_common_units_does_not_import_pint():
+    import subprocess
+    import sys
+    from pathlib import Path
+
+    demo = Path(__file__).resolve().parents[1] / "demo_fleet" / "corvina_bay.toml"
+    code = ("import sys; from kit.particulars import load_vessel; load_vessel(sys.argv[1]); "
+            "print('pint' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code, str(demo)], capture_output=True, text=True, check=True)
+    assert out.stdout.strip() == "False"
