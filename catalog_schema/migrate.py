@@ -12,10 +12,7 @@ from __future__ import annotations
 from functools import lru_cache
 from pathlib import Path
 
-from alembic import command
-from alembic.config import Config
-from alembic.runtime.migration import MigrationContext
-from alembic.script import ScriptDirectory
+from sqlalchemy import inspect, text
 from sqlalchemy.engine import Engine
 from sqlalchemy.exc import OperationalError
 
@@ -24,8 +21,15 @@ from catalog_schema.errors import SchemaVersionError
 
 MIGRATIONS = Path(__file__).parent / "migrations"
 
+# The newest revision in migrations/, kept here so that an everyday command checks the schema with
+# one query and without importing alembic; tests/test_db_schema.py checks it against alembic's head.
+HEAD = "0003"
+VERSION_TABLE = "alembic_version"
 
-def _config() -> Config:
+
+def _config():
+    from alembic.config import Config
+
     cfg = Config()
     cfg.set_main_option("script_location", str(MIGRATIONS))
     return cfg
@@ -33,7 +37,9 @@ def _config() -> Config:
 
 @lru_cache(maxsize=1)
 def head() -> str:
-    """The newest revision this kit knows."""
+    """The newest revision this kit knows, as alembic reads it from ``migrations/``."""
+    from alembic.script import ScriptDirectory
+
     return ScriptDirectory.from_config(_config()).get_current_head()
 
 
@@ -41,11 +47,15 @@ def current(engine: Engine) -> str | None:
     """The database's revision, or None for a database kit has never built."""
     connect_check(engine)
     with engine.connect() as conn:
-        return MigrationContext.configure(conn).get_current_revision()
+        if not inspect(conn).has_table(VERSION_TABLE):
+            return None
+        return conn.execute(text(f"SELECT version_num FROM {VERSION_TABLE}")).scalar()
 
 
 def upgrade(engine: Engine, revision: str = "head") -> tuple[str | None, str]:
     """Bring the database to ``revision``; return (revision before, revision after)."""
+    from alembic import command
+
     before = current(engine)
     cfg = _config()
     with engine.begin() as conn:
@@ -62,6 +72,6 @@ def require_current(engine: Engine) -> None:
         raise SchemaVersionError(shown(str(engine.url)), "cannot read its schema revision", str(exc.orig)) from None
     if found is None:
         upgrade(engine)
-    elif found != head():
-        raise SchemaVersionError(shown(str(engine.url)), f"schema is at revision {found}, this kit needs {head()}",
+    elif found != HEAD:
+        raise SchemaVersionError(shown(str(engine.url)), f"schema is at revision {found}, this kit needs {HEAD}",
                                  "run: kit db upgrade")

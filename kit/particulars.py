@@ -11,6 +11,7 @@ All values in the dataclasses are SI floats: m, Pa, m^3/s, m^3, s, rad.
 from __future__ import annotations
 
 import math
+import re
 import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -32,6 +33,8 @@ MAX_RUDDER_ANGLE_RAD = math.radians(70)
 MAX_GROSS_TONNAGE = 1_000_000
 MAX_COUNT = 1000  # rams, cylinders, pumps, elements, coils, hoses: past this, a typing error
 MAX_TEXT = 200
+
+_CONTROL = re.compile(r"[\x00-\x1f\x7f]")
 
 
 @dataclass(frozen=True)
@@ -191,7 +194,7 @@ class _Reader:
             return value
         if not isinstance(value, str) or not value.strip():
             raise InputError(self.source, self._name(key), "a non-empty string", got=repr(value))
-        if len(value) > MAX_TEXT or any(ord(ch) < 32 or ord(ch) == 127 for ch in value):
+        if len(value) > MAX_TEXT or _CONTROL.search(value):
             # A NUL cannot be stored in PostgreSQL text; a newline or tab would break the one-line reports.
             raise InputError(self.source, self._name(key), f"one line of at most {MAX_TEXT} characters, no control characters",
                              got=repr(value[:40] + ("..." if len(value) > 40 else "")))

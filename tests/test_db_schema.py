@@ -146,3 +146,10 @@ def test_check_constraints_are_in_the_database_as_named_in_the_tables(engine):
     for table in SQLModel.metadata.sorted_tables:
         declared = {c.name for c in table.constraints if isinstance(c, CheckConstraint)}
         assert {c["name"] for c in found.get_check_constraints(table.name)} == declared, table.name
+
+
+def test_head_constant_is_alembics_head():
+    # the one-query schema check compares with HEAD; alembic's own reading of migrations/ must agree
+    from catalog_schema.migrate import HEAD
+
+    assert HEAD == head()

@@ -27,12 +27,13 @@ def load(engine, path: str) -> None:
     from catalog_schema.engine import write_transaction
     from kit.fleet_store import save_vessels
     from kit.particulars import load_folder, load_vessel
-    from kit.particulars_sheet import load_particulars_sheet
 
     target = Path(path)
     if target.is_dir():
         vessels = load_folder(target)
     elif target.suffix.lower() == ".xlsx":
+        from kit.particulars_sheet import load_particulars_sheet
+
         vessels = [load_particulars_sheet(target)]
     else:
         vessels = [load_vessel(target)]
