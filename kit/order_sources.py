@@ -34,6 +34,9 @@ def stock_on_board(conn: Connection, vessel_ids: Iterable[str]) -> dict[tuple[st
     return {(v, k): float(q) for v, k, q in conn.execute(query)}
 
 
+KEYS_PER_QUERY = 500
+
+
 def _rank(entry: CatalogueMatch) -> tuple:
     per_piece = entry.price / entry.pack_quantity if entry.price is not None else float("inf")
     lead = entry.lead_time_days if entry.lead_time_days is not None else 10**6
@@ -46,12 +49,15 @@ def catalogue_offers(conn: Connection, keys: Iterable[str] | None = None) -> dic
                     ENTRIES.c.currency, ENTRIES.c.lead_time_days)
              .join(PARTS, PARTS.c.id == ENTRIES.c.part_id)
              .join(SUPPLIERS, SUPPLIERS.c.id == ENTRIES.c.supplier_id))
-    wanted = set(keys) if keys is not None else None
+    if keys is None:
+        batches = [query]
+    else:  # only the parts asked for, a bounded number of keys a statement (SQLite's parameter limit)
+        wanted = sorted(set(keys))
+        batches = [query.where(PARTS.c.key.in_(wanted[i:i + KEYS_PER_QUERY])) for i in range(0, len(wanted), KEYS_PER_QUERY)]
     best: dict[str, CatalogueMatch] = {}
-    for key, supplier, ref, pack, price, currency, lead in conn.execute(query):
-        if wanted is not None and key not in wanted:
-            continue
-        entry = CatalogueMatch(supplier, ref, float(pack), None if price is None else float(price), currency, lead)
-        if key not in best or _rank(entry) < _rank(best[key]):
-            best[key] = entry
+    for batch in batches:
+        for key, supplier, ref, pack, price, currency, lead in conn.execute(batch):
+            entry = CatalogueMatch(supplier, ref, float(pack), None if price is None else float(price), currency, lead)
+            if key not in best or _rank(entry) < _rank(best[key]):
+                best[key] = entry
     return best

@@ -80,12 +80,21 @@ def policy_in_force(conn: Connection, vessel_id: str, on: dt.date) -> PolicyInFo
 def policies_in_force(conn: Connection, vessel_ids: list[str], on: dt.date) -> dict[str, Policy]:
     """Each vessel's spares policy on date ``on``: its own, else its company's, else kit's default.
 
-    Vessels under the same stored policy share one :class:`Policy` object.
+    Two queries for any number of vessels (the vessels' companies, and every policy in force by
+    ``on``), the same choice as :func:`policy_in_force` makes one vessel at a time. Vessels under
+    the same stored policy share one :class:`Policy` object.
     """
+    ids = list(vessel_ids)
+    company_of = dict(conn.execute(select(VESSELS.c.id, VESSELS.c.company_id).where(VESSELS.c.id.in_(ids))).all()) if ids else {}
+    latest: dict[tuple[str, object], PolicyInForce] = {}
+    rows = conn.execute(select(POLICIES).where(POLICIES.c.in_force_from <= on).order_by(POLICIES.c.in_force_from))
+    for row in rows:  # ascending, so the last one seen per scope is the one in force
+        scope = ("vessel", row.vessel_id) if row.vessel_id is not None else ("company", row.company_id)
+        latest[scope] = PolicyInForce(scope[0], row.name, row.cover_days, row.in_force_from, row.note, row.content)
     built: dict[tuple, Policy] = {}
     out = {}
-    for vessel_id in vessel_ids:
-        found = policy_in_force(conn, vessel_id, on)
+    for vessel_id in ids:
+        found = latest.get(("vessel", vessel_id)) or latest.get(("company", company_of.get(vessel_id)))
         key = None if found is None else (found.scope, found.name, found.in_force_from, found.content)
         if key not in built:
             built[key] = policy_from_text(None) if found is None else found.policy()

@@ -70,8 +70,19 @@ def _clean(value: Any) -> Any:
     return value
 
 
+def _csv_cell(text: str) -> str | None:
+    """A CSV field as :func:`_clean` leaves a cell, with a formula-guarding quote dropped
+    (:func:`kit.safe_text.from_csv_field`); one pass, since a catalogue has millions of fields."""
+    text = text.strip()
+    if not text:
+        return None
+    return from_csv_field(text) if text[0] == "'" else text
+
+
 def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any]]], known: Sequence[str] | None,
-           required: Sequence[str], max_rows: int) -> Table:
+           required: Sequence[str], max_rows: int, clean: bool = False) -> Table:
+    """The rows below the header of ``lines``; ``clean`` says the cells are already stripped,
+    with empty text as None (CSV fields are, see :func:`_csv_cell`)."""
     where = path if sheet is None else f"{path}, sheet {sheet}"
     it = iter(lines)
     header: list[str] = []
@@ -98,7 +109,7 @@ def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any
     rows: list[Row] = []
     width = len(header)
     for line, cells in it:
-        values = [_clean(c) for c in cells]
+        values = cells if clean else [_clean(c) for c in cells]
         if any(v is not None for v in values[width:]):
             raise InputError(f"{where}, {'line' if sheet is None else 'row'} {line}", "cells",
                              f"no values right of the last named column ({header[-1]})", got="a value there")
@@ -251,14 +262,14 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
             start = 1
             try:
                 for cells in reader:
-                    yield start, [from_csv_field(c) for c in cells]
+                    yield start, [_csv_cell(c) for c in cells]
                     start = reader.line_num + 1
             except csv.Error as exc:
                 raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None
             except UnicodeDecodeError:
                 raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
 
-        return _table(source, None, lines(), known, required, max_rows)
+        return _table(source, None, lines(), known, required, max_rows, clean=True)
 
 
 # --- writing -------------------------------------------------------------------------------

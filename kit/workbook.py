@@ -36,12 +36,15 @@ HEADER_FONT = Font(bold=True)
 HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
 WRAP = Alignment(wrap_text=True, vertical="top")
 
+# Number formats only where a formula's result or a price needs one; values kit rounds itself
+# (dimensions, torques, times) read as they are in General, and every styled cell costs time
+# in a 1,000-vessel workbook.
 ORDER_COLUMNS = (
-    ("No", 6, "0"), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
+    ("No", 6, None), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
     ("Required", 11, "#,##0.0"), ("On board", 11, "#,##0.0"), ("To order", 11, "#,##0.0"), ("UoM", 6, None),
-    ("Pack size", 10, "#,##0.##"), ("Packs", 8, "0"), ("Supplier", 18, None), ("Supplier part no", 18, None),
+    ("Pack size", 10, "#,##0.##"), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
     ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
-    ("Lead time [days]", 10, "0"), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
+    ("Lead time [days]", 10, None), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
 )
 COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS, 1)}
 
@@ -144,8 +147,8 @@ def _order_sheet(wb: Workbook, order: Order) -> dict[str, int]:
 
 
 def _split_sheet(wb: Workbook, order: Order) -> None:
-    sheet = _Sheet(wb, "Vessel split", (("No", 6, "0"), ("Designation", 60, None), ("Vessel", 20, None),
-                                         ("Required", 11, "#,##0.0"), ("UoM", 6, None)))
+    sheet = _Sheet(wb, "Vessel split", (("No", 6, None), ("Designation", 60, None), ("Vessel", 20, None),
+                                         ("Required", 11, None), ("UoM", 6, None)))
     for line in order.lines:
         for vessel, qty in line.split.items():
             sheet.append([line.number, line.designation, vessel, round(qty, 3), line.uom])
@@ -154,9 +157,9 @@ def _split_sheet(wb: Workbook, order: Order) -> None:
 
 def _seal_sheet(wb: Workbook, order: Order) -> None:
     cols = (("Vessel", 18, None), ("Unit", 10, None), ("Actuator", 11, None), ("Role", 8, None), ("Part", 40, None),
-            ("d [mm]", 9, "0.0#"), ("D [mm]", 9, "0.0#"), ("L [mm]", 9, "0.0#"), ("O-ring ID [mm]", 10, "0.0#"),
-            ("O-ring CS [mm]", 10, "0.00"), ("Strip t [mm]", 9, "0.0#"), ("Cut length [mm]", 11, "0.0"),
-            ("Qty per actuator", 10, "0"), ("Qty per unit", 9, "0"), ("Compound", 10, None), ("Standard", 22, None),
+            ("d [mm]", 9, None), ("D [mm]", 9, None), ("L [mm]", 9, None), ("O-ring ID [mm]", 10, None),
+            ("O-ring CS [mm]", 10, None), ("Strip t [mm]", 9, None), ("Cut length [mm]", 11, None),
+            ("Qty per actuator", 10, None), ("Qty per unit", 9, None), ("Compound", 10, None), ("Standard", 22, None),
             ("Dimensions from", 34, None))
     sheet = _Sheet(wb, "Seal kits", cols)
     for r in order.results:
@@ -175,7 +178,7 @@ def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) ->
     packages = sorted(order.packages, key=lambda p: -p.volume)
     cols = [("Fluid", 30, None), ("Required [L]", 12, "#,##0.0"), ("On board [L]", 12, "#,##0.0"),
             ("To order [L]", 12, "#,##0.0"), ("To order [kg]", 12, "#,##0.0"), ("To order [US gal]", 12, "#,##0.0")]
-    cols += [(f"{p.name} {p.volume * L_PER_M3:g} L", 11, "0") for p in packages] + [("Supply [L]", 12, "#,##0.0")]
+    cols += [(f"{p.name} {p.volume * L_PER_M3:g} L", 11, None) for p in packages] + [("Supply [L]", 12, "#,##0.0")]
     sheet = _Sheet(wb, "Oil and filters", cols)
     smallest = packages[-1].volume * L_PER_M3 if packages else 1.0
     for oil in order.oil:
@@ -203,8 +206,8 @@ def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) ->
         sheet.append(row)
     sheet.finish()
     filters = _Sheet(wb, "Filter elements", (("Vessel", 18, None), ("Unit", 10, None), ("Position", 12, None),
-                                             ("Element", 20, None), ("Elements per change", 10, "0"), ("Changes due", 10, "0"),
-                                             ("Spare sets", 10, "0"), ("Elements", 10, "0")))
+                                             ("Element", 20, None), ("Elements per change", 10, None), ("Changes due", 10, None),
+                                             ("Spare sets", 10, None), ("Elements", 10, None)))
     for r in order.results:
         for u in r.units:
             for f in u.filters:
@@ -215,11 +218,11 @@ def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) ->
 
 def _checks_sheet(wb: Workbook, order: Order) -> None:
     cols = (("Vessel", 18, None), ("Ship type", 10, None), ("Unit", 10, None), ("Service", 11, None), ("Actuator", 11, None),
-            ("Torque midships [kNm]", 12, "#,##0.0"), ("Torque at max angle [kNm]", 12, "#,##0.0"),
-            ("Swing 35-30 one pump [s]", 11, "0.0"), ("Swing 35-30 all pumps [s]", 11, "0.0"),
-            ("Swing judged [s]", 10, "0.0"), ("Judged on", 40, None), ("Limit [s]", 8, "0"), ("28 s rule", 9, None),
-            ("Travel [mm]", 10, "0"), ("Stroke [mm]", 10, "0"), ("Travel within stroke", 10, None),
-            ("Working pressure [bar]", 11, "0.0"), ("Pressure within ratings", 10, None), ("Warnings", 80, None))
+            ("Torque midships [kNm]", 12, None), ("Torque at max angle [kNm]", 12, None),
+            ("Swing 35-30 one pump [s]", 11, None), ("Swing 35-30 all pumps [s]", 11, None),
+            ("Swing judged [s]", 10, None), ("Judged on", 40, None), ("Limit [s]", 8, None), ("28 s rule", 9, None),
+            ("Travel [mm]", 10, None), ("Stroke [mm]", 10, None), ("Travel within stroke", 10, None),
+            ("Working pressure [bar]", 11, None), ("Pressure within ratings", 10, None), ("Warnings", 80, None))
     sheet = _Sheet(wb, "Gear checks", cols)
     yes = {True: "yes", False: "NO", None: None}
     for r in order.results:
