@@ -134,19 +134,20 @@ def _open_workbook(path: Path):
         raise InputError(source, "file", WORKBOOK, got="a file that is not one")
     try:
         with zipfile.ZipFile(path) as archive:
+            # sizes first, from the archive's directory, before anything is decompressed
             unpacked = sum(info.file_size for info in archive.infolist())
             strings = sum(info.file_size for info in archive.infolist() if info.filename.lower().endswith("sharedstrings.xml"))
+            if unpacked > MAX_UNPACKED_BYTES:
+                raise InputError(source, "file", f"a workbook that unpacks to at most {MAX_UNPACKED_BYTES >> 20} MiB",
+                                 got=f"{unpacked >> 20} MiB")
+            if strings > MAX_SHARED_STRINGS_BYTES:
+                raise InputError(source, "file", f"cell text (shared strings) of at most {MAX_SHARED_STRINGS_BYTES >> 20} MiB unpacked",
+                                 got=f"{strings / 2**20:.1f} MiB")
             for info in archive.infolist():
                 if info.filename.startswith("xl/worksheets/") and info.filename.endswith(".xml"):
                     _count_rows(source, archive, info.filename)
     except (zipfile.BadZipFile, OSError) as exc:
         raise InputError(source, "file", WORKBOOK, got=str(exc)) from None
-    if unpacked > MAX_UNPACKED_BYTES:
-        raise InputError(source, "file", f"a workbook that unpacks to at most {MAX_UNPACKED_BYTES >> 20} MiB",
-                         got=f"{unpacked >> 20} MiB")
-    if strings > MAX_SHARED_STRINGS_BYTES:
-        raise InputError(source, "file", f"cell text (shared strings) of at most {MAX_SHARED_STRINGS_BYTES >> 20} MiB unpacked",
-                         got=f"{strings / 2**20:.1f} MiB")
     try:
         return openpyxl.load_workbook(path, read_only=True, data_only=True)
     except (InvalidFileException, zipfile.BadZipFile, KeyError, OSError, ValueError) as exc:
