@@ -36,13 +36,13 @@ HEADER_FONT = Font(bold=True)
 HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
 WRAP = Alignment(wrap_text=True, vertical="top")
 
-# Number formats only where a formula's result or a price needs one; values kit rounds itself
-# (dimensions, torques, times) read as they are in General, and every styled cell costs time
-# in a 1,000-vessel workbook.
+# Number formats only on money, which a purchaser reads to the cent; quantities kit rounds itself
+# (and the formulas over them) read as they are in General. A styled cell costs several times a
+# plain one to write: in a 1,000-vessel order the quantity formats alone took about 0.5 s.
 ORDER_COLUMNS = (
     ("No", 6, None), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
-    ("Required", 11, "#,##0.0"), ("On board", 11, "#,##0.0"), ("To order", 11, "#,##0.0"), ("UoM", 6, None),
-    ("Pack size", 10, "#,##0.##"), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
+    ("Required", 11, None), ("On board", 11, None), ("To order", 11, None), ("UoM", 6, None),
+    ("Pack size", 10, None), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
     ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
     ("Lead time [days]", 10, None), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
 )
