@@ -30,6 +30,7 @@ MAX_HOUSING_BORE_M = 6.0
 MAX_STROKE_M = 5.0
 MAX_PRESSURE_PA = 700e5
 MAX_RUDDER_ANGLE_RAD = math.radians(70)
+MIN_PUMP_FLOW_M3_S = 0.1e-3 / 60  # 0.1 L/min: below it a figure is a typing error, and a swing time unbounded
 MAX_GROSS_TONNAGE = 1_000_000
 MAX_COUNT = 1000  # rams, cylinders, pumps, elements, coils, hoses: past this, a typing error
 MAX_TEXT = 200
@@ -224,7 +225,8 @@ class _Reader:
         return float(value)
 
     def quantity(self, key: str, kind: str, default: Any = ..., *, positive: bool = True,
-                 maximum: float | None = None, max_text: str = "") -> float:
+                 maximum: float | None = None, max_text: str = "", minimum: float | None = None,
+                 min_text: str = "") -> float:
         value = self.raw(key, default)
         if value is default and default is not ...:
             return value
@@ -235,6 +237,8 @@ class _Reader:
             raise InputError(self.source, self._name(key), f"a {kind} of zero or more", got=repr(value))
         if maximum is not None and si > maximum:
             raise InputError(self.source, self._name(key), f"a {kind} of at most {max_text}", got=repr(value))
+        if minimum is not None and si < minimum:
+            raise InputError(self.source, self._name(key), f"a {kind} of at least {min_text}", got=repr(value))
         return si
 
     def boolean(self, key: str, default: bool) -> bool:
@@ -319,7 +323,7 @@ def _unit(r: _Reader) -> Unit:
         working_pressure=r.quantity("working_pressure", "pressure", maximum=MAX_PRESSURE_PA, max_text="700 bar"),
         fluid=fluid,
         pumps=r.integer("pumps", minimum=1),
-        pump_flow=r.quantity("pump_flow", "flow"),
+        pump_flow=r.quantity("pump_flow", "flow", minimum=MIN_PUMP_FLOW_M3_S, min_text="0.1 L/min"),
         reservoir=r.quantity("reservoir", "volume"),
         system_oil=r.quantity("system_oil", "volume", None),
         oil_leakage=r.quantity("oil_leakage", "flow", None, positive=False),

@@ -126,3 +126,12 @@ def test_demo_files_parse_as_plain_toml():
     # every demo file is plain TOML (tomllib, Python standard library)
     for f in DEMO.glob("*.toml"):
         assert "vessel" in tomllib.loads(f.read_text(encoding="utf-8"))
+
+
+def test_pump_flow_below_a_tenth_of_a_litre_a_minute_is_refused():
+    # a hypothesis case: a flow of 2.2e-311 L/min made the swing time infinite
+    with pytest.raises(InputError) as err:
+        vessel_from_dict(with_unit(pump_flow="2.225073858507e-311 L/min"), "tiny.toml")
+    assert err.value.field == "unit[0].pump_flow"
+    with pytest.raises(InputError, match=r"unit\[0\]\.pump_flow: expected a flow of at least 0\.1 L/min"):
+        vessel_from_dict(with_unit(pump_flow="0.05 L/min"), "slow.toml")
