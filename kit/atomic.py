@@ -86,7 +86,7 @@ def _refuse_quietly(path: Path, step: Callable[[], object], write: Callable[[Pat
             failure = exc.strerror or str(exc)
             sys.unraisablehook = _drop
             _close_unsaved_sheets(write)
-        gc.collect()  # the failed writer's leftovers, while they are still dropped
+            gc.collect()  # the failed writer's leftovers, while they are still dropped
     finally:
         sys.unraisablehook = hook
     if failure is not None:
