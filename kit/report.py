@@ -46,7 +46,7 @@ def seal_json(line: SealLine, kit: SealKit, vane_geometry: tuple[float, float] |
     return out
 
 
-def unit_json(u: UnitResult, density: float) -> dict[str, Any]:
+def unit_json(u: UnitResult) -> dict[str, Any]:
     c = u.checks
     g = u.unit.geometry
     vane = (mm(g.hub_diameter), mm(g.housing_bore)) if u.unit.actuator == "rotary_vane" else None
@@ -75,7 +75,7 @@ def unit_json(u: UnitResult, density: float) -> dict[str, Any]:
 
 def vessel_json(r: VesselResult) -> dict[str, Any]:
     v = r.vessel
-    units = [unit_json(u, density_kg_per_l(u.unit.fluid.category)) for u in r.units]
+    units = [unit_json(u) for u in r.units]
     oil = []
     for fluid, plan in r.oil_plans.items():
         need_l = plan.need * L_PER_M3

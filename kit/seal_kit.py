@@ -62,16 +62,13 @@ def _housing(unit: Unit, role: str, build, nominal_mm: float, kit: SealKit) -> H
             t = (D - d) / 2
             extra = {"t": t, "cut": round(housings.guide_cut_length(d + t), 1)}
         return Housing(role, d, D, L, "maker's drawing", DRAWING, extra, "rod" if role == "guide" else "")
+    return _from_series(build, nominal_mm, kit, f"{role} housing")
+
+
+def _from_series(build, nominal_mm: float, kit: SealKit, what: str):
+    """``build(nominal_mm)``, or None with a warning when the size lies outside the series."""
     try:
         return build(nominal_mm)
-    except OutOfSeriesError as exc:
-        kit.warnings.append(f"{role} housing: {exc}; take its dimensions from the maker's drawing")
-        return None
-
-
-def _static(nominal_mm: float, kit: SealKit, what: str) -> orings.ORingFit | None:
-    try:
-        return orings.static_oring(nominal_mm)
     except OutOfSeriesError as exc:
         kit.warnings.append(f"{what}: {exc}; take its dimensions from the maker's drawing")
         return None
@@ -111,9 +108,9 @@ def build_seal_kit(unit: Unit, housing_length: str = "medium", stated_compound: 
         add("rod", "ram gland rod seal", 1, rod_h, dyn.compound)
         wiper_h = _housing(unit, "wiper", housings.wiper_housing, d, kit)
         add("wiper", "ram gland wiper", 1, wiper_h, dyn.compound)
-        add("guide", "ram gland guide ring", 2, _housing(unit, "guide", lambda x: housings.guide_housing(x, "rod"), d, kit), guide_compound)
+        add("guide", "ram gland guide ring", 2, _guide(unit, d, "rod", kit), guide_compound)
         spigot = _next_bore_above(max(h.D for h in (rod_h, wiper_h) if h) if (rod_h or wiper_h) else d)
-        fit = _static(spigot, kit, "gland O-ring")
+        fit = _from_series(orings.static_oring, spigot, kit, "gland O-ring")
         add("o-ring", f"gland spigot O-ring (assumed spigot {spigot:g} mm, next ISO 3320 bore above the gland housings)", 1, None, sta.compound, oring=fit)
     elif isinstance(g, CylinderGeometry):
         bore, rd = mm(g.bore), mm(g.rod)
@@ -126,32 +123,20 @@ def build_seal_kit(unit: Unit, housing_length: str = "medium", stated_compound: 
         add("rod", "rod seal", 1, _housing(unit, "rod", rod, rd, kit), dyn.compound)
         add("wiper", "wiper", 1, _housing(unit, "wiper", housings.wiper_housing, rd, kit), dyn.compound)
         add("guide", "rod guide ring", 1, _guide(unit, rd, "rod", kit), guide_compound)
-        add("o-ring", "end cover and gland O-ring", 2, None, sta.compound, oring=_static(bore, kit, "cover O-ring"))
+        add("o-ring", "end cover and gland O-ring", 2, None, sta.compound, oring=_from_series(orings.static_oring, bore, kit, "cover O-ring"))
     else:
         big_r, small_r = mm(g.housing_bore) / 2, mm(g.hub_diameter) / 2
         h = mm(g.vane_height)
         add("vane", "vane seal strip (moving and fixed vanes)", 2 * g.vanes, None, dyn.compound,
             strip_length_mm=round(h + 2 * (big_r - small_r), 1), strip_height_mm=h)
         add("o-ring", "cover O-ring (upper and lower cover)", 2, None, sta.compound,
-            oring=_static(mm(g.housing_bore), kit, "cover O-ring"))
+            oring=_from_series(orings.static_oring, mm(g.housing_bore), kit, "cover O-ring"))
         add("stock", "stock seal (upper and lower)", 2, _housing(unit, "stock", rod, mm(g.stock_diameter), kit), dyn.compound)
-        add("stock", "hub seal (upper and lower cover)", 2, _hub(unit, mm(g.hub_diameter), rod, kit), dyn.compound)
+        add("stock", "hub seal (upper and lower cover)", 2, _from_series(rod, mm(g.hub_diameter), kit, "hub seal housing"), dyn.compound)
     return kit
 
 
 def _guide(unit: Unit, nominal: float, side: str, kit: SealKit) -> Housing | None:
     if side == "rod":
         return _housing(unit, "guide", lambda x: housings.guide_housing(x, "rod"), nominal, kit)
-    try:
-        return housings.guide_housing(nominal, "piston")
-    except OutOfSeriesError as exc:
-        kit.warnings.append(f"piston guide housing: {exc}; take its dimensions from the maker's drawing")
-        return None
-
-
-def _hub(unit: Unit, hub_mm: float, build, kit: SealKit) -> Housing | None:
-    try:
-        return build(hub_mm)
-    except OutOfSeriesError as exc:
-        kit.warnings.append(f"hub seal housing: {exc}; take its dimensions from the maker's drawing")
-        return None
+    return _from_series(lambda x: housings.guide_housing(x, "piston"), nominal, kit, "piston guide housing")

@@ -15,12 +15,12 @@ from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
+from kit.housings import LENGTHS as HOUSING_LENGTHS
 from kit.oil import Package
 from kit.units import to_si
 
 PER = ("unit", "actuator", "actuator_size", "voltage", "valve_block", "hose_size", "pump_model")
 ITEM_KINDS = ("seal_set", "storage_oil", "solenoid_coil", "valve_seal_kit", "relief_cartridge", "hose", "pump_shaft_seal")
-HOUSING_LENGTHS = ("short", "medium", "long")
 DEFAULT_SOURCE = "kit default spares policy"
 
 
