@@ -18,19 +18,23 @@ The columns a sheet uses to name a part (catalogue rows, see :data:`PART_COLUMNS
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from typing import Iterable
 
-from sqlalchemy import select
+from sqlalchemy import select, update
 from sqlalchemy.engine import Connection
 
 from catalog_schema.sql import upsert
-from catalog_schema.tables import PartRow
+from catalog_schema.tables import CatalogueEntryRow, PartRow
 from kit.errors import InputError
 from kit.parts import PART_KINDS, LineItem, part_key
 from kit.sheets import Row, Table
 from kit.units import to_si
 
 PARTS = PartRow.__table__
+ENTRIES = CatalogueEntryRow.__table__
+# Keys per statement when matching catalogue entries (well inside SQLite's parameter limit).
+KEYS_PER_STATEMENT = 500
 DIMENSIONS = ("d", "D", "L", "t", "cut", "id", "cs", "length", "h")
 assert {n for _, names in PART_KINDS.values() for n in names} <= set(DIMENSIONS), "a part kind has a dimension with no column"
 PART_COLUMNS = ("part_key", "part_kind", *DIMENSIONS, "spec")
@@ -39,13 +43,30 @@ _INNER_OUTER = {"piston_seal": ("d", "D"), "rod_seal": ("d", "D"), "stock_seal":
                 "guide_ring": ("d", "D")}
 
 
-def register_parts(conn: Connection, items: Iterable[LineItem]) -> int:
-    """Add the generic part of every line item not yet in the database; return how many keys."""
+@dataclass(frozen=True)
+class Registered:
+    parts: int  # distinct part keys of the items (new or already there)
+    entries_matched: int  # catalogue entries that matched nothing before and match one of them now
+
+
+def register_parts(conn: Connection, items: Iterable[LineItem]) -> Registered:
+    """Add the generic part of every line item not yet in the database, and match to them the
+    catalogue entries imported before they were registered (kept with their key, see
+    :mod:`kit.catalogue_import`)."""
     rows = {i.key: {"key": i.key, "kind": i.kind, "designation": i.designation, "standard": i.standard or None}
             for i in items}
-    if rows:
-        conn.execute(upsert(conn, PARTS, ["key"]), sorted(rows.values(), key=lambda r: r["key"]))
-    return len(rows)
+    if not rows:
+        return Registered(0, 0)
+    keys = sorted(rows)
+    conn.execute(upsert(conn, PARTS, ["key"]), [rows[k] for k in keys])
+    part_id = select(PARTS.c.id).where(PARTS.c.key == ENTRIES.c.part_key).scalar_subquery()
+    matched = 0
+    for i in range(0, len(keys), KEYS_PER_STATEMENT):
+        batch = keys[i:i + KEYS_PER_STATEMENT]
+        done = conn.execute(update(ENTRIES).where(ENTRIES.c.part_id.is_(None), ENTRIES.c.part_key.in_(batch))
+                            .values(part_id=part_id))
+        matched += done.rowcount
+    return Registered(len(rows), matched)
 
 
 def part_ids(conn: Connection) -> dict[str, int]:

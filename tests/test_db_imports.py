@@ -78,6 +78,28 @@ def test_catalogue_rows_match_parts_by_their_dimensions(fleet, tmp_path):
     assert rows["RS-99"].part_id is None
 
 
+def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path):
+    # A catalogue is often imported before a new vessel's parts are registered: the entry that
+    # matched nothing then must be matched by the registration, not only by a second import.
+    later = part_key("rod_seal", {"d": 99.0, "D": 120.0, "L": 20.0}, "AU")
+    path = write_csv(tmp_path / "cat.csv", CATALOGUE_HEADER, [
+        ["RS-99", "rod_seal", "99 mm", "120 mm", "20 mm", "", "", "AU", 1, 50, "EUR", 7],
+        ["RS-11", "rod_seal", "11 in", "12 in", "25 mm", "", "", "AU", 1, "182.50", "EUR", 21],
+    ])
+    import_catalogue(fleet, path, "Test Seals")
+    import_catalogue(fleet, path, "Other Seals")
+    registered = write_transaction(fleet, lambda conn: register_parts(conn, [item(later, "rod_seal"), item(OIL, "oil")]))
+    assert (registered.parts, registered.entries_matched) == (2, 2)  # RS-99 of both suppliers; OIL has no entry
+    from kit.order_sources import catalogue_offers
+
+    with fleet.connect() as conn:
+        offers = catalogue_offers(conn, [later, ROD_SEAL])
+        unmatched = conn.execute(select(ENTRIES.c.supplier_ref).where(ENTRIES.c.part_id.is_(None))).all()
+    assert {k: (m.supplier, m.part_number) for k, m in offers.items()} == {later: ("Other Seals", "RS-99"),
+                                                                            ROD_SEAL: ("Other Seals", "RS-11")}
+    assert unmatched == []
+
+
 def test_reimport_replaces_the_suppliers_catalogue(fleet, tmp_path):
     first = write_csv(tmp_path / "a.csv", ["supplier_ref", "part_key", "currency"], [["A", OIL, "EUR"], ["B", O_RING, "EUR"]])
     second = write_csv(tmp_path / "b.csv", ["supplier_ref", "part_key", "currency"], [["B", O_RING, "USD"]])

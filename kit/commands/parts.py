@@ -34,8 +34,9 @@ def register(engine, vessel_ids: tuple[str, ...], policy_file: str | None) -> No
     vessels = load_fleet(engine, vessel_ids)
     policies = vessel_policies(engine, [v.id for v in vessels], policy_file)
     items = [line for r in assess_all(vessels, 0.0, policies) for line in r.lines]
-    count = write_transaction(engine, lambda conn: register_parts(conn, items))
-    click.echo(f"{count} generic part(s) for {len(vessels)} vessel(s) are in the database")
+    done = write_transaction(engine, lambda conn: register_parts(conn, items))
+    click.echo(f"{done.parts} generic part(s) for {len(vessels)} vessel(s) are in the database; "
+               f"{done.entries_matched} catalogue entr{'y' if done.entries_matched == 1 else 'ies'} matched one of them only now")
 
 
 @parts.command("list", epilog=SAFETY)
