@@ -135,9 +135,9 @@ def clear_supplier(db: str, supplier: str) -> None:
     from sqlalchemy import delete, select
 
     from catalog_schema.engine import make_engine, resolve_url
-    from catalog_schema.tables import CatalogueEntryRow, SupplierRow
+    from catalog_schema.core_tables import CATALOGUE_ENTRIES as entries
+    from catalog_schema.core_tables import SUPPLIERS as suppliers
 
-    entries, suppliers = CatalogueEntryRow.__table__, SupplierRow.__table__
     engine = make_engine(resolve_url(db))
     with engine.begin() as conn:
         ids = select(suppliers.c.id).where(suppliers.c.name == supplier).scalar_subquery()

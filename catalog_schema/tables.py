@@ -16,18 +16,9 @@ from typing import Optional
 from sqlalchemy import CheckConstraint, Column, ForeignKey, Integer, String, Text, UniqueConstraint
 from sqlmodel import Field, SQLModel
 
-# Named constraints, so migrations can find and change them on every engine.
-NAMING = {
-    "ix": "ix_%(column_0_label)s",
-    "uq": "uq_%(table_name)s_%(column_0_N_name)s",
-    "ck": "ck_%(table_name)s_%(constraint_name)s",
-    "fk": "fk_%(table_name)s_%(column_0_name)s_%(referred_table_name)s",
-    "pk": "pk_%(table_name)s",
-}
-SQLModel.metadata.naming_convention = NAMING
+from catalog_schema.conventions import DEFAULT_LOCATION, NAMING
 
-# The stock location of rows counted before locations were recorded (revision 0002).
-DEFAULT_LOCATION = "unassigned"
+SQLModel.metadata.naming_convention = NAMING
 
 
 def _unit_fk() -> Column:

@@ -29,7 +29,7 @@ from sqlalchemy.engine import Engine
 
 from catalog_schema.engine import write_transaction
 from catalog_schema.sql import upsert
-from catalog_schema.tables import CatalogueEntryRow, SupplierRow
+from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from kit.errors import InputError
 from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
 from kit.sheets import Row, Table, read_table
@@ -50,8 +50,7 @@ NOTES = {
     "price": "price per pack, a number", "currency": "ISO 4217 code, e.g. EUR",
     "lead_time_days": "whole days from order to dispatch",
 }
-ENTRIES = CatalogueEntryRow.__table__
-SUPPLIERS = SupplierRow.__table__
+ENTRIES = CATALOGUE_ENTRIES
 
 
 @dataclass

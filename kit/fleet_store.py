@@ -15,17 +15,17 @@ from sqlalchemy import bindparam, delete, insert, select, update
 from sqlalchemy.engine import Connection
 
 from catalog_schema.sql import upsert
-from catalog_schema.tables import (
-    ActuatorRow,
-    CompanyRow,
-    FilterPositionRow,
-    HoseRow,
-    PipeRow,
-    PowerUnitRow,
-    SolenoidCoilRow,
-    StatedHousingRow,
-    UnitRow,
-    VesselRow,
+from catalog_schema.core_tables import (
+    ACTUATORS,
+    COMPANIES,
+    FILTER_POSITIONS,
+    HOSES,
+    PIPES,
+    POWER_UNITS,
+    SOLENOID_COILS,
+    STATED_HOUSINGS,
+    UNITS,
+    VESSELS,
 )
 from kit.particulars import (
     CylinderGeometry,
@@ -41,28 +41,17 @@ from kit.particulars import (
     Vessel,
 )
 
-VESSELS = VesselRow.__table__
-COMPANIES = CompanyRow.__table__
-UNITS = UnitRow.__table__
-ACTUATORS = ActuatorRow.__table__
-POWER_UNITS = PowerUnitRow.__table__
-FILTERS = FilterPositionRow.__table__
-PIPES = PipeRow.__table__
-HOUSINGS = StatedHousingRow.__table__
-COILS = SolenoidCoilRow.__table__
-HOSES = HoseRow.__table__
-
 # Child tables of a unit: table -> (rows of a unit as dicts, a row back to its dataclass).
 _CHILDREN = {
-    "filters": (FILTERS, lambda u: [
+    "filters": (FILTER_POSITIONS, lambda u: [
         {"position": f.position, "elements": f.elements, "change_interval": f.change_interval,
          "duty_hours_per_day": f.duty_hours_per_day, "element_ref": f.element_ref} for f in u.filters],
         lambda r: FilterPosition(r.position, r.elements, r.change_interval, r.duty_hours_per_day, r.element_ref)),
     "pipes": (PIPES, lambda u: [{"outside_diameter": p.outside_diameter, "wall": p.wall, "length": p.length} for p in u.pipes],
               lambda r: Pipe(r.outside_diameter, r.wall, r.length)),
-    "housings": (HOUSINGS, lambda u: [{"role": h.role, "d_inner": h.d, "d_outer": h.D, "length": h.L} for h in u.housings],
+    "housings": (STATED_HOUSINGS, lambda u: [{"role": h.role, "d_inner": h.d, "d_outer": h.D, "length": h.L} for h in u.housings],
                  lambda r: StatedHousing(r.role, r.d_inner, r.d_outer, r.length)),
-    "solenoids": (COILS, lambda u: [{"voltage": s.voltage, "count": s.count} for s in u.solenoids],
+    "solenoids": (SOLENOID_COILS, lambda u: [{"voltage": s.voltage, "count": s.count} for s in u.solenoids],
                   lambda r: SolenoidCoils(r.voltage, r.count)),
     "hoses": (HOSES, lambda u: [{"bore": h.bore, "count": h.count} for h in u.hoses], lambda r: Hose(r.bore, r.count)),
 }

@@ -13,13 +13,10 @@ from typing import Iterable
 from sqlalchemy import func, select
 from sqlalchemy.engine import Connection
 
-from catalog_schema.tables import CatalogueEntryRow, PartRow, StockRow, SupplierRow
+from catalog_schema.core_tables import CATALOGUE_ENTRIES, PARTS, STOCK, SUPPLIERS
 from kit.bom import CatalogueMatch
 
-STOCK = StockRow.__table__
-PARTS = PartRow.__table__
-ENTRIES = CatalogueEntryRow.__table__
-SUPPLIERS = SupplierRow.__table__
+ENTRIES = CATALOGUE_ENTRIES
 
 
 def stock_on_board(conn: Connection, vessel_ids: Iterable[str]) -> dict[tuple[str, str], float]:

@@ -25,14 +25,13 @@ from sqlalchemy import select, update
 from sqlalchemy.engine import Connection
 
 from catalog_schema.sql import upsert
-from catalog_schema.tables import CatalogueEntryRow, PartRow
+from catalog_schema.core_tables import CATALOGUE_ENTRIES, PARTS
 from kit.errors import InputError
 from kit.parts import PART_KINDS, LineItem, part_key
 from kit.sheets import Row, Table
 from kit.units import to_si
 
-PARTS = PartRow.__table__
-ENTRIES = CatalogueEntryRow.__table__
+ENTRIES = CATALOGUE_ENTRIES
 # Keys per statement when matching catalogue entries (well inside SQLite's parameter limit).
 KEYS_PER_STATEMENT = 500
 DIMENSIONS = ("d", "D", "L", "t", "cut", "id", "cs", "length", "h")

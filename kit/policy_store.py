@@ -16,12 +16,12 @@ from sqlalchemy import select
 from sqlalchemy.engine import Connection
 
 from catalog_schema.sql import upsert
-from catalog_schema.tables import SparesPolicyRow
+from catalog_schema.core_tables import SPARES_POLICIES
 from kit.errors import InputError
 from kit.fleet_store import COMPANIES, VESSELS, company_id
 from kit.spares import Policy, policy_from_text
 
-POLICIES = SparesPolicyRow.__table__
+POLICIES = SPARES_POLICIES
 
 
 @dataclass(frozen=True)

@@ -28,7 +28,8 @@ from sqlalchemy.engine import Connection, Engine
 
 from catalog_schema.engine import write_transaction
 from catalog_schema.sql import upsert
-from catalog_schema.tables import DEFAULT_LOCATION, PartRow, StockRow, VesselRow
+from catalog_schema.conventions import DEFAULT_LOCATION
+from catalog_schema.core_tables import PARTS, STOCK, VESSELS
 from kit.catalogue_import import number
 from kit.errors import InputError
 from kit.sheets import Row, Sheet, Table, read_table
@@ -43,9 +44,6 @@ NOTES = {
     "quantity": "count mode: what is on board (>= 0); adjust mode: + received, - used",
     "counted_on": "date of the count, YYYY-MM-DD",
 }
-STOCK = StockRow.__table__
-PARTS = PartRow.__table__
-VESSELS = VesselRow.__table__
 
 
 @dataclass(frozen=True)

@@ -40,6 +40,25 @@ def test_kit_help_imports_no_database_or_spreadsheet_library():
     assert out.strip() == "[]"
 
 
+def test_everyday_database_commands_run_on_core_tables_without_sqlmodel(tmp_path):
+    # SQLModel brings pydantic and SQLAlchemy's ORM (about 0.2 s a process); the commands run Core
+    # statements on catalog_schema.core_tables, and only kit db upgrade needs the models.
+    toml = tmp_path / "v.toml"
+    toml.write_text(TOML_CYLINDER)
+    db = str(tmp_path / "fleet.sqlite")
+    catalogue = tmp_path / "c.csv"
+    catalogue.write_text("supplier_ref,part_key,currency\nA,oil:hm 46,EUR\n")
+    assert CliRunner().invoke(main, ["db", "upgrade", "--db", db]).exit_code == 0  # the migrations use the models
+    code = ("import sys; from click.testing import CliRunner; from kit.cli import main; r = CliRunner(); "
+            f"args = [['load', {str(toml)!r}], ['parts', 'register'], ['bom', '--out', {str(tmp_path / 'b.xlsx')!r}], "
+            "['check', 'TEST-ONE', '--days', '30'], ['policy', 'show', '--vessel', 'TEST-ONE'], "
+            f"['catalogue', 'import', {str(catalogue)!r}, '--supplier', 'S']]; "
+            f"codes = [r.invoke(main, [*a, '--db', {db!r}]).exit_code for a in args]; "
+            "print(codes, sorted(m for m in ('sqlmodel', 'pydantic', 'sqlalchemy.orm') if m in sys.modules))")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.strip() == "[0, 0, 0, 1, 0, 0] []"  # check: nothing on board, so short (exit 1)
+
+
 def test_where_the_database_is(monkeypatch, tmp_path):
     monkeypatch.delenv("KIT_DB", raising=False)
     monkeypatch.setenv("XDG_DATA_HOME", str(tmp_path))

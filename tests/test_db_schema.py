@@ -12,9 +12,11 @@ from alembic.runtime.migration import MigrationContext
 from sqlalchemy import MetaData, insert, text
 from sqlalchemy.exc import IntegrityError
 
+from catalog_schema import core_tables
 from catalog_schema.engine import make_engine
 from catalog_schema.errors import SchemaVersionError
 from catalog_schema.migrate import current, head, require_current, upgrade
+from catalog_schema.render_core import TARGET, render
 from catalog_schema.tables import DEFAULT_LOCATION, PartRow, SQLModel, StockRow, VesselRow
 from db_support import db_url, engine  # noqa: F401  (fixtures)
 from kit.policy_store import policy_in_force
@@ -24,9 +26,41 @@ def test_fresh_database_reaches_the_tables_schema(db_url):
     eng = make_engine(db_url)
     assert upgrade(eng) == (None, head())
     with eng.connect() as conn:
-        diff = compare_metadata(MigrationContext.configure(conn, opts={"compare_type": True}), SQLModel.metadata)
-    assert diff == []
+        for metadata in (SQLModel.metadata, core_tables.metadata):  # the commands' Core tables too
+            diff = compare_metadata(MigrationContext.configure(conn, opts={"compare_type": True}), metadata)
+            assert diff == []
     eng.dispose()
+
+
+def test_core_tables_are_rendered_from_the_current_sqlmodel_tables():
+    assert TARGET.read_text(encoding="utf-8") == render(SQLModel.metadata), "run: python -m catalog_schema.render_core"
+
+
+def _described(metadata: MetaData) -> dict:
+    """Everything about each table that a statement or the DDL depends on, as plain values."""
+    from sqlalchemy.dialects import postgresql, sqlite
+
+    def name(thing) -> str:
+        return str(thing.name)
+
+    out = {}
+    for table in metadata.sorted_tables:
+        out[table.name] = {
+            "columns": [(c.name, c.type.compile(dialect=sqlite.dialect()), c.type.compile(dialect=postgresql.dialect()),
+                         c.nullable, c.primary_key, c.autoincrement, None if c.default is None else c.default.arg,
+                         None if c.server_default is None else str(c.server_default.arg)) for c in table.columns],
+            "primary key": (name(table.primary_key), [c.name for c in table.primary_key.columns]),
+            "foreign keys": sorted((name(f), [c.name for c in f.columns], [e.target_fullname for e in f.elements], f.ondelete)
+                                   for f in table.foreign_key_constraints),
+            "constraints": sorted((type(c).__name__, name(c), [col.name for col in getattr(c, "columns", [])],
+                                   str(getattr(c, "sqltext", ""))) for c in table.constraints),
+            "indexes": sorted((name(i), [c.name for c in i.columns], i.unique) for i in table.indexes),
+        }
+    return out
+
+
+def test_core_tables_describe_the_same_schema_as_the_sqlmodel_tables():
+    assert _described(core_tables.metadata) == _described(SQLModel.metadata)
 
 
 def _fill_revision_0001(conn) -> dict[str, list[dict]]:

@@ -45,13 +45,13 @@ def status(engine) -> None:
 
     from catalog_schema.engine import shown
     from catalog_schema.migrate import current, head
-    from catalog_schema.tables import SQLModel
+    from catalog_schema.core_tables import metadata
 
     found = current(engine)
     click.echo(f"database: {shown(str(engine.url))}")
     click.echo(f"revision: {found or 'none (empty database)'}; this kit's newest: {head()}")
     present = set(inspect(engine).get_table_names())
     with engine.connect() as conn:
-        for table in SQLModel.metadata.sorted_tables:
+        for table in metadata.sorted_tables:
             if table.name in present:
                 click.echo(f"  {table.name:<18} {conn.execute(select(func.count()).select_from(table)).scalar_one():>8}")

@@ -1,0 +1,263 @@
+# SPDX-License-Identifier: MIT
+"""The fleet tables as SQLAlchemy Core tables, for commands that run Core statements only.
+
+Generated from catalog_schema/tables.py by ``python -m catalog_schema.render_core``; do not edit.
+"""
+
+from sqlalchemy import (
+    Boolean,
+    CheckConstraint,
+    Column,
+    Date,
+    Float,
+    ForeignKeyConstraint,
+    Index,
+    Integer,
+    MetaData,
+    PrimaryKeyConstraint,
+    String,
+    Table,
+    Text,
+    UniqueConstraint,
+)
+from sqlalchemy.sql.elements import conv
+
+metadata = MetaData()
+
+COMPANIES = Table(
+    "companies",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("name", String, nullable=False),
+    PrimaryKeyConstraint("id", name=conv("pk_companies")),
+    UniqueConstraint("name", name=conv("uq_companies_name")),
+)
+
+PARTS = Table(
+    "parts",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("key", String, nullable=False),
+    Column("kind", String, nullable=False),
+    Column("designation", String, nullable=False),
+    Column("standard", String, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_parts")),
+    UniqueConstraint("key", name=conv("uq_parts_key")),
+)
+
+SUPPLIERS = Table(
+    "suppliers",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("name", String, nullable=False),
+    PrimaryKeyConstraint("id", name=conv("pk_suppliers")),
+    UniqueConstraint("name", name=conv("uq_suppliers_name")),
+)
+
+CATALOGUE_ENTRIES = Table(
+    "catalogue_entries",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("supplier_id", Integer, nullable=False),
+    Column("supplier_ref", String, nullable=False),
+    Column("part_key", String, nullable=False),
+    Column("part_id", Integer, nullable=True),
+    Column("description", String, nullable=True),
+    Column("pack_qty", Integer, nullable=False, default=1),
+    Column("price", Float, nullable=True),
+    Column("currency", String, nullable=False),
+    Column("lead_time_days", Integer, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_catalogue_entries")),
+    ForeignKeyConstraint(["part_id"], ["parts.id"], ondelete="SET NULL", name=conv("fk_catalogue_entries_part_id_parts")),
+    ForeignKeyConstraint(["supplier_id"], ["suppliers.id"], ondelete="CASCADE", name=conv("fk_catalogue_entries_supplier_id_suppliers")),
+    UniqueConstraint("supplier_id", "supplier_ref", name=conv("uq_catalogue_entries_supplier_id_supplier_ref")),
+    CheckConstraint("length(currency) = 3", name=conv("ck_catalogue_entries_currency")),
+    CheckConstraint("lead_time_days IS NULL OR lead_time_days >= 0", name=conv("ck_catalogue_entries_lead_time_days")),
+    CheckConstraint("pack_qty >= 1", name=conv("ck_catalogue_entries_pack_qty")),
+    CheckConstraint("price IS NULL OR price >= 0", name=conv("ck_catalogue_entries_price")),
+    Index(conv("ix_catalogue_entries_part_key"), "part_key", unique=False),
+)
+
+VESSELS = Table(
+    "vessels",
+    metadata,
+    Column("id", String, nullable=False),
+    Column("name", String, nullable=False),
+    Column("ship_type", String, nullable=False),
+    Column("gross_tonnage", Float, nullable=False),
+    Column("company_id", Integer, nullable=True),
+    Column("source", String, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_vessels")),
+    ForeignKeyConstraint(["company_id"], ["companies.id"], ondelete="RESTRICT", name=conv("fk_vessels_company_id_companies")),
+    CheckConstraint("gross_tonnage >= 1", name=conv("ck_vessels_gross_tonnage")),
+    CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker')", name=conv("ck_vessels_ship_type")),
+)
+
+SPARES_POLICIES = Table(
+    "spares_policies",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("company_id", Integer, nullable=True),
+    Column("vessel_id", String, nullable=True),
+    Column("name", String, nullable=False),
+    Column("cover_days", Integer, nullable=False),
+    Column("in_force_from", Date, nullable=False),
+    Column("note", String, nullable=True),
+    Column("content", Text, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_spares_policies")),
+    ForeignKeyConstraint(["company_id"], ["companies.id"], ondelete="CASCADE", name=conv("fk_spares_policies_company_id_companies")),
+    ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_spares_policies_vessel_id_vessels")),
+    UniqueConstraint("company_id", "in_force_from", name=conv("uq_spares_policies_company_id_in_force_from")),
+    UniqueConstraint("vessel_id", "in_force_from", name=conv("uq_spares_policies_vessel_id_in_force_from")),
+    CheckConstraint("cover_days >= 0", name=conv("ck_spares_policies_cover_days")),
+    CheckConstraint("(company_id IS NULL) <> (vessel_id IS NULL)", name=conv("ck_spares_policies_one_scope")),
+)
+
+STOCK = Table(
+    "stock",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("vessel_id", String, nullable=False),
+    Column("part_id", Integer, nullable=False),
+    Column("location", String, nullable=False, default="unassigned", server_default="unassigned"),
+    Column("quantity", Float, nullable=False),
+    Column("counted_on", Date, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_stock")),
+    ForeignKeyConstraint(["part_id"], ["parts.id"], ondelete="RESTRICT", name=conv("fk_stock_part_id_parts")),
+    ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_stock_vessel_id_vessels")),
+    UniqueConstraint("vessel_id", "part_id", "location", name=conv("uq_stock_vessel_id_part_id_location")),
+    CheckConstraint("quantity >= 0", name=conv("ck_stock_quantity")),
+)
+
+UNITS = Table(
+    "units",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("vessel_id", String, nullable=False),
+    Column("ref", String, nullable=False),
+    Column("seq", Integer, nullable=False),
+    Column("service", String, nullable=False),
+    Column("actuator", String, nullable=False),
+    Column("count", Integer, nullable=False),
+    Column("working_pressure", Float, nullable=False),
+    Column("fluid_category", String, nullable=False),
+    Column("fluid_grade", Integer, nullable=False),
+    Column("max_rudder_angle", Float, nullable=True),
+    Column("isolation_valves", Boolean, nullable=False, default=False),
+    PrimaryKeyConstraint("id", name=conv("pk_units")),
+    ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_units_vessel_id_vessels")),
+    UniqueConstraint("vessel_id", "ref", name=conv("uq_units_vessel_id_ref")),
+    CheckConstraint("actuator IN ('ram', 'rotary_vane', 'cylinder')", name=conv("ck_units_actuator")),
+    CheckConstraint("count >= 1", name=conv("ck_units_count")),
+    CheckConstraint("fluid_grade > 0", name=conv("ck_units_fluid_grade")),
+    CheckConstraint("working_pressure > 0", name=conv("ck_units_working_pressure")),
+)
+
+ACTUATORS = Table(
+    "actuators",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("ram_diameter", Float, nullable=True),
+    Column("bore", Float, nullable=True),
+    Column("rod", Float, nullable=True),
+    Column("stroke", Float, nullable=True),
+    Column("tiller_radius", Float, nullable=True),
+    Column("vanes", Integer, nullable=True),
+    Column("vane_height", Float, nullable=True),
+    Column("housing_bore", Float, nullable=True),
+    Column("hub_diameter", Float, nullable=True),
+    Column("stock_diameter", Float, nullable=True),
+    PrimaryKeyConstraint("unit_id", name=conv("pk_actuators")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_actuators_unit_id_units")),
+    CheckConstraint("stroke IS NULL OR stroke > 0", name=conv("ck_actuators_stroke")),
+    CheckConstraint("vanes IS NULL OR vanes >= 1", name=conv("ck_actuators_vanes")),
+)
+
+FILTER_POSITIONS = Table(
+    "filter_positions",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("seq", Integer, nullable=False),
+    Column("position", String, nullable=False),
+    Column("elements", Integer, nullable=False),
+    Column("change_interval", Float, nullable=False),
+    Column("duty_hours_per_day", Float, nullable=False, default=24.0),
+    Column("element_ref", String, nullable=True),
+    PrimaryKeyConstraint("unit_id", "seq", name=conv("pk_filter_positions")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_filter_positions_unit_id_units")),
+    CheckConstraint("change_interval > 0", name=conv("ck_filter_positions_change_interval")),
+    CheckConstraint("duty_hours_per_day >= 0 AND duty_hours_per_day <= 24", name=conv("ck_filter_positions_duty")),
+    CheckConstraint("elements >= 1", name=conv("ck_filter_positions_elements")),
+)
+
+HOSES = Table(
+    "hoses",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("seq", Integer, nullable=False),
+    Column("bore", Float, nullable=False),
+    Column("count", Integer, nullable=False),
+    PrimaryKeyConstraint("unit_id", "seq", name=conv("pk_hoses")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_hoses_unit_id_units")),
+    CheckConstraint("bore > 0 AND count >= 1", name=conv("ck_hoses_sizes")),
+)
+
+PIPES = Table(
+    "pipes",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("seq", Integer, nullable=False),
+    Column("outside_diameter", Float, nullable=False),
+    Column("wall", Float, nullable=False),
+    Column("length", Float, nullable=False),
+    PrimaryKeyConstraint("unit_id", "seq", name=conv("pk_pipes")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_pipes_unit_id_units")),
+    CheckConstraint("wall > 0 AND outside_diameter > 2 * wall AND length > 0", name=conv("ck_pipes_sizes")),
+)
+
+POWER_UNITS = Table(
+    "power_units",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("pumps", Integer, nullable=False),
+    Column("pump_flow", Float, nullable=False),
+    Column("reservoir", Float, nullable=False),
+    Column("system_oil", Float, nullable=True),
+    Column("oil_leakage", Float, nullable=True),
+    Column("pump_model", String, nullable=True),
+    Column("valve_blocks", Integer, nullable=False, default=1),
+    PrimaryKeyConstraint("unit_id", name=conv("pk_power_units")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_power_units_unit_id_units")),
+    CheckConstraint("oil_leakage IS NULL OR oil_leakage >= 0", name=conv("ck_power_units_oil_leakage")),
+    CheckConstraint("pump_flow > 0", name=conv("ck_power_units_pump_flow")),
+    CheckConstraint("pumps >= 1", name=conv("ck_power_units_pumps")),
+    CheckConstraint("reservoir > 0", name=conv("ck_power_units_reservoir")),
+    CheckConstraint("system_oil IS NULL OR system_oil > 0", name=conv("ck_power_units_system_oil")),
+    CheckConstraint("valve_blocks >= 0", name=conv("ck_power_units_valve_blocks")),
+)
+
+SOLENOID_COILS = Table(
+    "solenoid_coils",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("seq", Integer, nullable=False),
+    Column("voltage", String, nullable=False),
+    Column("count", Integer, nullable=False),
+    PrimaryKeyConstraint("unit_id", "seq", name=conv("pk_solenoid_coils")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_solenoid_coils_unit_id_units")),
+    CheckConstraint("count >= 1", name=conv("ck_solenoid_coils_count")),
+)
+
+STATED_HOUSINGS = Table(
+    "stated_housings",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("seq", Integer, nullable=False),
+    Column("role", String, nullable=False),
+    Column("d_inner", Float, nullable=False),
+    Column("d_outer", Float, nullable=False),
+    Column("length", Float, nullable=False),
+    PrimaryKeyConstraint("unit_id", "seq", name=conv("pk_stated_housings")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_stated_housings_unit_id_units")),
+    CheckConstraint("d_inner > 0 AND d_outer > d_inner AND length > 0", name=conv("ck_stated_housings_sizes")),
+)
