@@ -185,14 +185,18 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
     if ids is not None:
         query = query.where(VESSELS.c.id.in_(list(ids)))
     vessel_rows = conn.execute(query.order_by(VESSELS.c.id)).all()
-    wanted = [v.id for v in vessel_rows]
-    unit_rows = conn.execute(select(UNITS).where(UNITS.c.vessel_id.in_(wanted)).order_by(UNITS.c.vessel_id, UNITS.c.seq)).all()
-    uids = [u.id for u in unit_rows]
+    # The whole fleet is read without id lists: a statement with thousands of parameters costs
+    # more to send and plan than the few rows of vessels not asked for would.
+    units_query = select(UNITS).order_by(UNITS.c.vessel_id, UNITS.c.seq)
+    if ids is not None:
+        units_query = units_query.where(UNITS.c.vessel_id.in_([v.id for v in vessel_rows]))
+    unit_rows = conn.execute(units_query).all()
+    uids = None if ids is None else [u.id for u in unit_rows]
 
     def by_unit(table) -> dict[int, list]:
         found: dict[int, list] = {}
-        order = [table.c.unit_id] + ([table.c.seq] if "seq" in table.c else [])
-        for r in conn.execute(select(table).where(table.c.unit_id.in_(uids)).order_by(*order)):
+        query = select(table).order_by(table.c.unit_id, *([table.c.seq] if "seq" in table.c else []))
+        for r in conn.execute(query if uids is None else query.where(table.c.unit_id.in_(uids))).all():
             found.setdefault(r.unit_id, []).append(r)
         return found
 

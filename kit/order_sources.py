@@ -31,7 +31,9 @@ def stock_on_board(conn: Connection, vessel_ids: Iterable[str]) -> dict[tuple[st
     return {(v, k): float(q) for v, k, q in conn.execute(query)}
 
 
-KEYS_PER_QUERY = 500
+# Part keys per statement: SQLite may be built with a limit of 999 parameters; PostgreSQL takes
+# 65,535, and a whole fleet's keys in one or two statements save it a round trip and a plan each.
+KEYS_PER_QUERY = {"sqlite": 500, "postgresql": 10_000}
 
 
 def _rank(entry: CatalogueMatch) -> tuple:
@@ -42,18 +44,21 @@ def _rank(entry: CatalogueMatch) -> tuple:
 
 def catalogue_offers(conn: Connection, keys: Iterable[str] | None = None) -> dict[str, CatalogueMatch]:
     """Part key -> the best matched catalogue entry (see module docstring)."""
-    query = (select(PARTS.c.key, SUPPLIERS.c.name, ENTRIES.c.supplier_ref, ENTRIES.c.pack_qty, ENTRIES.c.price,
+    # An entry's part_key is its part's key once part_id is set (matched at import or when the part
+    # is registered), so the entries are found through the part_key index, not by scanning for part_id.
+    query = (select(ENTRIES.c.part_key, SUPPLIERS.c.name, ENTRIES.c.supplier_ref, ENTRIES.c.pack_qty, ENTRIES.c.price,
                     ENTRIES.c.currency, ENTRIES.c.lead_time_days)
-             .join(PARTS, PARTS.c.id == ENTRIES.c.part_id)
-             .join(SUPPLIERS, SUPPLIERS.c.id == ENTRIES.c.supplier_id))
+             .join(SUPPLIERS, SUPPLIERS.c.id == ENTRIES.c.supplier_id)
+             .where(ENTRIES.c.part_id.is_not(None)))
     if keys is None:
         batches = [query]
     else:  # only the parts asked for, a bounded number of keys a statement (SQLite's parameter limit)
         wanted = sorted(set(keys))
-        batches = [query.where(PARTS.c.key.in_(wanted[i:i + KEYS_PER_QUERY])) for i in range(0, len(wanted), KEYS_PER_QUERY)]
+        step = KEYS_PER_QUERY[conn.dialect.name]
+        batches = [query.where(ENTRIES.c.part_key.in_(wanted[i:i + step])) for i in range(0, len(wanted), step)]
     best: dict[str, CatalogueMatch] = {}
     for batch in batches:
-        for key, supplier, ref, pack, price, currency, lead in conn.execute(batch):
+        for key, supplier, ref, pack, price, currency, lead in conn.execute(batch).all():
             entry = CatalogueMatch(supplier, ref, float(pack), None if price is None else float(price), currency, lead)
             if key not in best or _rank(entry) < _rank(best[key]):
                 best[key] = entry

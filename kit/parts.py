@@ -12,6 +12,7 @@ basis for keeping it (a rule, common practice or company policy).
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 
 # kind -> (designation template, dimension names in order). Dimensions are in mm.
 PART_KINDS: dict[str, tuple[str, tuple[str, ...]]] = {
@@ -29,6 +30,7 @@ PART_KINDS: dict[str, tuple[str, tuple[str, ...]]] = {
 }
 
 
+@lru_cache(maxsize=8192)  # a fleet repeats its sizes: tens of thousands of calls, a few thousand values
 def fmt_mm(value: float) -> str:
     """A dimension in mm as printed in designations and keys: at most two decimals, no trailing zeros."""
     text = f"{value:.2f}".rstrip("0").rstrip(".")

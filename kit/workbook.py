@@ -29,7 +29,7 @@ from kit.oil import L_PER_M3, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
 from kit.parts import fmt_mm
 from kit.report import seal_json
-from kit.safe_text import is_risky
+from kit.safe_text import TRIGGERS, is_risky
 from kit.seal_kit import mm
 
 HEADER_FONT = Font(bold=True)
@@ -55,9 +55,10 @@ class _Sheet:
     def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True):
         self.ws = wb.create_sheet(title)
         self.table = header_row
-        self._reused: dict[tuple[int, bool], WriteOnlyCell] = {}
+        self._reused: dict[tuple[int, str], WriteOnlyCell] = {}
         self.columns = list(columns)
         self.formats = [fmt for _, _, fmt in self.columns]
+        self._formatted = [i for i, fmt in enumerate(self.formats) if fmt]
         for i, (_, width, _) in enumerate(self.columns, 1):
             self.ws.column_dimensions[get_column_letter(i)].width = width
         ps = self.ws.page_setup
@@ -70,38 +71,44 @@ class _Sheet:
             self.ws.print_title_rows = "1:1"
             self.append([name for name, _, _ in self.columns], header=True)
 
-    def cell(self, value: Any, fmt: str | None = None, header: bool = False, column: int | None = None) -> Any:
-        """The cell for ``value``: the value itself when it needs no style and is safe as it is,
-        else a cell with its number format or string type (one per column, reused row by row:
-        a write-only sheet writes each row out as it is appended)."""
-        if column is not None and not header:
-            risky = is_risky(value) and not getattr(value, "is_formula", False)
-            styled = bool(fmt) and (not isinstance(value, str) or isinstance(value, Formula))
-            if not (risky or styled):
-                return value
-            c = self._reused.get((column, styled))
-            if c is None:
-                c = self._reused[(column, styled)] = WriteOnlyCell(self.ws)
-                if styled:
-                    c.number_format = fmt
-            c.value = value
-            if risky:
-                c.data_type = "s"  # user or supplier text: never a formula
-            return c
+    def _header_cell(self, value: Any) -> WriteOnlyCell:
         c = WriteOnlyCell(self.ws, value=value)
-        if is_risky(value) and not getattr(value, "is_formula", False):
+        if is_risky(value):
+            c.data_type = "s"  # user text: never a formula
+        c.font, c.fill = HEADER_FONT, HEADER_FILL
+        if self.table:  # column headings wrap; the cover's own lines do not
+            c.alignment = WRAP
+        return c
+
+    def _styled(self, column: int, kind: str, value: Any) -> WriteOnlyCell:
+        """A cell of ``column`` for a number format (``kind`` "fmt") or for text kept as text
+        ("text"): one per column and kind, reused row by row, since a write-only sheet writes
+        each row out as it is appended."""
+        c = self._reused.get((column, kind))
+        if c is None:
+            c = self._reused[(column, kind)] = WriteOnlyCell(self.ws)
+            if kind == "fmt":
+                c.number_format = self.formats[column]
+        c.value = value
+        if kind == "text":
             c.data_type = "s"  # user or supplier text: never a formula
-        if header:
-            c.font, c.fill = HEADER_FONT, HEADER_FILL
-            if self.table:  # column headings wrap; the cover's own lines do not
-                c.alignment = WRAP
-        elif fmt and (not isinstance(value, str) or isinstance(value, Formula)):
-            c.number_format = fmt
         return c
 
     def append(self, values: list[Any], header: bool = False) -> int:
-        cells = [self.cell(v, self.formats[i] if i < len(self.formats) else None, header, i) for i, v in enumerate(values)]
-        self.ws.append(cells)
+        """Append a row. Plain values go to openpyxl as they are (a styled cell costs several
+        times a plain one to write); only money in a formatted column and risky text get a cell."""
+        if header:
+            row = [self._header_cell(v) for v in values]
+        else:
+            row = list(values)
+            for i in self._formatted:
+                v = row[i] if i < len(row) else None
+                if v is not None and (not isinstance(v, str) or isinstance(v, Formula)):
+                    row[i] = self._styled(i, "fmt", v)
+            for i, v in enumerate(row):
+                if isinstance(v, str) and v.startswith(TRIGGERS) and not isinstance(v, Formula):
+                    row[i] = self._styled(i, "text", v)
+        self.ws.append(row)
         self.rows += 1
         return self.rows
 
@@ -112,8 +119,6 @@ class _Sheet:
 
 class Formula(str):
     """A formula kit itself writes (never user text)."""
-
-    is_formula = True
 
 
 def _roundup(ratio: str) -> str:

@@ -100,6 +100,20 @@ def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path
     assert unmatched == []
 
 
+def test_offers_for_more_parts_than_one_statement_takes(fleet, tmp_path):
+    from kit.order_sources import KEYS_PER_QUERY, catalogue_offers
+
+    n = KEYS_PER_QUERY["sqlite"] * 2 + 7
+    keys = [part_key("spare", {}, f"relief cartridge:{i}") for i in range(n)]
+    write_transaction(fleet, lambda conn: register_parts(conn, [item(k, "spare") for k in keys]))
+    path = write_csv(tmp_path / "c.csv", ["supplier_ref", "part_key", "price", "currency"],
+                     [[f"R-{i}", k, i, "EUR"] for i, k in enumerate(keys)])
+    import_catalogue(fleet, path, "Test Seals")
+    with fleet.connect() as conn:
+        offers = catalogue_offers(conn, keys + [OIL])  # OIL is registered but no supplier lists it
+    assert {k: m.price for k, m in offers.items()} == {k: float(i) for i, k in enumerate(keys)}
+
+
 def test_reimport_replaces_the_suppliers_catalogue(fleet, tmp_path):
     first = write_csv(tmp_path / "a.csv", ["supplier_ref", "part_key", "currency"], [["A", OIL, "EUR"], ["B", O_RING, "EUR"]])
     second = write_csv(tmp_path / "b.csv", ["supplier_ref", "part_key", "currency"], [["B", O_RING, "USD"]])
