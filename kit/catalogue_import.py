@@ -24,11 +24,11 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from sqlalchemy import delete, insert, select
+from sqlalchemy import delete, select
 from sqlalchemy.engine import Engine
 
 from catalog_schema.engine import write_transaction
-from catalog_schema.sql import upsert
+from catalog_schema.sql import insert_rows, upsert
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from kit.errors import InputError
 from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
@@ -65,9 +65,9 @@ def whole_number(table: Table, row: Row, column: str, minimum: int, default: int
     value = row.values.get(column)
     if value is None:
         return default
-    if isinstance(value, float) and value.is_integer():
+    if isinstance(value, str) and value.isascii() and value.isdigit():  # CSV text (isdigit alone passes "²")
         value = int(value)
-    if isinstance(value, str) and value.isdigit():
+    elif isinstance(value, float) and value.is_integer():
         value = int(value)
     if isinstance(value, bool) or not isinstance(value, int) or value < minimum:
         raise table.error(row, column, f"a whole number of at least {minimum}", value)
@@ -90,32 +90,35 @@ def number(table: Table, row: Row, column: str, minimum: float | None = 0.0) -> 
     return float(value)
 
 
-def _entries(table: Table) -> list[dict]:
+# A checked row: its line, then the values of ENTRY_COLUMNS from supplier_ref on.
+Entry = tuple[int, str, str, str | None, int, float | None, str, int | None]
+ENTRY_COLUMNS = ("supplier_id", "part_id", "supplier_ref", "part_key", "description", "pack_qty", "price", "currency",
+                 "lead_time_days")
+
+
+def _entries(table: Table) -> list[Entry]:
+    """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
+    currency, lead_time_days); the first bad cell refuses the file."""
     keys = KeyReader(table)
     seen: dict[str, int] = {}
-    out = []
+    out: list[Entry] = []
     for row in table.rows:
         v = row.values
         ref = v.get("supplier_ref")
         if ref is None:
             raise table.error(row, "supplier_ref", "the supplier's part number", "an empty cell")
-        ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
+        if not isinstance(ref, str):
+            ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
         if ref in seen:
             raise table.error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
         seen[ref] = row.line
         currency = v.get("currency")
         if not (isinstance(currency, str) and len(currency) == 3 and currency.isalpha()):
             raise table.error(row, "currency", "an ISO 4217 code of three letters, e.g. EUR", currency)
-        out.append({
-            "supplier_ref": ref,
-            "part_key": keys.key(row),
-            "description": None if v.get("description") is None else str(v["description"]),
-            "pack_qty": whole_number(table, row, "pack_qty", 1, default=1),
-            "price": number(table, row, "price"),
-            "currency": currency.upper(),
-            "lead_time_days": whole_number(table, row, "lead_time_days", 0),
-            "_line": row.line,
-        })
+        description = v.get("description")
+        out.append((row.line, ref, keys.key(row), None if description is None else str(description),
+                    whole_number(table, row, "pack_qty", 1, default=1), number(table, row, "price"), currency.upper(),
+                    whole_number(table, row, "lead_time_days", 0)))
     return out
 
 
@@ -133,15 +136,14 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str) -> Catalog
         known = part_ids(conn)
         report = CatalogueReport(supplier, len(entries), 0)
         rows = []
-        for e in entries:
-            pid = known.get(e["part_key"])
+        for line, ref, key, *rest in entries:
+            pid = known.get(key)
             if pid is None:
-                report.unmatched.append((table.where(e["_line"]), e["supplier_ref"], e["part_key"]))
-            rows.append({**{k: x for k, x in e.items() if k != "_line"}, "supplier_id": sid, "part_id": pid})
+                report.unmatched.append((table.where(line), ref, key))
+            rows.append((sid, pid, ref, key, *rest))
         report.matched = len(rows) - len(report.unmatched)
         conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
-        if rows:
-            conn.execute(insert(ENTRIES), rows)
+        insert_rows(conn, ENTRIES, ENTRY_COLUMNS, rows)
         return report
 
     return write_transaction(engine, write)

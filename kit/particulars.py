@@ -269,7 +269,7 @@ def parse_fluid(text: str, source: str, field_name: str) -> Fluid:
     if len(parts) != 2 or parts[0].upper() not in FLUID_CATEGORIES:
         raise InputError(source, field_name, want, got=repr(text))
     grade_text = parts[1].upper().removeprefix("VG")
-    if not grade_text.isdigit() or int(grade_text) not in ISO_3448_GRADES:
+    if not (grade_text.isascii() and grade_text.isdigit()) or int(grade_text) not in ISO_3448_GRADES:  # "²" is a digit too
         raise InputError(source, field_name, "an ISO 3448 viscosity grade (e.g. 32, 46, 68)", got=repr(parts[1]))
     return Fluid(parts[0].upper(), int(grade_text))
 

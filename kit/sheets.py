@@ -263,7 +263,7 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
             start = 1
             try:
                 for cells in reader:
-                    yield start, [_csv_cell(c) for c in cells]
+                    yield start, [_csv_cell(c) if c else None for c in cells]
                     start = reader.line_num + 1
             except csv.Error as exc:
                 raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None

@@ -151,9 +151,10 @@ def test_one_bad_catalogue_row_refuses_the_whole_file(fleet, tmp_path):
 @pytest.mark.parametrize("cells, message", [
     (["A", OIL, "EURO"], "line 2: column currency: expected an ISO 4217 code of three letters, e.g. EUR (got 'EURO')"),
     (["A", "seal:x", "EUR"], "line 2: column part_key: expected a part key starting with a part kind"),
+    (["A", OIL, "EUR", "²"], "line 2: column pack_qty: expected a whole number of at least 1 (got '²')"),  # isdigit() but not int()
 ])
 def test_catalogue_cell_errors_name_line_and_column(fleet, tmp_path, cells, message):
-    path = write_csv(tmp_path / "c.csv", ["supplier_ref", "part_key", "currency"], [cells])
+    path = write_csv(tmp_path / "c.csv", ["supplier_ref", "part_key", "currency", "pack_qty"][:len(cells)], [cells])
     with pytest.raises(InputError) as err:
         import_catalogue(fleet, path, "Test Seals")
     assert str(err.value).startswith(f"{path}, {message}")

@@ -44,6 +44,8 @@ CASES = [
      "one line of at most 200 characters, no control characters (got 'Test\\x00One')"),
     ("newline in a name", ('name = "Test One"', 'name = "Test\\nOne"'), "vessel.name",
      "one line of at most 200 characters, no control characters (got 'Test\\nOne')"),
+    ("superscript grade", ('fluid = "HM 46"', 'fluid = "HM ²"'), "unit[0].fluid",  # a Unicode digit int() refuses
+     "an ISO 3448 viscosity grade (e.g. 32, 46, 68) (got '²')"),
     ("unknown field", ('stroke = "400 mm"', 'stroke = "400 mm"\nstrok = "400 mm"'), "unit[0].strok",
      "a known field (see the README's particulars format) (got an unknown field)"),
 ]
