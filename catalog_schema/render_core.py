@@ -53,9 +53,11 @@ metadata = MetaData()
 '''
 
 
-def q(text: object) -> str:
-    """``text`` as a double-quoted Python string literal."""
-    return '"' + str(text).replace("\\", "\\\\").replace('"', '\\"') + '"'
+def q(value: object) -> str:
+    """A Python literal of ``value``: text (names, SQL) in double quotes, as the project writes it."""
+    if isinstance(value, (bool, int, float)):
+        return repr(value)
+    return '"' + str(value).replace("\\", "\\\\").replace('"', '\\"') + '"'
 
 
 def type_name(column) -> str:
@@ -75,7 +77,7 @@ def _column(column) -> str:
     if column.default is not None:
         if not column.default.is_scalar:
             raise ValueError(f"{column}: only scalar defaults are rendered")
-        args.append(f"default={column.default.arg if not isinstance(column.default.arg, str) else q(column.default.arg)}")
+        args.append(f"default={q(column.default.arg)}")
     if column.server_default is not None:
         args.append(f"server_default={q(column.server_default.arg)}")
     return f"    Column({', '.join(args)}),"
