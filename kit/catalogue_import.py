@@ -27,9 +27,9 @@ from pathlib import Path
 from sqlalchemy import delete, select
 from sqlalchemy.engine import Engine
 
+from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from catalog_schema.engine import write_transaction
 from catalog_schema.sql import insert_rows, upsert
-from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from kit.errors import InputError
 from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
 from kit.sheets import Row, Table, read_table

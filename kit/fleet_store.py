@@ -14,7 +14,6 @@ from typing import Iterable
 from sqlalchemy import bindparam, delete, insert, select, update
 from sqlalchemy.engine import Connection
 
-from catalog_schema.sql import upsert
 from catalog_schema.core_tables import (
     ACTUATORS,
     COMPANIES,
@@ -27,6 +26,7 @@ from catalog_schema.core_tables import (
     UNITS,
     VESSELS,
 )
+from catalog_schema.sql import upsert
 from kit.particulars import (
     CylinderGeometry,
     FilterPosition,

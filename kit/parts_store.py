@@ -24,8 +24,8 @@ from typing import Iterable
 from sqlalchemy import select, update
 from sqlalchemy.engine import Connection
 
-from catalog_schema.sql import upsert
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, PARTS
+from catalog_schema.sql import upsert
 from kit.errors import InputError
 from kit.parts import PART_KINDS, LineItem, part_key
 from kit.sheets import Row, Table

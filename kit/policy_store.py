@@ -15,8 +15,8 @@ from dataclasses import dataclass
 from sqlalchemy import select
 from sqlalchemy.engine import Connection
 
-from catalog_schema.sql import upsert
 from catalog_schema.core_tables import SPARES_POLICIES
+from catalog_schema.sql import upsert
 from kit.errors import InputError
 from kit.fleet_store import COMPANIES, VESSELS, company_id
 from kit.spares import Policy, policy_from_text

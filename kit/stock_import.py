@@ -26,10 +26,10 @@ from pathlib import Path
 from sqlalchemy import and_, bindparam, or_, select, update
 from sqlalchemy.engine import Connection, Engine
 
-from catalog_schema.engine import write_transaction
-from catalog_schema.sql import upsert
 from catalog_schema.conventions import DEFAULT_LOCATION
 from catalog_schema.core_tables import PARTS, STOCK, VESSELS
+from catalog_schema.engine import write_transaction
+from catalog_schema.sql import upsert
 from kit.catalogue_import import number
 from kit.errors import InputError
 from kit.sheets import Row, Sheet, Table, read_table

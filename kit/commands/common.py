@@ -11,34 +11,35 @@ from typing import Any, Callable, Iterator
 
 import click
 
-# A command builds many small objects (a fleet's particulars, line items, cells) that hold no
-# reference cycles worth collecting mid-run; the default first-generation threshold (700) makes
-# the cyclic collector pass over them thousands of times. Measured on a 1,000-vessel order:
-# about a quarter of the time to build it.
-COMMAND_GC_THRESHOLD = 50_000
-
 
 @contextlib.contextmanager
-def fewer_collections() -> Iterator[None]:
-    """Run a batch with the cyclic collector's first generation raised, then restore it."""
-    old = gc.get_threshold()
-    gc.set_threshold(COMMAND_GC_THRESHOLD, *old[1:])
+def without_cycle_collector() -> Iterator[None]:
+    """Run a command with Python's cyclic garbage collector paused, then restart it.
+
+    A command builds many small objects (a fleet's particulars, line items, rows, cells) that
+    hold no reference cycles: reference counting frees them, and the collector only walks them
+    again and again. Measured: 0.14 s of a 1,000-vessel BOM and 0.23 s of a 100,000-row
+    catalogue import, with the same peak memory with the collector paused (96 MB, 264 MB).
+    """
+    was_enabled = gc.isenabled()
+    gc.disable()
     try:
         yield
     finally:
-        gc.set_threshold(*old)
+        if was_enabled:
+            gc.enable()
 
 
 def reports_errors(func: Callable[..., Any]) -> Callable[..., Any]:
     """Turn the project's own errors into one line on stderr and exit status 2 (and run the
-    command with :func:`fewer_collections`)."""
+    command with :func:`without_cycle_collector`)."""
 
     @functools.wraps(func)
     def wrapper(*args: Any, **kwargs: Any) -> Any:
         from kit.errors import KitError
 
         try:
-            with fewer_collections():
+            with without_cycle_collector():
                 return func(*args, **kwargs)
         except KitError as exc:
             click.echo(f"kit: error: {exc}", err=True)
