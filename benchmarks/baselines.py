@@ -4,6 +4,7 @@
 ``python -m benchmarks.baselines toml FOLDER``            parse every particulars file with tomllib alone
 ``python -m benchmarks.baselines csv FILE DB``             csv module + sqlite3 executemany, one transaction
 ``python -m benchmarks.baselines xlsx FILE DB``            openpyxl read-only + sqlite3 executemany
+``python -m benchmarks.baselines rows ROWS.pickle DB``     checked catalogue rows into kit's table, sqlite3 alone
 ``python -m benchmarks.baselines cells CELLS.pickle OUT``  write the same cells with openpyxl write-only
 
 None of them imports kit: each is the least a program doing that step has to do.
@@ -53,6 +54,22 @@ def xlsx_file(path: str, db: str) -> None:
     wb.close()
 
 
+def rows(source: str, db: str) -> None:
+    """The floor of a catalogue import: rows already checked, inserted into the fleet database's
+    own catalogue table (its keys, indexes and constraints) by sqlite3 executemany, one transaction."""
+    import pickle
+    import sqlite3
+
+    with open(source, "rb") as f:
+        sql, values = pickle.load(f)
+    conn = sqlite3.connect(db, isolation_level=None)
+    conn.execute("PRAGMA foreign_keys=ON")
+    conn.execute("BEGIN")
+    conn.executemany(sql, values)
+    conn.execute("COMMIT")
+    conn.close()
+
+
 def cells(source: str, out: str) -> None:
     import pickle
 
@@ -68,7 +85,7 @@ def cells(source: str, out: str) -> None:
     wb.save(out)
 
 
-STEPS = {"toml": toml, "csv": csv_file, "xlsx": xlsx_file, "cells": cells}
+STEPS = {"toml": toml, "csv": csv_file, "xlsx": xlsx_file, "rows": rows, "cells": cells}
 
 if __name__ == "__main__":
     STEPS[sys.argv[1]](*sys.argv[2:])
