@@ -73,7 +73,7 @@ class _Sheet:
 
     def _header_cell(self, value: Any) -> WriteOnlyCell:
         c = WriteOnlyCell(self.ws, value=value)
-        if is_risky(value):
+        if is_risky(value) and not isinstance(value, Formula):
             c.data_type = "s"  # user text: never a formula
         c.font, c.fill = HEADER_FONT, HEADER_FILL
         if self.table:  # column headings wrap; the cover's own lines do not
