@@ -9,12 +9,12 @@ Steps (targets from issue 6):
 1. ``kit --help`` and ``kit bom --help`` against ``python -c "import click"`` (<= 2.5);
 2. ``kit load FOLDER`` of N vessels into SQLite against parsing the same TOML with tomllib (<= 4);
 3. ``kit catalogue import`` of the 100,000-row catalogue (CSV, xlsx) against the csv module or
-   openpyxl read-only with sqlite3 executemany in one transaction (<= 2);
+   openpyxl read-only with sqlite3 executemany in one transaction (<= 2); and, with no target,
+   its floor: kit's checked rows inserted into kit's own table by sqlite3 alone (what the
+   table's keys and indexes cost, whatever program writes the rows);
 4. ``kit bom`` of the whole fleet against writing the same cells with openpyxl write-only
    (<= 1.5, peak memory <= 300 MB);
 5. ``kit bom`` at ``--small`` vessels against N vessels (time grows at most 11x for 10x);
-   and, with no target, the floor of step 3: kit's checked catalogue rows inserted into kit's
-   table by sqlite3 alone (what the table's keys and indexes cost, whatever program writes);
 6. the load, the imports and the BOM against PostgreSQL (``--pg``, default ``KIT_TEST_PG_URL``),
    beside SQLite. The benchmark makes a database of its own there and drops it at the end.
 
