@@ -202,10 +202,10 @@ def checked_catalogue(db: str, path: Path, supplier: str, out: Path) -> None:
     import pickle
     import sqlite3
 
-    from sqlalchemy import insert
     from sqlalchemy.dialects import sqlite
 
     from catalog_schema.core_tables import CATALOGUE_ENTRIES
+    from catalog_schema.sql import insert_statement
     from kit.catalogue_import import COLUMNS, ENTRY_COLUMNS, SHEET, _entries
     from kit.sheets import read_table
 
@@ -214,10 +214,8 @@ def checked_catalogue(db: str, path: Path, supplier: str, out: Path) -> None:
         conn.execute("INSERT OR IGNORE INTO suppliers (name) VALUES (?)", (supplier,))
         sid = conn.execute("SELECT id FROM suppliers WHERE name = ?", (supplier,)).fetchone()[0]
         known = dict(conn.execute("SELECT key, id FROM parts"))
-    compiled = insert(CATALOGUE_ENTRIES).compile(dialect=sqlite.dialect(), column_keys=list(ENTRY_COLUMNS))
-    order = [ENTRY_COLUMNS.index(name) for name in compiled.positiontup]
     rows = [(sid, known.get(key), ref, key, *rest) for _, ref, key, *rest in _entries(table)]
-    out.write_bytes(pickle.dumps((str(compiled), [tuple(r[i] for i in order) for r in rows])))
+    out.write_bytes(pickle.dumps(insert_statement(sqlite.dialect(), CATALOGUE_ENTRIES, ENTRY_COLUMNS, rows)))
 
 
 # --- the steps --------------------------------------------------------------------------------

@@ -1,13 +1,25 @@
 # SPDX-License-Identifier: MIT
-"""The few statements whose SQL differs between SQLite and PostgreSQL."""
+"""What differs between SQLite and PostgreSQL in the statements kit sends: upserts, how many
+values one statement may carry, and how a bulk insert hands its rows to the driver."""
 
 from __future__ import annotations
 
 import importlib
-from typing import Sequence
+from typing import Iterator, Sequence
 
 from sqlalchemy import Table, insert
 from sqlalchemy.engine import Connection
+
+# Values per IN (...) list or statement: SQLite may be built with a limit of 999 bound
+# parameters; PostgreSQL takes 65,535, and fewer statements save it a round trip and a plan each.
+VALUES_PER_STATEMENT = {"sqlite": 500, "postgresql": 10_000}
+
+
+def in_batches(conn: Connection, values: Sequence) -> Iterator[Sequence]:
+    """``values`` in slices small enough for one statement on the connection's engine."""
+    step = VALUES_PER_STATEMENT[conn.dialect.name]
+    for i in range(0, len(values), step):
+        yield values[i:i + step]
 
 
 def _insert(dialect: str):
@@ -35,12 +47,17 @@ def insert_rows(conn: Connection, table: Table, columns: Sequence[str], rows: Se
     of a 100,000-row import on SQLite). So the values must be the driver's own: str, int, float
     or None; dates and booleans go through ``conn.execute(insert(table), dicts)`` instead.
     """
-    if not rows:
-        return
-    compiled = insert(table).compile(dialect=conn.dialect, column_keys=list(columns))
-    if compiled.positional:
-        order = [columns.index(name) for name in compiled.positiontup]
-        params = rows if order == list(range(len(columns))) else [tuple(r[i] for i in order) for r in rows]
-    else:
-        params = [dict(zip(columns, r)) for r in rows]
-    conn.exec_driver_sql(str(compiled), params)
+    if rows:
+        conn.exec_driver_sql(*insert_statement(conn.dialect, table, columns, rows))
+
+
+def insert_statement(dialect, table: Table, columns: Sequence[str], rows: Sequence[tuple]) -> tuple[str, list]:
+    """Core's INSERT for ``columns`` compiled for ``dialect``, and ``rows`` as its driver takes
+    them: tuples in the statement's order (SQLite) or dicts by name (psycopg)."""
+    compiled = insert(table).compile(dialect=dialect, column_keys=list(columns))
+    if not compiled.positional:
+        return str(compiled), [dict(zip(columns, r)) for r in rows]
+    order = [columns.index(name) for name in compiled.positiontup]
+    if order == list(range(len(columns))):
+        return str(compiled), list(rows)
+    return str(compiled), [tuple(r[i] for i in order) for r in rows]

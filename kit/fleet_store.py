@@ -26,7 +26,7 @@ from catalog_schema.core_tables import (
     UNITS,
     VESSELS,
 )
-from catalog_schema.sql import upsert
+from catalog_schema.sql import in_batches, upsert
 from kit.particulars import (
     CylinderGeometry,
     FilterPosition,
@@ -99,15 +99,6 @@ def save_vessel(conn: Connection, vessel: Vessel) -> None:
     save_vessels(conn, [vessel])
 
 
-# Ids per IN (...) list: well inside every engine's limit on bound parameters.
-_CHUNK = 500
-
-
-def _chunks(values: list) -> Iterable[list]:
-    for i in range(0, len(values), _CHUNK):
-        yield values[i:i + _CHUNK]
-
-
 def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     """Save every vessel in the caller's transaction; return their ids.
 
@@ -127,7 +118,7 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
 
     def unit_ids_of(vessel_ids: list[str]) -> dict[tuple[str, str], int]:
         found: dict[tuple[str, str], int] = {}
-        for chunk in _chunks(vessel_ids):
+        for chunk in in_batches(conn, vessel_ids):
             query = select(UNITS.c.vessel_id, UNITS.c.ref, UNITS.c.id).where(UNITS.c.vessel_id.in_(chunk))
             found.update({(vid, ref): uid for vid, ref, uid in conn.execute(query)})
         return found
@@ -136,7 +127,7 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     existing = unit_ids_of(vessel_ids_)
     wanted = {(v.id, u.id) for v in latest for u in v.units}
     gone = [uid for key, uid in existing.items() if key not in wanted]
-    for chunk in _chunks(gone):
+    for chunk in in_batches(conn, gone):
         conn.execute(delete(UNITS).where(UNITS.c.id.in_(chunk)))
     changed, added = [], []
     for v in latest:
@@ -155,7 +146,7 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     units = [(unit_id[(v.id, u.id)], u) for v in latest for u in v.units]
 
     tables = [ACTUATORS, POWER_UNITS] + [t for t, _, _ in _CHILDREN.values()]
-    for chunk in _chunks([uid for uid, _ in units]):
+    for chunk in in_batches(conn, [uid for uid, _ in units]):
         for table in tables:
             conn.execute(delete(table).where(table.c.unit_id.in_(chunk)))
     conn.execute(insert(ACTUATORS), [{"unit_id": uid, **_geometry_row(u)} for uid, u in units])

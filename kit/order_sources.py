@@ -14,6 +14,7 @@ from sqlalchemy import func, select
 from sqlalchemy.engine import Connection
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, PARTS, STOCK, SUPPLIERS
+from catalog_schema.sql import in_batches
 from kit.bom import CatalogueMatch
 
 ENTRIES = CATALOGUE_ENTRIES
@@ -29,11 +30,6 @@ def stock_on_board(conn: Connection, vessel_ids: Iterable[str]) -> dict[tuple[st
              .where(STOCK.c.vessel_id.in_(ids))
              .group_by(STOCK.c.vessel_id, PARTS.c.key))
     return {(v, k): float(q) for v, k, q in conn.execute(query)}
-
-
-# Part keys per statement: SQLite may be built with a limit of 999 parameters; PostgreSQL takes
-# 65,535, and a whole fleet's keys in one or two statements save it a round trip and a plan each.
-KEYS_PER_QUERY = {"sqlite": 500, "postgresql": 10_000}
 
 
 def _rank(entry: CatalogueMatch) -> tuple:
@@ -52,10 +48,8 @@ def catalogue_offers(conn: Connection, keys: Iterable[str] | None = None) -> dic
              .where(ENTRIES.c.part_id.is_not(None)))
     if keys is None:
         batches = [query]
-    else:  # only the parts asked for, a bounded number of keys a statement (SQLite's parameter limit)
-        wanted = sorted(set(keys))
-        step = KEYS_PER_QUERY[conn.dialect.name]
-        batches = [query.where(ENTRIES.c.part_key.in_(wanted[i:i + step])) for i in range(0, len(wanted), step)]
+    else:  # only the parts asked for, a bounded number of keys a statement
+        batches = [query.where(ENTRIES.c.part_key.in_(batch)) for batch in in_batches(conn, sorted(set(keys)))]
     best: dict[str, CatalogueMatch] = {}
     for batch in batches:
         for key, supplier, ref, pack, price, currency, lead in conn.execute(batch).all():

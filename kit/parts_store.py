@@ -25,15 +25,13 @@ from sqlalchemy import select, update
 from sqlalchemy.engine import Connection
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, PARTS
-from catalog_schema.sql import upsert
+from catalog_schema.sql import in_batches, upsert
 from kit.errors import InputError
 from kit.parts import PART_KINDS, LineItem, part_key
 from kit.sheets import Row, Table
 from kit.units import to_si
 
 ENTRIES = CATALOGUE_ENTRIES
-# Keys per statement when matching catalogue entries (well inside SQLite's parameter limit).
-KEYS_PER_STATEMENT = 500
 DIMENSIONS = ("d", "D", "L", "t", "cut", "id", "cs", "length", "h")
 assert {n for _, names in PART_KINDS.values() for n in names} <= set(DIMENSIONS), "a part kind has a dimension with no column"
 PART_COLUMNS = ("part_key", "part_kind", *DIMENSIONS, "spec")
@@ -60,8 +58,7 @@ def register_parts(conn: Connection, items: Iterable[LineItem]) -> Registered:
     conn.execute(upsert(conn, PARTS, ["key"]), [rows[k] for k in keys])
     part_id = select(PARTS.c.id).where(PARTS.c.key == ENTRIES.c.part_key).scalar_subquery()
     matched = 0
-    for i in range(0, len(keys), KEYS_PER_STATEMENT):
-        batch = keys[i:i + KEYS_PER_STATEMENT]
+    for batch in in_batches(conn, keys):
         done = conn.execute(update(ENTRIES).where(ENTRIES.c.part_id.is_(None), ENTRIES.c.part_key.in_(batch))
                             .values(part_id=part_id))
         matched += done.rowcount

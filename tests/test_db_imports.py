@@ -101,9 +101,10 @@ def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path
 
 
 def test_offers_for_more_parts_than_one_statement_takes(fleet, tmp_path):
-    from kit.order_sources import KEYS_PER_QUERY, catalogue_offers
+    from catalog_schema.sql import VALUES_PER_STATEMENT
+    from kit.order_sources import catalogue_offers
 
-    n = KEYS_PER_QUERY["sqlite"] * 2 + 7
+    n = VALUES_PER_STATEMENT["sqlite"] * 2 + 7
     keys = [part_key("spare", {}, f"relief cartridge:{i}") for i in range(n)]
     write_transaction(fleet, lambda conn: register_parts(conn, [item(k, "spare") for k in keys]))
     path = write_csv(tmp_path / "c.csv", ["supplier_ref", "part_key", "price", "currency"],
