@@ -21,13 +21,13 @@ from importlib import resources
 from kit.errors import TableChecksumError
 
 CHECKSUMS: dict[str, str] = {
-    "iso10766_2015_guide_bands.csv": "305d88296d54f552ac6857b337e0272cadf9f8bcf703d0334fa19e15bfc2c314",
+    "iso10766_2015_guide_bands.csv": "ef8b77202ddaad1b7e96dbf8b24e02eca2aa611324919274a60c5398251cc260",
     "iso3320_2013_bores_rods.csv": "656209115532001c8124ecc07b0b01fdb15c9add045c3593d9e824a558728b3c",
     "iso3448_1992_viscosity_grades.csv": "8bf660be3d2d7969ba6cc2332c1da7b7d8f9e8672f47f5ce2f39153e60138297",
     "iso3601_1_2012_o_ring_sizes.csv": "0edc9ec5bee374fc3b1de5882187b6d24ef0548ae9be92d1c354ff6d249c0e73",
     "iso3601_2_2016_static_radial_glands.csv": "35ce0e2649f01aa681291a5443d0dcab38d17689d331cec0dae2262452ecc1fa",
-    "iso5597_2018_housing_bands.csv": "f2806e6ba5d3d4387b6001ba7f192a430c5859f7000e7feefe4b6aa5fd541d5f",
-    "iso6195_2013_wiper_bands.csv": "e74279035afd74dbaf3729ab619fc4c0798a0974616c73ccfe5a678245559fae",
+    "iso5597_2018_housing_bands.csv": "ec9aebdbdcd0a9f7220296f41ceb0f7b4c3a8d90d2e7982c50acbb9c6d28e949",
+    "iso6195_2013_wiper_bands.csv": "35e77e66e4b9e539623987df90a8f3555fc0fe4ca582495877433a29b9d42f76",
     "seal_compound_compatibility.csv": "7be82b312a6727039728d6d0464a5b88c065566e1b2fd1b0403e7f20dc515d91",
 }
 
