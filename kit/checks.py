@@ -4,8 +4,9 @@
 For a steering unit: torque at the relief setting at midships and at the maximum rudder angle,
 the swing time from 35 deg one side to 30 deg the other with one pump and with all pumps against
 the 28 s of SOLAS II-1/29.3.2 (judged on the case SOLAS II-1/29.6.1 sets, see ``kit.solas``),
-ram or piston travel against the stroke, and for every unit the working pressure against the
-ratings in the spares policy.
+ram or piston travel against the stroke, the gear's torque at 35 deg against the rudder's torque
+by the classification-rule formula (``kit.rudder``) when the rudder is given, the rudder carrier's
+inspection, and for every unit the working pressure against the ratings in the spares policy.
 """
 
 from __future__ import annotations
@@ -13,9 +14,22 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 
-from kit import physics, solas
-from kit.particulars import CylinderGeometry, RamGeometry, Unit, Vessel
+from kit import physics, rudder, solas
+from kit.particulars import CylinderGeometry, RamGeometry, Unit, Vessel, VaneGeometry
 from kit.spares import Policy
+
+TORQUE_BASIS = {
+    RamGeometry: "Rapson slide, T = k p A R / cos^2(theta)",
+    VaneGeometry: "rotary vane, T = p vanes h (R^2 - r^2) / 2",
+}
+TRUNNION_EXACT = "trunnion cylinders, exact geometry by virtual work (trunnion_distance)"
+TRUNNION_APPROXIMATE = "trunnion cylinders, long-cylinder approximation T = n p (A_b + A_a) R cos(theta)"
+APPROXIMATION_WARNING = ("trunnion cylinders: torque, swing oil and piston travel by the long-cylinder approximation "
+                         "(cylinder axis kept in its midships direction), which overstates the torque at 35 deg by a few "
+                         "per cent in one direction of motion; state trunnion_distance for the exact geometry")
+CARRIER_PLACE = {"separate": "separate rudder carrier bearing", "in_actuator": "rudder carrier in the actuator housing",
+                 None: "rudder carrier (in the actuator housing or separate: not stated)"}
+CARRIER_INSPECTION = "wear-down measured at each dry-docking and recorded against the maker's limit (common practice)"
 
 
 @dataclass
@@ -32,6 +46,13 @@ class UnitChecks:
     stroke: float | None = None  # m
     travel_ok: bool | None = None
     pressure_ok: bool = True
+    torque_basis: str | None = None
+    swing_oil: float | None = None  # m^3, 35 deg one side to 30 deg the other
+    rudder_load: rudder.RudderLoad | None = None
+    gear_torque_35: float | None = None  # N m, least of both directions at the maximum working pressure
+    gear_torque_pressure: float | None = None  # Pa
+    rudder_margin: float | None = None  # gear torque / rudder torque - 1
+    inspections: list[str] = field(default_factory=list)
     warnings: list[str] = field(default_factory=list)
 
 
@@ -45,12 +66,19 @@ def check_unit(unit: Unit, vessel: Vessel, policy: Policy) -> UnitChecks:
     if not unit.is_steering:
         return out
     act = physics.actuation(unit)
+    g = unit.geometry
     theta_max = unit.max_rudder_angle
     out.torque_midships = act.torque(0.0, unit.working_pressure)
-    out.torque_max_angle = act.torque(theta_max, unit.working_pressure)
+    out.torque_max_angle = physics.least_torque(act, theta_max, unit.working_pressure)
+    out.torque_basis = TORQUE_BASIS.get(type(g))
+    if isinstance(g, CylinderGeometry):
+        out.torque_basis = TRUNNION_EXACT if g.trunnion_distance is not None else TRUNNION_APPROXIMATE
+        if g.trunnion_distance is None:
+            out.warnings.append(APPROXIMATION_WARNING)
     if theta_max < solas.HARD_OVER_RAD - 1e-9:
         out.warnings.append(f"maximum rudder angle {math.degrees(theta_max):g} deg is below the 35 deg of SOLAS II-1/29.3.2")
     volume = physics.swing_volume(act, solas.SWING_FROM_RAD, solas.SWING_TO_RAD)
+    out.swing_oil = volume
     case = solas.judging_case(vessel.ship_type, unit.pumps, vessel.gross_tonnage)
     out.swing_time_one_pump = physics.swing_time(volume, unit.pump_flow)
     out.swing_time_all_pumps = physics.swing_time(volume, unit.pump_flow * unit.pumps)
@@ -61,14 +89,40 @@ def check_unit(unit: Unit, vessel: Vessel, policy: Policy) -> UnitChecks:
     if not out.swing_rule_met:
         out.warnings.append(f"swing 35-30 deg takes {out.swing_time_judged:.1f} s with {case.pumps_running} pump(s), "
                             f"more than the 28 s of SOLAS II-1/29.3.2 ({case.reason})")
-    g = unit.geometry
     if isinstance(g, RamGeometry):
         out.travel, out.stroke = physics.ram_travel(g.tiller_radius, theta_max), g.stroke
     elif isinstance(g, CylinderGeometry):
-        out.travel, out.stroke = physics.cylinder_travel(g.tiller_radius, theta_max), g.stroke
+        exact = g.trunnion_distance is not None
+        out.travel = physics.trunnion_travel(g, theta_max) if exact else physics.cylinder_travel(g.tiller_radius, theta_max)
+        out.stroke = g.stroke
     if out.travel is not None:
         out.travel_ok = out.travel <= out.stroke
         if not out.travel_ok:
             out.warnings.append(f"travel to {math.degrees(theta_max):g} deg each side is {out.travel * 1000:.0f} mm, "
                                 f"more than the stroke {out.stroke * 1000:.0f} mm: check tiller radius, stroke and angle")
+    _check_rudder(unit, act, out)
+    out.inspections.append(f"{CARRIER_PLACE[unit.rudder_carrier]}: {CARRIER_INSPECTION}")
     return out
+
+
+def gear_pressure(unit: Unit) -> float:
+    """The pressure [Pa] the gear's torque is held against the rudder at: the maximum working pressure
+    where the particulars give one, else the relief setting (``working_pressure``)."""
+    return getattr(unit, "max_working_pressure", None) or unit.working_pressure
+
+
+def _check_rudder(unit: Unit, act: physics.Actuation, out: UnitChecks) -> None:
+    """The gear's least torque at 35 deg against the rudder torque by the rule formula (``kit.rudder``)."""
+    if unit.rudder is None:
+        return
+    load = rudder.rudder_load(unit.rudder)
+    pressure = gear_pressure(unit)
+    out.rudder_load, out.gear_torque_pressure = load, pressure
+    out.gear_torque_35 = physics.least_torque(act, solas.HARD_OVER_RAD, pressure)
+    out.rudder_margin = out.gear_torque_35 / load.torque - 1
+    if out.rudder_margin < 0:
+        course = "ahead" if load.torque_ahead >= load.torque_astern else "astern"
+        out.warnings.append(f"the gear is short: {out.gear_torque_35 / 1e3:,.1f} kNm at 35 deg and {pressure / 1e5:g} bar "
+                            f"against a rudder torque of {load.torque / 1e3:,.1f} kNm {course} by the classification-rule "
+                            f"formula ({-100 * out.rudder_margin:.1f} % short); check the rudder particulars and the gear with "
+                            "the maker and the class society")

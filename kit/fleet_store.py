@@ -27,6 +27,7 @@ from catalog_schema.core_tables import (
     VESSELS,
 )
 from catalog_schema.sql import in_batches, upsert
+from kit.errors import InputError
 from kit.particulars import (
     CylinderGeometry,
     FilterPosition,
@@ -94,6 +95,19 @@ def _power_row(u: Unit) -> dict:
             "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks}
 
 
+def _refuse_unstored(v: Vessel) -> None:
+    """Particulars the database has no column for yet (issue 11 fields) are refused with one line
+    rather than dropped: a rudder or trunnion check must not vanish between the file and the fleet."""
+    for i, u in enumerate(v.units):
+        g = u.geometry
+        unstored = [name for name, value in (
+            ("trunnion_distance", getattr(g, "trunnion_distance", None)), ("gland_spigot_bore", getattr(g, "gland_spigot_bore", None)),
+            ("rudder", u.rudder), ("rudder_carrier", u.rudder_carrier if u.actuator == "rotary_vane" else None)) if value is not None]
+        if unstored:
+            raise InputError(v.source, f"unit[{i}].{unstored[0]}", "particulars the fleet database can store (this field is "
+                             "used by kit calc on the file but not yet stored in the database)", got="a value")
+
+
 def save_vessel(conn: Connection, vessel: Vessel) -> None:
     """Insert or update one vessel and its units, inside the caller's transaction."""
     save_vessels(conn, [vessel])
@@ -107,6 +121,8 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     given twice is saved as its last occurrence, as saving them one after the other would.
     """
     given = list(vessels)
+    for v in given:
+        _refuse_unstored(v)
     ids = [v.id for v in given]
     latest = list({v.id: v for v in given}.values())
     if not latest:
@@ -202,6 +218,7 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
             geometry=_geometry(u.actuator, geometry[u.id][0]), max_rudder_angle=u.max_rudder_angle,
             system_oil=p.system_oil, oil_leakage=p.oil_leakage, isolation_valves=bool(u.isolation_valves),
             pump_model=p.pump_model, valve_blocks=p.valve_blocks,
+            rudder_carrier="separate" if u.service == "steering" and u.actuator != "rotary_vane" else None,
             **{name: tuple(back(r) for r in rows.get(u.id, [])) for name, (rows, back) in children.items()},
         ))
     return [Vessel(v.id, v.name, v.ship_type, v.gross_tonnage, tuple(units_of.get(v.id, ())), v.company, v.source or "")

@@ -13,8 +13,24 @@ ISO 6195:2013, Fluid power systems and components -- Cylinder-rod wiper-ring hou
 reciprocating applications -- Dimensions and tolerances.
 ISO 10766:2015, Hydraulic fluid power -- Cylinders -- Housings for piston and rod guide rings of
 rectangular section -- Dimensions and tolerances.
-The band tables transcribed from these are marked ``from memory`` in ``kit/data``: check every
-series housing against the maker's drawing before ordering.
+The band tables transcribed from these are marked ``from memory`` in ``kit/data`` except where a
+row names the public source it was confirmed from: check every series housing against the maker's
+drawing before ordering.
+
+Scope. Each table records the sizes its standard covers (``kit.tables.SCOPES``). A size past that
+scope but inside the table is sized by the series' proportions and labelled as kit's extrapolation
+(``Housing.past_scope`` says which scope it is past), never as the ISO size.
+
+Wiper housing type. ISO 6195:2013 has five housing types: A (undercut or separate cover,
+elastomeric wiper), B (open, press-fit wiper with a rigid case), C (undercut, the preferred housing
+for double-lip wipers without a rigid case), D (undercut, elastomer-energised plastic-faced
+wipers) and E (undercut or cover, the preferred housing for single-lip wipers). kit sizes type C:
+on a steering ram a double lip both keeps salt and dirt out and holds back the oil film past the
+rod seal, and an elastomeric wiper in an undercut is changed without pressing out a metal case.
+
+Oscillating service. ISO 5597 is for reciprocating seals. The stock and hub seals of a rotary vane
+actuator oscillate; kit sizes their housings by the ISO 5597 rod proportions and labels them as
+kit's sizing for oscillating service, not as ISO 5597 housings.
 """
 
 from __future__ import annotations
@@ -23,7 +39,7 @@ import math
 from dataclasses import dataclass, field
 
 from kit.errors import OutOfSeriesError
-from kit.tables import load_table
+from kit.tables import SCOPES, load_table
 
 STATED_ROLES = ("piston", "rod", "wiper", "guide", "stock")
 LENGTHS = ("short", "medium", "long")
@@ -45,6 +61,7 @@ class Housing:
     origin: str
     extra: dict[str, float] = field(default_factory=dict)
     side: str = ""  # for guide rings: "piston" or "rod"
+    past_scope: str = ""  # the standard's scope this size lies past ("" within it)
 
     @property
     def radial_section(self) -> float:
@@ -60,7 +77,22 @@ def _band(rows: tuple[dict[str, str], ...], nominal_mm: float, series: str) -> d
 
 
 def _seal_rows(role: str) -> tuple[dict[str, str], ...]:
-    return tuple(r for r in load_table("iso5597_2018_housing_bands.csv") if r["role"] == role)
+    return tuple(r for r in load_table(ISO_5597) if r["role"] == role)
+
+
+ISO_5597 = "iso5597_2018_housing_bands.csv"
+ISO_6195 = "iso6195_2013_wiper_bands.csv"
+ISO_10766 = "iso10766_2015_guide_bands.csv"
+
+
+def _labels(table: str, side: str, nominal_mm: float, standard: str) -> tuple[str, str, str]:
+    """(standard, origin, past_scope) for a series size: the standard's own label within its scope,
+    kit's extrapolation past it."""
+    scope = SCOPES[table]
+    if scope.covers(side, nominal_mm):
+        return standard, f"{standard} series", ""
+    return (f"kit extrapolation of {standard}", f"kit's extrapolation of the {standard} series past its scope",
+            scope.text(side))
 
 
 def rod_seal_housing(rod_mm: float, length: str = "medium") -> Housing:
@@ -72,21 +104,34 @@ def rod_seal_housing(rod_mm: float, length: str = "medium") -> Housing:
     """
     row = _band(_seal_rows("rod"), rod_mm, "ISO 5597 rod seal housings")
     s = float(row["radial_section_mm"])
-    return Housing("rod", rod_mm, rod_mm + 2 * s, float(row[f"length_{length}_mm"]), "ISO 5597", "ISO 5597 series")
+    standard, origin, past = _labels(ISO_5597, "rod", rod_mm, "ISO 5597")
+    return Housing("rod", rod_mm, rod_mm + 2 * s, float(row[f"length_{length}_mm"]), standard, origin, past_scope=past)
+
+
+def oscillating_seal_housing(d_mm: float, length: str = "medium") -> Housing:
+    """Housing of a rotary vane stock or hub seal (oscillating service) on a diameter ``d_mm``:
+    sized by the ISO 5597 rod proportions, labelled as kit's sizing (module docstring)."""
+    rod = rod_seal_housing(d_mm, length)
+    extrapolated = " past its scope" if rod.past_scope else ""
+    return Housing("stock", rod.d, rod.D, rod.L, "kit sizing for oscillating service (ISO 5597 rod proportions)",
+                   f"kit's sizing by the ISO 5597 rod series{extrapolated} for an oscillating seal "
+                   "(ISO 5597 is for reciprocating seals)", past_scope=rod.past_scope)
 
 
 def piston_seal_housing(bore_mm: float, length: str = "medium") -> Housing:
     """Piston seal housing in a bore ``bore_mm``: groove diameter d = D - 2 S (ISO 5597)."""
     row = _band(_seal_rows("piston"), bore_mm, "ISO 5597 piston seal housings")
     s = float(row["radial_section_mm"])
-    return Housing("piston", bore_mm - 2 * s, bore_mm, float(row[f"length_{length}_mm"]), "ISO 5597", "ISO 5597 series")
+    standard, origin, past = _labels(ISO_5597, "piston", bore_mm, "ISO 5597")
+    return Housing("piston", bore_mm - 2 * s, bore_mm, float(row[f"length_{length}_mm"]), standard, origin, past_scope=past)
 
 
 def wiper_housing(rod_mm: float) -> Housing:
-    """Wiper-ring housing for a rod ``rod_mm`` (ISO 6195): D = d + 2 S_w."""
-    row = _band(load_table("iso6195_2013_wiper_bands.csv"), rod_mm, "ISO 6195 wiper housings")
+    """Wiper-ring housing for a rod ``rod_mm`` (ISO 6195, housing type C): D = d + 2 S_w."""
+    row = _band(load_table(ISO_6195), rod_mm, "ISO 6195 wiper housings")
     s = float(row["radial_section_mm"])
-    return Housing("wiper", rod_mm, rod_mm + 2 * s, float(row["length_mm"]), "ISO 6195", "ISO 6195 series")
+    standard, origin, past = _labels(ISO_6195, "rod", rod_mm, f"ISO 6195 type {row['housing_type']}")
+    return Housing("wiper", rod_mm, rod_mm + 2 * s, float(row["length_mm"]), standard, origin, past_scope=past)
 
 
 def guide_cut_length(mean_diameter_mm: float) -> float:
@@ -106,11 +151,11 @@ def guide_housing(nominal_mm: float, side: str) -> Housing:
     The strip thickness t sets the groove depth; the cut length is pi x (D - t) less the gap for
     a piston, pi x (d + t) less the gap for a rod.
     """
-    row = _band(load_table("iso10766_2015_guide_bands.csv"), nominal_mm, "ISO 10766 guide ring housings")
+    row = _band(load_table(ISO_10766), nominal_mm, "ISO 10766 guide ring housings")
     t, width = float(row["thickness_mm"]), float(row["width_mm"])
     if side == "piston":
         d, D, mean = nominal_mm - 2 * t, nominal_mm, nominal_mm - t
     else:
         d, D, mean = nominal_mm, nominal_mm + 2 * t, nominal_mm + t
-    return Housing("guide", d, D, width, "ISO 10766", "ISO 10766 series",
-                   {"t": t, "cut": round(guide_cut_length(mean), 1)}, side)
+    standard, origin, past = _labels(ISO_10766, side, nominal_mm, "ISO 10766")
+    return Housing("guide", d, D, width, standard, origin, {"t": t, "cut": round(guide_cut_length(mean), 1)}, side, past)

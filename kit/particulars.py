@@ -18,9 +18,13 @@ from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
+from kit.rudder import POSITION_K3, PROFILE_K2, Rudder
 from kit.units import to_si
 
 SHIP_TYPES = ("cargo", "passenger", "tanker")
+# Where the rudder carrier bearing is: a ram or cylinder gear needs a separate one; a rotary vane
+# actuator may carry the rudder in its own housing.
+RUDDER_CARRIERS = ("separate", "in_actuator")
 ACTUATORS = ("ram", "rotary_vane", "cylinder")
 FLUID_CATEGORIES = ("HL", "HM", "HV", "HG", "HH", "HR", "HETG", "HEES", "HEPG", "HEPR", "HFC", "HFDR", "HFDU")
 
@@ -51,21 +55,25 @@ class Fluid:
 
 @dataclass(frozen=True)
 class RamGeometry:
-    """Ram (plunger) gear with a Rapson slide: ram diameter, stroke, tiller radius at midships."""
+    """Ram (plunger) gear with a Rapson slide: ram diameter, stroke, tiller radius at midships;
+    optionally the bore the gland spigot's O-ring seals against (from the maker's drawing)."""
 
     ram_diameter: float
     stroke: float
     tiller_radius: float | None
+    gland_spigot_bore: float | None = None
 
 
 @dataclass(frozen=True)
 class CylinderGeometry:
-    """Double-acting cylinders: bore, rod, stroke and (for steering) the tiller radius."""
+    """Double-acting cylinders: bore, rod, stroke and (for steering) the tiller radius; optionally
+    the trunnion distance (trunnion axis to tiller pin at midships) for the exact geometry."""
 
     bore: float
     rod: float
     stroke: float
     tiller_radius: float | None
+    trunnion_distance: float | None = None
 
 
 @dataclass(frozen=True)
@@ -144,6 +152,8 @@ class Unit:
     housings: tuple[StatedHousing, ...] = ()
     solenoids: tuple[SolenoidCoils, ...] = ()
     hoses: tuple[Hose, ...] = ()
+    rudder: Rudder | None = None
+    rudder_carrier: str | None = None  # RUDDER_CARRIERS; None for a rotary vane gear that does not say
 
     @property
     def is_steering(self) -> bool:
@@ -278,18 +288,29 @@ def _geometry(r: _Reader, actuator: str, steering: bool) -> RamGeometry | Cylind
     dmax, dtext = MAX_DIAMETER_M, "2 m"
     if actuator == "ram":
         tiller = r.quantity("tiller_radius", "length", maximum=5.0, max_text="5 m") if steering else r.quantity("tiller_radius", "length", None)
-        return RamGeometry(
+        ram = RamGeometry(
             ram_diameter=r.quantity("ram_diameter", "length", maximum=dmax, max_text=dtext),
             stroke=r.quantity("stroke", "length", maximum=MAX_STROKE_M, max_text="5 m"),
             tiller_radius=tiller,
+            gland_spigot_bore=r.quantity("gland_spigot_bore", "length", None, maximum=dmax, max_text=dtext),
         )
+        if ram.gland_spigot_bore is not None and ram.gland_spigot_bore <= ram.ram_diameter:
+            raise InputError(r.source, r._name("gland_spigot_bore"), "a spigot bore larger than the ram diameter",
+                             got=r.table.get("gland_spigot_bore"))
+        return ram
     if actuator == "cylinder":
         bore = r.quantity("bore", "length", maximum=dmax, max_text=dtext)
         rod = r.quantity("rod", "length", maximum=dmax, max_text=dtext)
         if rod >= bore:
             raise InputError(r.source, r._name("rod"), "a rod diameter smaller than the bore", got=r.table.get("rod"))
         tiller = r.quantity("tiller_radius", "length", maximum=5.0, max_text="5 m") if steering else r.quantity("tiller_radius", "length", None)
-        return CylinderGeometry(bore, rod, r.quantity("stroke", "length", maximum=MAX_STROKE_M, max_text="5 m"), tiller)
+        stroke = r.quantity("stroke", "length", maximum=MAX_STROKE_M, max_text="5 m")
+        trunnion = r.quantity("trunnion_distance", "length", None, maximum=2 * MAX_STROKE_M, max_text="10 m")
+        if trunnion is not None and trunnion <= stroke / 2:
+            # At midships the piston is near mid-stroke: the rod alone stands out about half the stroke.
+            raise InputError(r.source, r._name("trunnion_distance"), "a trunnion distance longer than half the stroke",
+                             got=r.table.get("trunnion_distance"))
+        return CylinderGeometry(bore, rod, stroke, tiller, trunnion)
     housing = r.quantity("housing_bore", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m")
     hub = r.quantity("hub_diameter", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m")
     stock = r.quantity("stock_diameter", "length", maximum=MAX_HOUSING_BORE_M, max_text="6 m")
@@ -336,9 +357,42 @@ def _unit(r: _Reader) -> Unit:
         housings=tuple(_housing(h) for h in r.tables("housing")),
         solenoids=tuple(_solenoid(s) for s in r.tables("solenoid")),
         hoses=tuple(_hose(h) for h in r.tables("hose")),
+        rudder=_rudder(r) if steering else None,
+        rudder_carrier=_rudder_carrier(r, actuator, steering),
     )
     r.finish()
     return unit
+
+
+def _rudder_carrier(r: _Reader, actuator: str, steering: bool) -> str | None:
+    """Where the rudder carrier is: always separate on a ram or cylinder gear; stated or unknown on a rotary vane."""
+    if not steering:
+        return None
+    if actuator != "rotary_vane":
+        r.text("rudder_carrier", "separate", choices=("separate",))
+        return "separate"
+    return r.text("rudder_carrier", None, choices=RUDDER_CARRIERS)
+
+
+def _rudder(unit_reader: _Reader) -> Rudder | None:
+    """The optional ``[unit.rudder]`` table (see ``kit.rudder`` for what each figure feeds)."""
+    if not unit_reader.has("rudder"):
+        return None
+    r = _Reader(unit_reader.raw("rudder"), unit_reader.source, unit_reader._name("rudder"))
+    area = r.quantity("area", "area", maximum=200.0, max_text="200 m^2")
+    height = r.quantity("mean_height", "length", maximum=30.0, max_text="30 m")
+    forward = r.quantity("area_forward", "area", positive=False)
+    if forward >= area / 2:
+        # A balanced rudder carries well under half its area ahead of the stock.
+        raise InputError(r.source, r._name("area_forward"), "an area forward of the stock axis less than half the rudder area",
+                         got=r.table.get("area_forward"))
+    speed_max, speed_text = 40 * 1852 / 3600, "40 kn"
+    rudder = Rudder(area, height, forward,
+                    r.quantity("ahead_speed", "speed", maximum=speed_max, max_text=speed_text),
+                    r.text("profile", choices=tuple(PROFILE_K2)), r.text("position", choices=tuple(POSITION_K3)),
+                    r.quantity("astern_speed", "speed", None, maximum=speed_max, max_text=speed_text))
+    r.finish()
+    return rudder
 
 
 def _filter(r: _Reader) -> FilterPosition:

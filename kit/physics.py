@@ -13,13 +13,42 @@ function x(theta):
 * Rotary vane: each of the ``vanes`` pressurised chambers sweeps h (R^2 - r^2) / 2 per radian
   (R = housing bore / 2, r = hub / 2), so T = p vanes h (R^2 - r^2) / 2 at every angle.
 * Trunnion cylinders: each cylinder is pinned to the tiller at radius R and swings on its
-  trunnion. Taking the cylinder long against the tiller (its axis keeps its midships direction)
-  the piston moves x = R sin(theta); of every pair one cylinder pushes on its full bore and the
-  other pulls on its annulus, so V(theta) = (count / 2) (A_bore + A_annulus) R sin(theta) and
-  T(theta) = (count / 2) p (A_bore + A_annulus) R cos(theta).
+  trunnion; of every pair one cylinder pushes on its full bore and the other pulls on its
+  annulus. With the trunnion position known (``trunnion_distance`` a, see below) kit uses the
+  exact geometry. Without it kit takes the cylinder long against the tiller (its axis keeps its
+  midships direction): the piston moves x = R sin(theta), so
+  V(theta) = (count / 2) (A_bore + A_annulus) R sin(theta) and
+  T(theta) = (count / 2) p (A_bore + A_annulus) R cos(theta), and says so in a warning.
+
+Exact trunnion geometry (virtual work)
+--------------------------------------
+Put the stock axis at the origin and the tiller along x at midships, the tiller pin at
+P(theta) = R (cos theta, sin theta). The cylinder axis is square to the tiller at midships, so
+the trunnion of the cylinder that extends for positive theta sits at Q = (R, -a), a the distance
+from trunnion axis to tiller pin at midships. The pin-to-trunnion length is
+
+    L(theta)^2 = (R cos theta - R)^2 + (R sin theta + a)^2
+               = a^2 + 2 R^2 (1 - cos theta) + 2 a R sin theta,
+    dL/dtheta  = R (R sin theta + a cos theta) / L(theta).
+
+The pair's other cylinder is the mirror image (on the opposite tiller arm, or on the same arm
+from the other side): its length is L(-theta), and it shortens as theta grows. Moving in the
+direction of positive theta, the first cylinder pushes with p on A_bore over dL(theta) and the
+second pulls with p on A_annulus over -d[L(-theta)] = L'(-theta) dtheta. Virtual work,
+T dtheta = p dV, gives per pair
+
+    T+(theta) = p [A_bore L'(theta) + A_annulus L'(-theta)],
+
+and the oil the pressurised chambers take from theta1 to theta2 is
+V(theta2) - V(theta1) with V(theta) = A_bore (L(theta) - a) - A_annulus (L(-theta) - a).
+Moving the other way the roles swap: T-(theta) = T+(-theta). At the hard-over angle the gear
+holds the rudder with the smaller of the two, so ``torque_knm.max_angle`` is the least of
+T+(theta_max) and T+(-theta_max). Each cylinder travels L(theta_max) - L(-theta_max) between
+hard-over angles. As a grows, L -> a + R sin theta and both results tend to the long-cylinder
+approximation above.
 
 Swing time from angle a one side to angle b the other side is the oil taken,
-V(a) + V(b), over the delivered flow.
+V(b) - V(-a), over the delivered flow; every V here is measured from midships.
 
 References
 ----------
@@ -63,15 +92,48 @@ def vane_swept_per_radian(g: VaneGeometry) -> float:
 def vane_actuation(g: VaneGeometry) -> Actuation:
     """Rotary vane: V = vanes h (R^2 - r^2) / 2 x theta, T = p vanes h (R^2 - r^2) / 2."""
     q = vane_swept_per_radian(g)
-    return Actuation(lambda th: q * abs(th), lambda th, p: p * q)
+    return Actuation(lambda th: q * th, lambda th, p: p * q)
 
 
 def cylinder_actuation(g: CylinderGeometry, count: int) -> Actuation:
-    """Trunnion cylinders in pairs: V = n (A_b + A_a) R sin(theta), T = n p (A_b + A_a) R cos(theta)."""
+    """Trunnion cylinders in pairs: the exact geometry when the trunnion position is given, else the
+    long-cylinder approximation V = n (A_b + A_a) R sin(theta), T = n p (A_b + A_a) R cos(theta)."""
+    if g.trunnion_distance is not None:
+        return trunnion_actuation(g, count)
     n = count / 2
     area = circle_area(g.bore) + (circle_area(g.bore) - circle_area(g.rod))
     r = g.tiller_radius
     return Actuation(lambda th: n * area * r * math.sin(th), lambda th, p: n * p * area * r * math.cos(th))
+
+
+def trunnion_length(g: CylinderGeometry, theta: float) -> float:
+    """Pin-to-trunnion length L(theta) = sqrt(a^2 + 2 R^2 (1 - cos theta) + 2 a R sin theta) [m]
+    (module docstring: exact trunnion geometry)."""
+    a, r = g.trunnion_distance, g.tiller_radius
+    return math.sqrt(a * a + 2 * r * r * (1 - math.cos(theta)) + 2 * a * r * math.sin(theta))
+
+
+def trunnion_rate(g: CylinderGeometry, theta: float) -> float:
+    """dL/dtheta = R (R sin theta + a cos theta) / L(theta) [m/rad]."""
+    a, r = g.trunnion_distance, g.tiller_radius
+    return r * (r * math.sin(theta) + a * math.cos(theta)) / trunnion_length(g, theta)
+
+
+def trunnion_actuation(g: CylinderGeometry, count: int) -> Actuation:
+    """Exact trunnion pairs by virtual work: T+ = n p [A_b L'(theta) + A_a L'(-theta)],
+    V = n [A_b (L(theta) - a) - A_a (L(-theta) - a)], n = count / 2 (module docstring)."""
+    n = count / 2
+    a_b = circle_area(g.bore)
+    a_a = a_b - circle_area(g.rod)
+    a = g.trunnion_distance
+
+    def volume(th: float) -> float:
+        return n * (a_b * (trunnion_length(g, th) - a) - a_a * (trunnion_length(g, -th) - a))
+
+    def torque(th: float, p: float) -> float:
+        return n * p * (a_b * trunnion_rate(g, th) + a_a * trunnion_rate(g, -th))
+
+    return Actuation(volume, torque)
 
 
 def actuation(unit: Unit) -> Actuation:
@@ -84,8 +146,15 @@ def actuation(unit: Unit) -> Actuation:
 
 
 def swing_volume(act: Actuation, from_angle: float, to_angle: float) -> float:
-    """Oil [m^3] the pressurised chambers take to swing from ``from_angle`` one side to ``to_angle`` the other."""
-    return act.volume(from_angle) + act.volume(to_angle)
+    """Oil [m^3] the pressurised chambers take to swing from ``from_angle`` one side to ``to_angle`` the other:
+    V(to) - V(-from), V measured from midships (for the symmetric actuators V(to) + V(from))."""
+    return act.volume(to_angle) - act.volume(-from_angle)
+
+
+def least_torque(act: Actuation, angle: float, pressure: float) -> float:
+    """The smaller torque [N m] at ``angle`` of the two directions of motion: T+(angle) and
+    T-(angle) = T+(-angle) (equal for the symmetric actuators; not for exact trunnion pairs)."""
+    return min(act.torque(angle, pressure), act.torque(-angle, pressure))
 
 
 def swing_time(volume: float, flow: float) -> float:
@@ -99,8 +168,15 @@ def ram_travel(tiller_radius: float, max_angle: float) -> float:
 
 
 def cylinder_travel(tiller_radius: float, max_angle: float) -> float:
-    """Total piston travel 2 R sin(theta_max) of a trunnion cylinder between hard-over angles [m]."""
+    """Total piston travel 2 R sin(theta_max) of a trunnion cylinder between hard-over angles [m]
+    (long-cylinder approximation)."""
     return 2 * tiller_radius * math.sin(max_angle)
+
+
+def trunnion_travel(g: CylinderGeometry, max_angle: float) -> float:
+    """Total piston travel L(theta_max) - L(-theta_max) of a trunnion cylinder between hard-over
+    angles [m], exact geometry (module docstring)."""
+    return trunnion_length(g, max_angle) - trunnion_length(g, -max_angle)
 
 
 def actuator_oil_volume(unit: Unit) -> float:

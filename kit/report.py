@@ -63,6 +63,10 @@ def unit_json(u: UnitResult) -> dict[str, Any]:
         "swing_rule_met": c.swing_rule_met,
         "swing_rule_case": c.judging_case,
         "travel_mm": _r(c.travel and c.travel * 1000), "stroke_mm": _r(c.stroke and c.stroke * 1000),
+        "torque_basis": c.torque_basis,
+        "swing_oil_l": _r(c.swing_oil and c.swing_oil * L_PER_M3),
+        **rudder_json(c),
+        "inspections": c.inspections,
         "system_oil_l": _r(u.system_oil * L_PER_M3), "system_oil_basis": u.system_oil_basis,
         "storage_tank_min_l": _r(u.storage_tank_min and u.storage_tank_min * L_PER_M3),
         "top_up_l": _r(u.top_up * L_PER_M3, 2),
@@ -70,6 +74,19 @@ def unit_json(u: UnitResult) -> dict[str, Any]:
         "filters": [{"position": f.position, "elements": f.elements, "elements_per_change": f.elements_per_change,
                      "changes_due": f.changes, "spare_sets": f.spare_sets} for f in u.filters],
         "warnings": u.warnings,
+    }
+
+
+def rudder_json(c) -> dict[str, Any]:
+    """The gear against the rudder: rule torques ahead and astern, the gear's least torque at 35 deg
+    at its maximum working pressure, and the margin (null without a [unit.rudder] table)."""
+    load = c.rudder_load
+    return {
+        "rudder_torque_knm": None if load is None else {"ahead": _r(load.torque_ahead * KNM), "astern": _r(load.torque_astern * KNM)},
+        "rudder_force_kn": None if load is None else {"ahead": _r(load.force_ahead * KNM), "astern": _r(load.force_astern * KNM)},
+        "gear_torque_35_knm": _r(c.gear_torque_35 and c.gear_torque_35 * KNM),
+        "gear_torque_pressure_bar": _r(c.gear_torque_pressure and c.gear_torque_pressure / 1e5),
+        "rudder_torque_margin_pct": None if c.rudder_margin is None else round(100 * c.rudder_margin, 1),
     }
 
 
@@ -120,12 +137,19 @@ def render(r: VesselResult, console) -> None:
         t.add_column("against")
         if u["torque_knm"]["midships"] is not None:
             t.add_row("torque at relief setting, midships", _fmt(u["torque_knm"]["midships"], " kNm"), "")
-            t.add_row("torque at relief setting, max angle", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
+            t.add_row("torque at relief setting, max angle (least of both directions)", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
             s = u["swing_time_s"]
             t.add_row("swing 35 deg to 30 deg, one pump", _fmt(s["one_pump"], " s"), "")
             t.add_row("swing 35 deg to 30 deg, all pumps", _fmt(s["all_pumps"], " s"), "")
             verdict = "[green]met[/green]" if u["swing_rule_met"] else "[red]NOT MET[/red]"
             t.add_row("swing time judged", _fmt(s["judged"], " s"), f"28 s, {u['swing_rule_case']}: {verdict}")
+            t.add_row("torque basis", "", u["torque_basis"] or "")
+        if u["rudder_torque_knm"] is not None:
+            q = u["rudder_torque_knm"]
+            t.add_row("rudder torque ahead / astern", f"{_fmt(q['ahead'])} / {_fmt(q['astern'])} kNm", "classification-rule formula")
+            short = u["rudder_torque_margin_pct"] < 0
+            t.add_row(f"gear torque at 35 deg, {u['gear_torque_pressure_bar']:g} bar", _fmt(u["gear_torque_35_knm"], " kNm"),
+                      f"margin {u['rudder_torque_margin_pct']:+.1f} %: " + ("[red]SHORT[/red]" if short else "[green]enough[/green]"))
         if u["travel_mm"] is not None:
             t.add_row("travel between hard-over angles", _fmt(u["travel_mm"], " mm", 0), f"stroke {_fmt(u['stroke_mm'], ' mm', 0)}")
         t.add_row("system charge", _fmt(u["system_oil_l"], " L"), u["system_oil_basis"])
@@ -140,6 +164,8 @@ def render(r: VesselResult, console) -> None:
             seals.add_row(s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
                           str(s["qty"]), s["compound"], s["origin"])
         console.print(seals)
+        for line in u["inspections"]:
+            console.print(f"inspect {u['id']}: {line}")
         for w in u["warnings"]:
             console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
     lines = Table(title="Requirement list (to keep on board)", title_justify="left")

@@ -13,13 +13,14 @@ from collections import defaultdict
 from dataclasses import dataclass, field
 
 from kit import filters, oil, solas
-from kit.checks import UnitChecks, check_unit
+from kit.checks import CARRIER_PLACE, UnitChecks, check_unit
 from kit.oil import PackagePlan
 from kit.parts import PART_KINDS, LineItem, fmt_mm, part_key
 from kit.particulars import Fluid, Unit, Vessel
 from kit.seal_kit import SealKit, SealLine, build_seal_kit
 from kit.spares import Policy, PolicyItem
 
+CARRIER_KINDS = ("carrier_seal_set", "carrier_bearing_parts")
 SERIES_NOTE = "series housing: check against the maker's drawing before ordering"
 M3_TO_L = 1000.0
 
@@ -130,6 +131,9 @@ def spare_lines(unit: Unit, policy: Policy, vessel_id: str) -> list[LineItem]:
         elif item.kind == "pump_shaft_seal":
             model = unit.pump_model or f"pump of unit {unit.id} (model not stated)"
             lines.append(_spare(unit, item, model, item.quantity, model))
+        elif item.kind in CARRIER_KINDS and unit.is_steering:
+            lines.append(_spare(unit, item, f"{CARRIER_PLACE[unit.rudder_carrier]} of {unit.service} unit {unit.id}",
+                                item.quantity, f"{vessel_id}:{unit.id}"))
     return lines
 
 

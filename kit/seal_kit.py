@@ -4,12 +4,19 @@
 What an actuator carries (per actuator; common practice for the counts):
 
 * ram (a plunger): at the ram diameter one rod seal, one wiper, two guide rings (rod side), and
-  one static O-ring on the gland spigot;
+  one static O-ring on the gland spigot. The spigot's bore is ``gland_spigot_bore`` when the
+  particulars give it (the maker's drawing); otherwise kit assumes the next ISO 3320 cylinder bore
+  above the gland's seal housings (the spigot must clear the housings cut in the gland, and the
+  cylinder mouth it enters is a cylinder bore), and says so in a warning;
 * double-acting cylinder: at the bore one piston seal and two piston guide rings; at the rod one
   rod seal, one wiper and one guide ring; two static O-rings at the bore (head-end cover and gland);
 * rotary vane (the whole actuator): a seal strip on every moving and every fixed vane
   (2 x vanes strips of length h + 2 (R - r)), a static O-ring or cord on each of the two covers at
-  the housing bore, and a rotary seal at the stock and at the hub in each cover.
+  the housing bore, and a rotary seal at the stock and at the hub in each cover, labelled for
+  oscillating service (sized by the ISO 5597 rod proportions; ISO 5597 is for reciprocating seals).
+
+A series size past its standard's scope is kit's extrapolation: the line says so and a warning
+names the part (ram, rod, bore, stock, hub).
 
 A housing stated in the particulars (the maker's drawing) wins over the series; every line says
 where its dimensions came from.
@@ -53,7 +60,7 @@ def _stated(unit: Unit, role: str) -> StatedHousing | None:
     return next((h for h in unit.housings if h.role == role), None)
 
 
-def _housing(unit: Unit, role: str, build, nominal_mm: float, kit: SealKit) -> Housing | None:
+def _housing(unit: Unit, role: str, build, nominal_mm: float, kit: SealKit, what: str = "") -> Housing | None:
     stated = _stated(unit, role)
     if stated:
         d, D, L = (mm(x) for x in (stated.d, stated.D, stated.L))
@@ -62,16 +69,22 @@ def _housing(unit: Unit, role: str, build, nominal_mm: float, kit: SealKit) -> H
             t = (D - d) / 2
             extra = {"t": t, "cut": round(housings.guide_cut_length(d + t), 1)}
         return Housing(role, d, D, L, "maker's drawing", DRAWING, extra, "rod" if role == "guide" else "")
-    return _from_series(build, nominal_mm, kit, f"{role} housing")
+    return _from_series(build, nominal_mm, kit, what or f"{role} housing")
 
 
 def _from_series(build, nominal_mm: float, kit: SealKit, what: str):
-    """``build(nominal_mm)``, or None with a warning when the size lies outside the series."""
+    """``build(nominal_mm)``, or None with a warning when the size lies outside the series; a
+    warning too when the size is past the standard's scope (kit's extrapolation)."""
     try:
-        return build(nominal_mm)
+        built = build(nominal_mm)
     except OutOfSeriesError as exc:
         kit.warnings.append(f"{what}: {exc}; take its dimensions from the maker's drawing")
         return None
+    if getattr(built, "past_scope", ""):
+        kit.warnings.append(f"{what}: {nominal_mm:g} mm is past the standard's scope ({built.past_scope}); sized by the "
+                            "series' proportions as kit's extrapolation, not an ISO size: take its dimensions from the "
+                            "maker's drawing")
+    return built
 
 
 def mm(metres: float) -> float:
@@ -104,25 +117,33 @@ def build_seal_kit(unit: Unit, housing_length: str = "medium", stated_compound: 
         w = series.check("rod", g.ram_diameter).warning()
         if w:
             kit.warnings.append(w.replace("rod ", "ram ", 1))
-        rod_h = _housing(unit, "rod", rod, d, kit)
+        rod_h = _housing(unit, "rod", rod, d, kit, "ram rod seal housing")
         add("rod", "ram gland rod seal", 1, rod_h, dyn.compound)
-        wiper_h = _housing(unit, "wiper", housings.wiper_housing, d, kit)
+        wiper_h = _housing(unit, "wiper", housings.wiper_housing, d, kit, "ram wiper housing")
         add("wiper", "ram gland wiper", 1, wiper_h, dyn.compound)
-        add("guide", "ram gland guide ring", 2, _guide(unit, d, "rod", kit), guide_compound)
-        spigot = _next_bore_above(max(h.D for h in (rod_h, wiper_h) if h) if (rod_h or wiper_h) else d)
+        guide_h = _guide(unit, d, "rod", kit, "ram guide ring housing")
+        add("guide", "ram gland guide ring", 2, guide_h, guide_compound)
+        if g.gland_spigot_bore is not None:
+            spigot = mm(g.gland_spigot_bore)
+            part = f"gland spigot O-ring (spigot bore {spigot:g} mm from the particulars)"
+        else:
+            spigot = _next_bore_above(max((h.D for h in (rod_h, wiper_h, guide_h) if h), default=d))
+            part = f"gland spigot O-ring (assumed spigot bore {spigot:g} mm: next ISO 3320 bore above the gland housings)"
+            kit.warnings.append(f"gland spigot O-ring sized on an assumed spigot bore of {spigot:g} mm (the next ISO 3320 "
+                                "bore above the gland's seal housings); state gland_spigot_bore from the maker's drawing")
         fit = _from_series(orings.static_oring, spigot, kit, "gland O-ring")
-        add("o-ring", f"gland spigot O-ring (assumed spigot {spigot:g} mm, next ISO 3320 bore above the gland housings)", 1, None, sta.compound, oring=fit)
+        add("o-ring", part, 1, None, sta.compound, oring=fit)
     elif isinstance(g, CylinderGeometry):
         bore, rd = mm(g.bore), mm(g.rod)
         for kind, size in (("bore", g.bore), ("rod", g.rod)):
             w = series.check(kind, size).warning()
             if w:
                 kit.warnings.append(w)
-        add("piston", "piston seal", 1, _housing(unit, "piston", piston, bore, kit), dyn.compound)
-        add("guide", "piston guide ring", 2, _guide(unit, bore, "piston", kit), guide_compound)
-        add("rod", "rod seal", 1, _housing(unit, "rod", rod, rd, kit), dyn.compound)
-        add("wiper", "wiper", 1, _housing(unit, "wiper", housings.wiper_housing, rd, kit), dyn.compound)
-        add("guide", "rod guide ring", 1, _guide(unit, rd, "rod", kit), guide_compound)
+        add("piston", "piston seal", 1, _housing(unit, "piston", piston, bore, kit, "cylinder bore piston seal housing"), dyn.compound)
+        add("guide", "piston guide ring", 2, _guide(unit, bore, "piston", kit, "cylinder bore guide ring housing"), guide_compound)
+        add("rod", "rod seal", 1, _housing(unit, "rod", rod, rd, kit, "cylinder rod seal housing"), dyn.compound)
+        add("wiper", "wiper", 1, _housing(unit, "wiper", housings.wiper_housing, rd, kit, "cylinder rod wiper housing"), dyn.compound)
+        add("guide", "rod guide ring", 1, _guide(unit, rd, "rod", kit, "cylinder rod guide ring housing"), guide_compound)
         add("o-ring", "end cover and gland O-ring", 2, None, sta.compound, oring=_from_series(orings.static_oring, bore, kit, "cover O-ring"))
     else:
         big_r, small_r = mm(g.housing_bore) / 2, mm(g.hub_diameter) / 2
@@ -131,12 +152,15 @@ def build_seal_kit(unit: Unit, housing_length: str = "medium", stated_compound: 
             strip_length_mm=round(h + 2 * (big_r - small_r), 1), strip_height_mm=h)
         add("o-ring", "cover O-ring (upper and lower cover)", 2, None, sta.compound,
             oring=_from_series(orings.static_oring, mm(g.housing_bore), kit, "cover O-ring"))
-        add("stock", "stock seal (upper and lower)", 2, _housing(unit, "stock", rod, mm(g.stock_diameter), kit), dyn.compound)
-        add("stock", "hub seal (upper and lower cover)", 2, _from_series(rod, mm(g.hub_diameter), kit, "hub seal housing"), dyn.compound)
+        oscillating = lambda d: housings.oscillating_seal_housing(d, housing_length)  # noqa: E731
+        add("stock", "stock seal, oscillating service (upper and lower)", 2,
+            _housing(unit, "stock", oscillating, mm(g.stock_diameter), kit, "stock seal housing"), dyn.compound)
+        add("stock", "hub seal, oscillating service (upper and lower cover)", 2,
+            _from_series(oscillating, mm(g.hub_diameter), kit, "hub seal housing"), dyn.compound)
     return kit
 
 
-def _guide(unit: Unit, nominal: float, side: str, kit: SealKit) -> Housing | None:
+def _guide(unit: Unit, nominal: float, side: str, kit: SealKit, what: str) -> Housing | None:
     if side == "rod":
-        return _housing(unit, "guide", lambda x: housings.guide_housing(x, "rod"), nominal, kit)
-    return _from_series(lambda x: housings.guide_housing(x, "piston"), nominal, kit, "piston guide housing")
+        return _housing(unit, "guide", lambda x: housings.guide_housing(x, "rod"), nominal, kit, what)
+    return _from_series(lambda x: housings.guide_housing(x, "piston"), nominal, kit, what)

@@ -20,7 +20,8 @@ from kit.oil import Package
 from kit.units import to_si
 
 PER = ("unit", "actuator", "actuator_size", "voltage", "valve_block", "hose_size", "pump_model")
-ITEM_KINDS = ("seal_set", "storage_oil", "solenoid_coil", "valve_seal_kit", "relief_cartridge", "hose", "pump_shaft_seal")
+ITEM_KINDS = ("seal_set", "storage_oil", "solenoid_coil", "valve_seal_kit", "relief_cartridge", "hose", "pump_shaft_seal",
+              "carrier_seal_set", "carrier_bearing_parts")
 DEFAULT_SOURCE = "kit default spares policy"
 
 

@@ -24,6 +24,8 @@ KINDS: dict[str, tuple[str, str]] = {
     "angle": ("", "rad"),
     "mass": ("[mass]", "kg"),
     "voltage": ("[mass] * [length] ** 2 / [current] / [time] ** 3", "V"),
+    "area": ("[length] ** 2", "m**2"),
+    "speed": ("[length] / [time]", "m/s"),
 }
 
 EXAMPLES = {
@@ -35,6 +37,8 @@ EXAMPLES = {
     "angle": '"35 deg"',
     "mass": '"25 kg"',
     "voltage": '"24 V"',
+    "area": '"12.5 m^2"',
+    "speed": '"15 kn"',
 }
 
 
@@ -71,6 +75,8 @@ COMMON_FACTORS: dict[str, dict[str, float]] = {
     "angle": {"deg": 0.017453292519943295, "degree": 0.017453292519943295, "degrees": 0.017453292519943295, "rad": 1.0},
     "mass": {"kg": 1.0, "t": 1000.0},
     "voltage": {"V": 1.0},
+    "area": {"m^2": 1.0, "m**2": 1.0},
+    "speed": {"kn": 1852 / 3600, "knot": 1852 / 3600, "knots": 1852 / 3600, "m/s": 1.0},  # 1 kn = 1852 m/h
 }
 
 # "<number> <unit words>": the number, then the unit as written.

@@ -227,7 +227,10 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
             ("Swing 35-30 one pump [s]", 11, None), ("Swing 35-30 all pumps [s]", 11, None),
             ("Swing judged [s]", 10, None), ("Judged on", 40, None), ("Limit [s]", 8, None), ("28 s rule", 9, None),
             ("Travel [mm]", 10, None), ("Stroke [mm]", 10, None), ("Travel within stroke", 10, None),
-            ("Working pressure [bar]", 11, None), ("Pressure within ratings", 10, None), ("Warnings", 80, None))
+            ("Working pressure [bar]", 11, None), ("Pressure within ratings", 10, None), ("Warnings", 80, None),
+            ("Torque basis", 40, None), ("Rudder torque ahead [kNm]", 12, None), ("Rudder torque astern [kNm]", 12, None),
+            ("Gear torque at 35 deg [kNm]", 12, None), ("Gear torque pressure [bar]", 11, None),
+            ("Margin over rudder torque [%]", 11, None))
     sheet = _Sheet(wb, "Gear checks", cols)
     yes = {True: "yes", False: "NO", None: None}
     for r in order.results:
@@ -240,8 +243,18 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
                           s(c.swing_time_judged), c.judging_case, 28 if u.unit.is_steering else None,
                           yes[c.swing_rule_met], None if c.travel is None else round(c.travel * 1000),
                           None if c.stroke is None else round(c.stroke * 1000), yes[c.travel_ok],
-                          round(u.unit.working_pressure / 1e5, 1), yes[c.pressure_ok], " | ".join(u.warnings)])
+                          round(u.unit.working_pressure / 1e5, 1), yes[c.pressure_ok], " | ".join(u.warnings),
+                          *_rudder_cells(c)])
     sheet.finish()
+
+
+def _rudder_cells(c) -> list:
+    """Torque basis and the gear against the rudder (kNm, bar, %), blank where not worked out."""
+    load = c.rudder_load
+    k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
+    return [c.torque_basis, k(load and load.torque_ahead), k(load and load.torque_astern), k(c.gear_torque_35),
+            None if c.gear_torque_pressure is None else round(c.gear_torque_pressure / 1e5, 1),
+            None if c.rudder_margin is None else round(100 * c.rudder_margin, 1)]
 
 
 MAX_VESSELS_LISTED = 12

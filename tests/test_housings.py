@@ -39,17 +39,19 @@ def test_band_edges_belong_to_the_lower_band():
 
 
 def test_wiper_housing():
-    # ISO 6195:2013 (from memory): rod over 250 up to 500 mm, S = 12.5 mm, L = 16 mm.
+    # ISO 6195:2013 (from memory): rod over 250 up to 360 mm, S = 12.5 mm, L = 16 mm; housing type C
+    # (ISO 6195:2013 abstract: type C is the preferred housing for double-lip wipers).
     h = housings.wiper_housing(280)
-    assert (h.d, h.D, h.L, h.standard) == (280, 305, 16, "ISO 6195")
+    assert (h.d, h.D, h.L, h.standard) == (280, 305, 16, "ISO 6195 type C")
 
 
 def test_guide_ring_cut_length_by_hand():
-    # ISO 10766:2015 (from memory): over 250 up to 500 mm, strip t = 4 mm, width 25 mm.
-    h = housings.guide_housing(280, "rod")
+    # ISO 10766 (t 4 mm in a 25 mm groove: Trelleborg Orkot Slydring catalogue 2011, table XLII;
+    # band over 250 up to 500 mm from memory).
+    h = housings.guide_housing(290, "rod")
     t = 4.0
-    assert (h.d, h.D, h.L, h.side) == (280, 280 + 2 * t, 25, "rod")
-    circumference = math.pi * (280 + t)
+    assert (h.d, h.D, h.L, h.side) == (290, 290 + 2 * t, 25, "rod")
+    circumference = math.pi * (290 + t)
     gap = max(1.5, 0.01 * circumference)  # cut gap: 1 % of the circumference, at least 1.5 mm (common practice)
     assert h.extra["t"] == t
     assert h.extra["cut"] == pytest.approx(circumference - gap, abs=0.05)

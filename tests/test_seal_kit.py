@@ -25,9 +25,32 @@ def test_ram_kit():
     assert wiper.housing == housings.wiper_housing(280)
     assert guide.housing == housings.guide_housing(280, "rod")
     assert (rod.compound, oring.compound) == ("AU", "NBR")  # mineral oil (common practice)
-    # Spigot: next ISO 3320 bore above the larger gland housing D (310 mm): 320 mm (from memory).
+    # Spigot: next ISO 3320 bore above the larger gland housing D (310 mm): 320 mm (from memory),
+    # an assumption the kit says it made.
     assert oring.oring == orings.static_oring(320.0)
+    assert kit.warnings == ["gland spigot O-ring sized on an assumed spigot bore of 320 mm (the next ISO 3320 bore "
+                            "above the gland's seal housings); state gland_spigot_bore from the maker's drawing"]
+
+
+def test_ram_gland_spigot_from_the_particulars():
+    # A spigot bore stated from the maker's drawing is used as it is, and nothing is assumed.
+    kit = build_seal_kit(unit(ram_unit(ram_diameter="280 mm", gland_spigot_bore="330 mm")))
+    oring = kit.lines[-1]
+    assert oring.oring == orings.static_oring(330.0)
+    assert "from the particulars" in oring.part
     assert kit.warnings == []
+
+
+def test_vane_stock_and_hub_seals_are_labelled_for_oscillating_service_and_past_scope():
+    # ISO 5597 is for reciprocating seals, rods 6-360 mm (from memory): a 380 mm stock and a 500 mm
+    # hub are sized by its rod proportions as kit's extrapolation, for oscillating service.
+    kit = build_seal_kit(unit(vane_unit()))
+    stock, hub = [s for s in kit.lines if s.role == "stock"]
+    assert "oscillating" in stock.part and "oscillating" in hub.part
+    assert stock.housing.standard == "kit sizing for oscillating service (ISO 5597 rod proportions)"
+    assert (stock.housing.d, stock.housing.D) == (380, housings.rod_seal_housing(380).D)
+    assert [w.split(":")[0] for w in kit.warnings] == ["stock seal housing", "hub seal housing"]
+    assert "ISO 5597 covers rods of 6-360 mm" in kit.warnings[0]
 
 
 def test_cylinder_kit():
@@ -80,7 +103,7 @@ def test_out_of_series_housing_warns_and_drops_the_line():
     # A 1 m vane stock is past the ISO 5597 rod housings (800 mm, from memory).
     kit = build_seal_kit(unit(vane_unit(housing_bore="2000 mm", hub_diameter="1200 mm", stock_diameter="1000 mm")))
     assert [s.housing.d for s in kit.lines if s.role == "stock"] == []
-    assert kit.warnings[0] == ("stock housing: 1000 mm lies outside ISO 5597 rod seal housings (limit 800 mm); "
+    assert kit.warnings[0] == ("stock seal housing: 1000 mm lies outside ISO 5597 rod seal housings (limit 800 mm); "
                                "take its dimensions from the maker's drawing")
 
 
