@@ -4,14 +4,16 @@
 For a steering unit: torque at the relief setting at midships and at the maximum rudder angle,
 the swing time from 35 deg one side to 30 deg the other with one pump and with all pumps against
 the 28 s of SOLAS II-1/29.3.2 (judged on the case SOLAS II-1/29.6.1 sets, see ``kit.solas``),
-ram or piston travel against the stroke, and for every unit the working pressure against the
-ratings in the spares policy.
+the angle the stroke lets the rudder reach, the pump flow each pump needs for 28 s in that
+case, the reduced mode after a single failure, one verdict per rule of regulation 29
+(``kit.solas.judge``), ram or piston travel against the stroke, and for every unit the working
+pressure against the ratings in the spares policy.
 """
 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 from kit import physics, solas
 from kit.particulars import CylinderGeometry, RamGeometry, Unit, Vessel
@@ -33,6 +35,11 @@ class UnitChecks:
     travel_ok: bool | None = None
     pressure_ok: bool = True
     warnings: list[str] = field(default_factory=list)
+    reachable_angle: float | None = None  # rad, the most each side that stops and stroke allow
+    pump_flow_needed: float | None = None  # m^3/s each pump, for 28 s in the judged case
+    reduced: solas.ReducedMode | None = None
+    rules: list[solas.RuleResult] = field(default_factory=list)
+    auxiliary_gear_required: bool | None = None
 
 
 def check_unit(unit: Unit, vessel: Vessel, policy: Policy) -> UnitChecks:
@@ -56,19 +63,43 @@ def check_unit(unit: Unit, vessel: Vessel, policy: Policy) -> UnitChecks:
     out.swing_time_all_pumps = physics.swing_time(volume, unit.pump_flow * unit.pumps)
     out.swing_time_judged = physics.swing_time(volume, unit.pump_flow * case.pumps_running)
     out.judging_case, out.pumps_judged = case.reason, case.pumps_running
-    out.swing_rule_met = out.swing_time_judged <= solas.SWING_LIMIT_S
-    out.warnings += case.warnings
-    if not out.swing_rule_met:
-        out.warnings.append(f"swing 35-30 deg takes {out.swing_time_judged:.1f} s with {case.pumps_running} pump(s), "
-                            f"more than the 28 s of SOLAS II-1/29.3.2 ({case.reason})")
+    out.pump_flow_needed = volume / solas.SWING_LIMIT_S / case.pumps_running
     g = unit.geometry
+    travel_at = None
     if isinstance(g, RamGeometry):
-        out.travel, out.stroke = physics.ram_travel(g.tiller_radius, theta_max), g.stroke
+        travel_at = lambda th: physics.ram_travel(g.tiller_radius, th)  # noqa: E731
     elif isinstance(g, CylinderGeometry):
-        out.travel, out.stroke = physics.cylinder_travel(g.tiller_radius, theta_max), g.stroke
+        travel_at = lambda th: physics.cylinder_travel(g.tiller_radius, th)  # noqa: E731
+    if travel_at is not None:
+        out.travel, out.stroke = travel_at(theta_max), g.stroke
+    out.reachable_angle = theta_max if travel_at is None else physics.reachable_angle(travel_at, g.stroke, theta_max)
+    out.swing_rule_met = out.reachable_angle >= solas.HARD_OVER_RAD - 1e-9 and out.swing_time_judged <= solas.SWING_LIMIT_S
+    out.reduced = reduced_mode(unit) if unit.isolation_valves else None
+    verdicts = solas.judge(solas.GearFigures(
+        vessel.ship_type, vessel.gross_tonnage, unit.pumps, out.reachable_angle, out.swing_time_all_pumps,
+        out.swing_time_judged, unit.isolation_valves, unit.working_pressure, unit.stock_diameter,
+        unit.max_working_pressure, unit.design_pressure, out.reduced))
+    out.rules, out.auxiliary_gear_required = list(verdicts.rules), verdicts.auxiliary_gear_required
+    out.warnings += verdicts.warnings
     if out.travel is not None:
         out.travel_ok = out.travel <= out.stroke
         if not out.travel_ok:
             out.warnings.append(f"travel to {math.degrees(theta_max):g} deg each side is {out.travel * 1000:.0f} mm, "
                                 f"more than the stroke {out.stroke * 1000:.0f} mm: check tiller radius, stroke and angle")
     return out
+
+
+def reduced_mode(unit: Unit) -> solas.ReducedMode:
+    """The gear with one power actuating system lost (see ``kit.solas``): one power unit fewer while
+    two or more are fitted, and half the rams or cylinders of a gear of four or more. The torque
+    and the oil swept scale with the rams or cylinders working (``kit.physics``); a 4-ram gear on
+    2 rams gives half the torque and, on half the flow, the same swing time.
+    """
+    split = unit.actuator in ("ram", "cylinder") and unit.count >= 4
+    actuators = unit.count // 2 if split else unit.count
+    pumps = unit.pumps - 1 if unit.pumps >= 2 else 1
+    act = physics.actuation(replace(unit, count=actuators))
+    volume = physics.swing_volume(act, solas.SWING_FROM_RAD, solas.SWING_TO_RAD)
+    parts = f"{actuators} of {unit.count} {unit.actuator}s" if unit.count > 1 else f"the {unit.actuator.replace('_', ' ')} actuator"
+    return solas.ReducedMode(actuators, unit.count, parts, pumps, act.torque(unit.max_rudder_angle, unit.working_pressure),
+                             physics.swing_time(volume, unit.pump_flow * pumps))
