@@ -16,8 +16,12 @@ import math
 from dataclasses import dataclass, field, replace
 
 from kit import physics, solas
-from kit.particulars import CylinderGeometry, RamGeometry, Unit, Vessel
+from kit.particulars import CylinderGeometry, RamGeometry, Unit, VaneGeometry, Vessel
 from kit.spares import Policy
+
+# Room a rotary vane gear keeps past 2 x its maximum angle, for the rudder stops and vanes of real
+# width when vane_angle is not given (common practice, from memory): less than this is warned.
+VANE_MARGIN_RAD = math.radians(10)
 
 
 @dataclass
@@ -57,6 +61,12 @@ def check_unit(unit: Unit, vessel: Vessel, policy: Policy) -> UnitChecks:
     out.torque_max_angle = act.torque(theta_max, unit.working_pressure)
     if theta_max < solas.HARD_OVER_RAD - 1e-9:
         out.warnings.append(f"maximum rudder angle {math.degrees(theta_max):g} deg is below the 35 deg of SOLAS II-1/29.3.2")
+    if isinstance(unit.geometry, VaneGeometry):
+        margin = physics.vane_free_swing(unit.geometry) - 2 * theta_max
+        if margin < VANE_MARGIN_RAD:
+            out.warnings.append(f"the vane chambers swing at most {math.degrees(margin + 2 * theta_max):.1f} deg, within "
+                                f"{math.degrees(VANE_MARGIN_RAD):g} deg of 2 x the maximum rudder angle: check the vane angles "
+                                "and the rudder stops with the maker")
     volume = physics.swing_volume(act, solas.SWING_FROM_RAD, solas.SWING_TO_RAD)
     case = solas.judging_case(vessel.ship_type, unit.pumps, vessel.gross_tonnage)
     out.swing_time_one_pump = physics.swing_time(volume, unit.pump_flow)

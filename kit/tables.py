@@ -27,7 +27,7 @@ CHECKSUMS: dict[str, str] = {
     "iso3601_2_2016_static_radial_glands.csv": "35ce0e2649f01aa681291a5443d0dcab38d17689d331cec0dae2262452ecc1fa",
     "iso5597_2018_housing_bands.csv": "fc91532cb2e398c3b080971367d3237c3fc3fea5900b7ef8bc401665850f3f8a",
     "iso6195_2013_wiper_bands.csv": "0206448b283e01acc31c5f4dacde0c86a461ed24b3f223027441c653414bf4b9",
-    "seal_compound_compatibility.csv": "7be82b312a6727039728d6d0464a5b88c065566e1b2fd1b0403e7f20dc515d91",
+    "seal_compound_compatibility.csv": "61b4276b692d125c3436a54fab2b7a7fcf16f3f6f711b83be8f6084c05da0a4a",
 }
 
 
