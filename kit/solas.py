@@ -65,6 +65,8 @@ MAIN_POWER_STOCK_M = 0.120  # SOLAS II-1/29.3.3
 AUXILIARY_POWER_STOCK_M = 0.230  # SOLAS II-1/29.4.3
 DESIGN_PRESSURE_FACTOR = 1.25  # SOLAS II-1/29.2.2
 
+SHIP_WORDS = {"cargo": "cargo ship", "passenger": "passenger ship", "tanker": "tanker",
+              "chemical_tanker": "chemical tanker", "gas_carrier": "gas carrier"}
 VERDICTS = ("met", "not met", "not shown", "not applicable", "info")
 
 
@@ -237,7 +239,7 @@ def rule_29_4_3(f: GearFigures, auxiliary: bool | None) -> RuleResult:
 def rule_29_16_1(f: GearFigures, case: RuleResult, isolable: RuleResult) -> RuleResult:
     if not two_units_required(f.ship_type, f.gross_tonnage):
         return RuleResult("SOLAS II-1/29.16.1", "not applicable",
-                          f"a {f.ship_type.replace('_', ' ')} of {f.gross_tonnage:,.0f} GT (applies to tankers, chemical tankers "
+                          f"a {SHIP_WORDS.get(f.ship_type, f.ship_type)} of {f.gross_tonnage:,.0f} GT (applies to tankers, chemical tankers "
                           "and gas carriers of 10,000 GT and upwards and every other ship of 70,000 GT and upwards)")
     who = "a tanker, chemical tanker or gas carrier of 10,000 GT or more" if f.ship_type in TANKER_TYPES \
         and f.gross_tonnage >= TANKER_TWO_UNITS_GT else "a ship of 70,000 GT or more"
