@@ -90,7 +90,7 @@ VESSELS = Table(
     PrimaryKeyConstraint("id", name=conv("pk_vessels")),
     ForeignKeyConstraint(["company_id"], ["companies.id"], ondelete="RESTRICT", name=conv("fk_vessels_company_id_companies")),
     CheckConstraint("gross_tonnage >= 1", name=conv("ck_vessels_gross_tonnage")),
-    CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker')", name=conv("ck_vessels_ship_type")),
+    CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker', 'chemical_tanker', 'gas_carrier')", name=conv("ck_vessels_ship_type")),
 )
 
 SPARES_POLICIES = Table(
@@ -167,6 +167,7 @@ ACTUATORS = Table(
     Column("housing_bore", Float, nullable=True),
     Column("hub_diameter", Float, nullable=True),
     Column("stock_diameter", Float, nullable=True),
+    Column("vane_angle", Float, nullable=True),
     PrimaryKeyConstraint("unit_id", name=conv("pk_actuators")),
     ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_actuators_unit_id_units")),
     CheckConstraint("stroke IS NULL OR stroke > 0", name=conv("ck_actuators_stroke")),
@@ -226,6 +227,8 @@ POWER_UNITS = Table(
     Column("oil_leakage", Float, nullable=True),
     Column("pump_model", String, nullable=True),
     Column("valve_blocks", Integer, nullable=False, default=1),
+    Column("max_working_pressure", Float, nullable=True),
+    Column("design_pressure", Float, nullable=True),
     PrimaryKeyConstraint("unit_id", name=conv("pk_power_units")),
     ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_power_units_unit_id_units")),
     CheckConstraint("oil_leakage IS NULL OR oil_leakage >= 0", name=conv("ck_power_units_oil_leakage")),

@@ -23,7 +23,7 @@ MIGRATIONS = Path(__file__).parent / "migrations"
 
 # The newest revision in migrations/, kept here so that an everyday command checks the schema with
 # one query and without importing alembic; tests/test_db_schema.py checks it against alembic's head.
-HEAD = "0003"
+HEAD = "0004"
 VERSION_TABLE = "alembic_version"
 
 
@@ -58,9 +58,22 @@ def upgrade(engine: Engine, revision: str = "head") -> tuple[str | None, str]:
 
     before = current(engine)
     cfg = _config()
-    with engine.begin() as conn:
-        cfg.attributes["connection"] = conn
-        command.upgrade(cfg, revision)
+    with engine.connect() as conn:
+        # SQLite changes a constraint by rebuilding the table (alembic's batch mode), and dropping
+        # the old table would cascade its deletes to the child tables: foreign keys are switched
+        # off around the migration, outside its transaction as SQLite requires, and checked after.
+        sqlite = conn.dialect.name == "sqlite"
+        if sqlite:
+            conn.connection.dbapi_connection.execute("PRAGMA foreign_keys=OFF")
+        try:
+            with conn.begin():
+                cfg.attributes["connection"] = conn
+                command.upgrade(cfg, revision)
+                if sqlite and conn.exec_driver_sql("PRAGMA foreign_key_check").first() is not None:
+                    raise RuntimeError("a migration left rows whose foreign keys point nowhere")
+        finally:
+            if sqlite:
+                conn.connection.dbapi_connection.execute("PRAGMA foreign_keys=ON")
     return before, current(engine)
 
 

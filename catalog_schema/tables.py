@@ -35,7 +35,7 @@ class CompanyRow(SQLModel, table=True):
 class VesselRow(SQLModel, table=True):
     __tablename__ = "vessels"
     __table_args__ = (
-        CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker')", name="ship_type"),
+        CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker', 'chemical_tanker', 'gas_carrier')", name="ship_type"),
         CheckConstraint("gross_tonnage >= 1", name="gross_tonnage"),
     )
 
@@ -93,6 +93,7 @@ class ActuatorRow(SQLModel, table=True):
     housing_bore: Optional[float] = None
     hub_diameter: Optional[float] = None
     stock_diameter: Optional[float] = None
+    vane_angle: Optional[float] = None
 
 
 class PowerUnitRow(SQLModel, table=True):
@@ -116,6 +117,8 @@ class PowerUnitRow(SQLModel, table=True):
     oil_leakage: Optional[float] = None
     pump_model: Optional[str] = None
     valve_blocks: int = 1
+    max_working_pressure: Optional[float] = None
+    design_pressure: Optional[float] = None
 
 
 class FilterPositionRow(SQLModel, table=True):

@@ -4,7 +4,9 @@
 The table (``kit/data/seal_compound_compatibility.csv``) rates each compound against each
 ISO 6743-4 fluid category as ``ok``, ``limited`` (usable with care: temperature, water content)
 or ``no``. It is common practice from seal makers' published compatibility charts, not a
-standard: the seal maker's confirmation for the actual fluid comes first.
+standard: the seal maker's confirmation for the actual fluid comes first. The rows for the high
+water content fluids HFAE, HFAS and HFB are from memory of such charts (polyurethane hydrolyses
+in water, EPDM swells in mineral oil) and say so in their ``provenance``.
 
 Compounds: AU (polyester urethane), NBR (nitrile), HNBR (hydrogenated nitrile), FKM
 (fluoroelastomer), EPDM (ethylene propylene diene).

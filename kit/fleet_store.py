@@ -58,7 +58,7 @@ _CHILDREN = {
 }
 
 _GEOMETRY_COLUMNS = ("ram_diameter", "bore", "rod", "stroke", "tiller_radius", "vanes", "vane_height",
-                     "housing_bore", "hub_diameter", "stock_diameter")
+                     "housing_bore", "hub_diameter", "stock_diameter", "vane_angle")
 
 
 def company_id(conn: Connection, name: str | None) -> int | None:
@@ -86,13 +86,15 @@ def _geometry_row(u: Unit) -> dict:
         row.update(bore=g.bore, rod=g.rod, stroke=g.stroke, tiller_radius=g.tiller_radius)
     else:
         row.update(vanes=g.vanes, vane_height=g.vane_height, housing_bore=g.housing_bore,
-                   hub_diameter=g.hub_diameter, stock_diameter=g.stock_diameter)
+                   hub_diameter=g.hub_diameter, vane_angle=g.vane_angle)
+    row["stock_diameter"] = u.stock_diameter  # a rotary vane's is its geometry's too
     return row
 
 
 def _power_row(u: Unit) -> dict:
     return {"pumps": u.pumps, "pump_flow": u.pump_flow, "reservoir": u.reservoir, "system_oil": u.system_oil,
-            "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks}
+            "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks,
+            "max_working_pressure": u.max_working_pressure, "design_pressure": u.design_pressure}
 
 
 def _refuse_unstored(v: Vessel) -> None:
@@ -183,7 +185,7 @@ def _geometry(actuator: str, g) -> RamGeometry | CylinderGeometry | VaneGeometry
         return RamGeometry(g.ram_diameter, g.stroke, g.tiller_radius)
     if actuator == "cylinder":
         return CylinderGeometry(g.bore, g.rod, g.stroke, g.tiller_radius)
-    return VaneGeometry(g.vanes, g.vane_height, g.housing_bore, g.hub_diameter, g.stock_diameter)
+    return VaneGeometry(g.vanes, g.vane_height, g.housing_bore, g.hub_diameter, g.stock_diameter, g.vane_angle)
 
 
 def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Vessel]:
@@ -217,8 +219,9 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
             fluid=Fluid(u.fluid_category, u.fluid_grade), pumps=p.pumps, pump_flow=p.pump_flow, reservoir=p.reservoir,
             geometry=_geometry(u.actuator, geometry[u.id][0]), max_rudder_angle=u.max_rudder_angle,
             system_oil=p.system_oil, oil_leakage=p.oil_leakage, isolation_valves=bool(u.isolation_valves),
-            pump_model=p.pump_model, valve_blocks=p.valve_blocks,
             rudder_carrier="separate" if u.service == "steering" and u.actuator != "rotary_vane" else None,
+            pump_model=p.pump_model, valve_blocks=p.valve_blocks, stock_diameter=geometry[u.id][0].stock_diameter,
+            max_working_pressure=p.max_working_pressure, design_pressure=p.design_pressure,
             **{name: tuple(back(r) for r in rows.get(u.id, [])) for name, (rows, back) in children.items()},
         ))
     return [Vessel(v.id, v.name, v.ship_type, v.gross_tonnage, tuple(units_of.get(v.id, ())), v.company, v.source or "")

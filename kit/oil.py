@@ -3,8 +3,9 @@
 
 Volumes in m^3 inside; the report shows litres, kilograms and US gallons.
 
-* System charge: stated in the particulars (``system_oil``), or the reservoir plus the oil in the
-  actuators plus the pipes, pi/4 d_i^2 L each.
+* System charge: the reservoir plus the oil in the actuators plus the pipes, pi/4 d_i^2 L each,
+  or the charge stated in the particulars (``system_oil``) where that is larger; a stated charge
+  below it is flagged (``Charge.stated_ok``).
 * Storage tank minimum: one power actuating system including its reservoir (SOLAS II-1/29.12.3).
 * Voyage top-up: the leakage rate times the period.
 * Packages: the smallest number of packages whose volume covers the need and overshoots it by
@@ -34,13 +35,42 @@ def pipe_volume(pipe: Pipe) -> float:
     return math.pi / 4 * pipe.inside_diameter**2 * pipe.length
 
 
+@dataclass(frozen=True)
+class Charge:
+    """The charge of one power actuating system: what the particulars state, the least it can be
+    (reservoir + actuators + pipes) and the figure used, the larger of the two."""
+
+    used: float  # m^3
+    basis: str
+    least: float  # m^3, reservoir + actuators + pipes
+    stated: float | None = None  # m^3
+
+    @property
+    def stated_ok(self) -> bool:
+        """False when a stated charge is below the reservoir plus the oil in actuators and pipes."""
+        return self.stated is None or self.stated >= self.least * (1 - 1e-9)
+
+
+def charge(unit: Unit) -> Charge:
+    """The charge [m^3] of one power actuating system including its reservoir (SOLAS II-1/29.12.3).
+
+    It can never be less than the reservoir plus the oil the actuators and pipes hold
+    (``kit.physics.actuator_oil_volume``, pi/4 d_i^2 L a pipe); a stated ``system_oil`` below that
+    is a typing error or a figure without the reservoir, and the larger figure is used.
+    """
+    least = unit.reservoir + actuator_oil_volume(unit) + sum(pipe_volume(p) for p in unit.pipes)
+    how = "reservoir + actuators + pipes" if unit.pipes else "reservoir + actuators (no pipes given)"
+    if unit.system_oil is None:
+        return Charge(least, how, least)
+    if unit.system_oil >= least * (1 - 1e-9):
+        return Charge(unit.system_oil, "stated", least, unit.system_oil)
+    return Charge(least, f"{how}, more than the stated {unit.system_oil * L_PER_M3:.1f} L", least, unit.system_oil)
+
+
 def system_charge(unit: Unit) -> tuple[float, str]:
     """System charge [m^3] of one power actuating system and where the figure came from."""
-    if unit.system_oil is not None:
-        return unit.system_oil, "stated"
-    total = unit.reservoir + actuator_oil_volume(unit) + sum(pipe_volume(p) for p in unit.pipes)
-    how = "reservoir + actuators + pipes" if unit.pipes else "reservoir + actuators (no pipes given)"
-    return total, how
+    c = charge(unit)
+    return c.used, c.basis
 
 
 def top_up(leakage_m3_per_s: float | None, days: float) -> float:

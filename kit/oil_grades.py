@@ -24,6 +24,7 @@ ISO_3448_GRADES: dict[int, tuple[float, float, float]] = _grades()
 FAMILY: dict[str, str] = {
     "HL": "mineral", "HM": "mineral", "HV": "mineral", "HG": "mineral", "HH": "mineral", "HR": "mineral",
     "HETG": "vegetable", "HEES": "synthetic ester", "HEPG": "polyglycol", "HEPR": "polyalphaolefin",
+    "HFAE": "oil-in-water emulsion", "HFAS": "aqueous solution", "HFB": "water-in-oil emulsion",
     "HFC": "water glycol", "HFDR": "phosphate ester", "HFDU": "other synthetic",
 }
 
@@ -31,6 +32,8 @@ FAMILY: dict[str, str] = {
 DENSITY_KG_PER_L: dict[str, float] = {
     "mineral": 0.87, "vegetable": 0.92, "synthetic ester": 0.92, "polyglycol": 1.00,
     "polyalphaolefin": 0.84, "water glycol": 1.07, "phosphate ester": 1.13, "other synthetic": 0.95,
+    # HFA fluids are some 95 % water; HFB about 40 % water in oil (from memory).
+    "oil-in-water emulsion": 1.00, "aqueous solution": 1.00, "water-in-oil emulsion": 0.93,
 }
 
 

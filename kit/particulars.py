@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 import re
 import tomllib
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
@@ -21,12 +21,14 @@ from kit.errors import InputError
 from kit.rudder import POSITION_K3, PROFILE_K2, Rudder
 from kit.units import to_si
 
-SHIP_TYPES = ("cargo", "passenger", "tanker")
+# "chemical_tanker" and "gas_carrier" are cargo ships that SOLAS II-1/29.16 names beside tankers.
+SHIP_TYPES = ("cargo", "passenger", "tanker", "chemical_tanker", "gas_carrier")
 # Where the rudder carrier bearing is: a ram or cylinder gear needs a separate one; a rotary vane
 # actuator may carry the rudder in its own housing.
 RUDDER_CARRIERS = ("separate", "in_actuator")
 ACTUATORS = ("ram", "rotary_vane", "cylinder")
-FLUID_CATEGORIES = ("HL", "HM", "HV", "HG", "HH", "HR", "HETG", "HEES", "HEPG", "HEPR", "HFC", "HFDR", "HFDU")
+FLUID_CATEGORIES = ("HL", "HM", "HV", "HG", "HH", "HR", "HETG", "HEES", "HEPG", "HEPR", "HFAE", "HFAS", "HFB", "HFC",
+                    "HFDR", "HFDU")
 
 # Plausibility limits: a value past these is a typing error, not a steering gear.
 MAX_DIAMETER_M = 2.0
@@ -85,6 +87,7 @@ class VaneGeometry:
     housing_bore: float
     hub_diameter: float
     stock_diameter: float
+    vane_angle: float | None = None  # rad each vane (moving or fixed) takes up around the stock axis
 
 
 @dataclass(frozen=True)
@@ -154,6 +157,9 @@ class Unit:
     hoses: tuple[Hose, ...] = ()
     rudder: Rudder | None = None
     rudder_carrier: str | None = None  # RUDDER_CARRIERS; None for a rotary vane gear that does not say
+    stock_diameter: float | None = None  # rudder stock at the tiller (SOLAS II-1/29.3.3, 29.4.3)
+    max_working_pressure: float | None = None  # Pa, the most the gear sees in service (SOLAS II-1/29.2.2)
+    design_pressure: float | None = None  # Pa (SOLAS II-1/29.2.2, 29.2.3)
 
     @property
     def is_steering(self) -> bool:
@@ -321,7 +327,8 @@ def _geometry(r: _Reader, actuator: str, steering: bool) -> RamGeometry | Cylind
     vanes = r.integer("vanes", minimum=1)
     if vanes > 6:
         raise InputError(r.source, r._name("vanes"), "1 to 6 moving vanes", got=repr(vanes))
-    return VaneGeometry(vanes, r.quantity("vane_height", "length", maximum=MAX_STROKE_M, max_text="5 m"), housing, hub, stock)
+    return VaneGeometry(vanes, r.quantity("vane_height", "length", maximum=MAX_STROKE_M, max_text="5 m"), housing, hub, stock,
+                        r.quantity("vane_angle", "angle", None, maximum=math.pi / vanes, max_text="180 deg / vanes"))
 
 
 def _unit(r: _Reader) -> Unit:
@@ -359,8 +366,16 @@ def _unit(r: _Reader) -> Unit:
         hoses=tuple(_hose(h) for h in r.tables("hose")),
         rudder=_rudder(r) if steering else None,
         rudder_carrier=_rudder_carrier(r, actuator, steering),
+        stock_diameter=(None if actuator == "rotary_vane"
+                        else r.quantity("stock_diameter", "length", None, maximum=MAX_DIAMETER_M, max_text="2 m")),
+        max_working_pressure=r.quantity("max_working_pressure", "pressure", None, maximum=MAX_PRESSURE_PA, max_text="700 bar"),
+        design_pressure=r.quantity("design_pressure", "pressure", None, maximum=MAX_PRESSURE_PA, max_text="700 bar"),
     )
     r.finish()
+    if isinstance(unit.geometry, VaneGeometry):
+        unit = replace(unit, stock_diameter=unit.geometry.stock_diameter)
+        if unit.max_rudder_angle is not None:
+            _check_vane_swing(r, unit.geometry, unit.max_rudder_angle)
     return unit
 
 
@@ -395,10 +410,26 @@ def _rudder(unit_reader: _Reader) -> Rudder | None:
     return rudder
 
 
+def _check_vane_swing(r: _Reader, g: VaneGeometry, max_angle: float) -> None:
+    """Refuse a rotary vane gear whose chambers cannot swing from hard over to hard over.
+
+    Between two fixed vanes there is room for 360/n deg; the moving vane in it and the fixed vane
+    take up their own angles, so the moving vane swings at most 360/n - 2 x vane_angle
+    (``kit.physics.vane_free_swing``). It must swing 2 x the maximum rudder angle.
+    """
+    from kit.physics import vane_free_swing
+
+    free = vane_free_swing(g)
+    if free < 2 * max_angle - 1e-9:
+        widths = f" less 2 x vane_angle {math.degrees(g.vane_angle):g} deg" if g.vane_angle else ""
+        raise InputError(r.source, r._name("vanes"),
+                         f"vanes whose chambers can swing 2 x max_rudder_angle = {2 * math.degrees(max_angle):g} deg "
+                         f"({g.vanes} moving vanes leave each at most 360/{g.vanes} deg{widths} = {math.degrees(free):.1f} deg)",
+                         got=repr(g.vanes))
+
+
 def _filter(r: _Reader) -> FilterPosition:
-    duty = r.number("duty", 24.0)
-    if duty > 24:
-        raise InputError(r.source, r._name("duty"), "hours a day between 0 and 24", got=repr(duty))
+    duty = _duty(r)
     f = FilterPosition(
         position=r.text("position"),
         elements=r.integer("elements", minimum=1),
@@ -408,6 +439,23 @@ def _filter(r: _Reader) -> FilterPosition:
     )
     r.finish()
     return f
+
+
+def _duty(r: _Reader) -> float:
+    """Running hours a day: a bare number (hours a day) or a time per time such as "12 h/day"."""
+    value = r.raw("duty", 24.0)
+    want = 'running hours a day between 0 and 24, e.g. "12 h/day" or 12'
+    if isinstance(value, str):
+        running, slash, per = value.partition("/")
+        if not slash or not per.strip():
+            raise InputError(r.source, r._name("duty"), want, got=repr(value))
+        hours = to_si(running.strip(), "time", source=r.source, field=r._name("duty")) / 3600
+        hours /= to_si("1 " + per.strip(), "time", source=r.source, field=r._name("duty")) / 86400
+    else:
+        hours = r.number("duty", 24.0)
+    if not 0 <= hours <= 24 + 1e-9:
+        raise InputError(r.source, r._name("duty"), want, got=repr(value))
+    return min(hours, 24.0)
 
 
 def _pipe(r: _Reader) -> Pipe:

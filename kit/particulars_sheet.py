@@ -33,6 +33,7 @@ UNIT_COLUMNS = (
     "max_rudder_angle", "system_oil", "oil_leakage", "isolation_valves", "pump_model", "valve_blocks",
     "ram_diameter", "bore", "rod", "stroke", "tiller_radius",
     "vanes", "vane_height", "housing_bore", "hub_diameter", "stock_diameter",
+    "vane_angle", "max_working_pressure", "design_pressure",
 )
 # sheet -> (the unit's array of tables in TOML, columns after ``unit``)
 CHILD_SHEETS = {
@@ -44,7 +45,7 @@ CHILD_SHEETS = {
 }
 NOTES = {
     "field": "one of " + ", ".join(VESSEL_FIELDS),
-    "value": 'ship_type: cargo, passenger or tanker; gross_tonnage: a number',
+    "value": 'ship_type: cargo, passenger, tanker, chemical_tanker or gas_carrier; gross_tonnage: a number',
     "id": "the unit's id, unique on the vessel (e.g. SG1)",
     "service": "steering, or what else the unit drives",
     "actuator": "ram, rotary_vane or cylinder",
@@ -55,7 +56,7 @@ NOTES = {
     "isolation_valves": "TRUE or FALSE",
     "unit": "the id of the unit on the units sheet",
     "change_interval": 'e.g. "2000 h"',
-    "duty": "hours a day the filter sees flow, 0 to 24",
+    "duty": 'hours a day the filter sees flow, 0 to 24, e.g. "12 h/day" or 12',
 }
 _BOOLEANS = {"true": True, "yes": True, "false": False, "no": False}
 

@@ -179,16 +179,60 @@ def trunnion_travel(g: CylinderGeometry, max_angle: float) -> float:
     return trunnion_length(g, max_angle) - trunnion_length(g, -max_angle)
 
 
-def actuator_oil_volume(unit: Unit) -> float:
-    """Oil [m^3] in the actuators, used when the system charge is not stated.
+def reachable_angle(travel: Callable[[float], float], stroke: float, max_angle: float) -> float:
+    """The largest rudder angle [rad], up to ``max_angle``, whose travel between that angle each side
+    fits the stroke: ``travel(theta)`` is the total travel from theta one side to theta the other
+    (rising with theta), found by bisection so that any travel law will do.
 
-    Rams: count x A x stroke (the cylinder is full at every ram position, to within the
-    ram's swept volume). Cylinders: count x (A_bore + A_annulus) x stroke. Rotary vane: the
-    chamber annulus pi (R^2 - r^2) h, less nothing for the vanes (an upper estimate).
+    >>> round(math.degrees(reachable_angle(lambda th: ram_travel(0.5, th), 0.6, math.radians(35))), 2)
+    30.96
+    """
+    if travel(max_angle) <= stroke:
+        return max_angle
+    low, high = 0.0, max_angle
+    for _ in range(60):
+        mid = (low + high) / 2
+        low, high = (mid, high) if travel(mid) <= stroke else (low, mid)
+    return low
+
+
+def vane_free_swing(g: VaneGeometry) -> float:
+    """The most a moving vane can swing [rad] between its two fixed vanes: 2 pi / n - 2 beta.
+
+    n moving vanes and as many fixed vanes share the annulus: between two fixed vanes there is
+    2 pi / n of it; the fixed vane takes up beta of that and the moving vane in the chamber another
+    beta (``vane_angle``, each vane's angle around the stock axis), so the moving vane swings at
+    most 2 pi / n - 2 beta. Without ``vane_angle``, beta = 0 and the figure is an upper bound.
+
+    >>> round(math.degrees(vane_free_swing(VaneGeometry(3, 0.3, 1.0, 0.6, 0.4, math.radians(20)))), 6)
+    80.0
+    """
+    return 2 * math.pi / g.vanes - 2 * (g.vane_angle or 0.0)
+
+
+def actuator_oil_volume(unit: Unit) -> float:
+    """Oil [m^3] the actuators hold, by their real geometry (clearance volumes, which the
+    particulars do not give, left out).
+
+    * Steering rams work in pairs on one crosshead or Rapson slide: as one ram comes out of its
+      cylinder by x the other goes in by x, so the pair holds c + A (s/2 + x) + c + A (s/2 - x)
+      = A s + 2c at every position. A 4-ram gear is two pairs: (count / 2) A s in all.
+    * Steering cylinders in pairs, one pushing while the other pulls: a cylinder holds
+      A_b x + A_a (s - x) at extension x, and over the pair x_1 + x_2 = s (to first order in the
+      angle: one extends as the other retracts), so a pair holds (A_b + A_a) s. The second-order
+      rest, A_rod times the change in x_1 + x_2, goes to and from the reservoir.
+    * Rams and cylinders of other services may all move out together: the most they hold is
+      count A s (rams) or count A_b s (cylinders fully out, annulus empty).
+    * Rotary vane: the annulus pi (R^2 - r^2) h less the 2n vanes, each taking
+      beta (R^2 - r^2) h / 2 (``vane_angle`` beta): (2 pi - 2 n beta) (R^2 - r^2) h / 2; full at
+      every rudder angle. Without ``vane_angle``, the whole annulus (an upper estimate).
     """
     g = unit.geometry
+    sets = unit.count / 2 if unit.is_steering else unit.count
     if isinstance(g, RamGeometry):
-        return unit.count * circle_area(g.ram_diameter) * g.stroke
+        return sets * circle_area(g.ram_diameter) * g.stroke
     if isinstance(g, CylinderGeometry):
-        return unit.count * (2 * circle_area(g.bore) - circle_area(g.rod)) * g.stroke
-    return math.pi * ((g.housing_bore / 2) ** 2 - (g.hub_diameter / 2) ** 2) * g.vane_height
+        full, annulus = circle_area(g.bore), circle_area(g.bore) - circle_area(g.rod)
+        return sets * ((full + annulus) if unit.is_steering else full) * g.stroke
+    ring = (g.housing_bore / 2) ** 2 - (g.hub_diameter / 2) ** 2
+    return (2 * math.pi - 2 * g.vanes * (g.vane_angle or 0.0)) * ring * g.vane_height / 2

@@ -15,6 +15,7 @@ from kit.requirements import UnitResult, VesselResult
 from kit.seal_kit import SealLine, SealKit, mm
 
 KNM = 1e-3
+VERDICT_STYLE = {"met": "[green]{}[/green]", "not met": "[red]NOT MET[/red]", "not shown": "[yellow]{}[/yellow]"}
 L_PER_M3 = 1000.0
 
 
@@ -74,6 +75,15 @@ def unit_json(u: UnitResult) -> dict[str, Any]:
         "filters": [{"position": f.position, "elements": f.elements, "elements_per_change": f.elements_per_change,
                      "changes_due": f.changes, "spare_sets": f.spare_sets} for f in u.filters],
         "warnings": u.warnings,
+        "rules": [{"clause": r.clause, "verdict": r.verdict, "text": r.text} for r in c.rules],
+        "auxiliary_steering_gear_required": c.auxiliary_gear_required,
+        "reachable_angle_deg": _r(c.reachable_angle and math.degrees(c.reachable_angle)),
+        "pump_flow_needed_l_min": _r(c.pump_flow_needed and c.pump_flow_needed * L_PER_M3 * 60),
+        "reduced_mode": None if c.reduced is None else {
+            "actuators": c.reduced.actuators, "pumps": c.reduced.pumps,
+            "torque_knm_max_angle": _r(c.reduced.torque_max_angle * KNM), "swing_time_s": _r(c.reduced.swing_time)},
+        "system_oil_least_l": _r(u.charge and u.charge.least * L_PER_M3),
+        "system_oil_stated_l": _r(u.unit.system_oil and u.unit.system_oil * L_PER_M3),
     }
 
 
@@ -150,6 +160,8 @@ def render(r: VesselResult, console) -> None:
             short = u["rudder_torque_margin_pct"] < 0
             t.add_row(f"gear torque at 35 deg, {u['gear_torque_pressure_bar']:g} bar", _fmt(u["gear_torque_35_knm"], " kNm"),
                       f"margin {u['rudder_torque_margin_pct']:+.1f} %: " + ("[red]SHORT[/red]" if short else "[green]enough[/green]"))
+            t.add_row("rudder angle reachable each side", _fmt(u["reachable_angle_deg"], " deg"), "35 deg (SOLAS II-1/29.3.2)")
+            t.add_row("pump flow needed each, judged case", _fmt(u["pump_flow_needed_l_min"], " L/min"), "for 28 s")
         if u["travel_mm"] is not None:
             t.add_row("travel between hard-over angles", _fmt(u["travel_mm"], " mm", 0), f"stroke {_fmt(u['stroke_mm'], ' mm', 0)}")
         t.add_row("system charge", _fmt(u["system_oil_l"], " L"), u["system_oil_basis"])
@@ -157,6 +169,13 @@ def render(r: VesselResult, console) -> None:
             t.add_row("storage tank minimum", _fmt(u["storage_tank_min_l"], " L"), "SOLAS II-1/29.12.3")
         t.add_row("top-up for the period", _fmt(u["top_up_l"], " L", 2), "leakage rate x period")
         console.print(t)
+        if u["rules"]:
+            rules = Table(title=f"SOLAS II-1/29 verdicts of unit {u['id']}", title_justify="left")
+            for col in ("clause", "verdict", "judged on"):
+                rules.add_column(col)
+            for rule in u["rules"]:
+                rules.add_row(rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"])
+            console.print(rules)
         seals = Table(title=f"Seal kit of unit {u['id']} (per unit)", title_justify="left")
         for col in ("role", "part", "d mm", "D mm", "L mm", "qty", "compound", "from"):
             seals.add_column(col, justify="right" if col.endswith("mm") or col == "qty" else "left")

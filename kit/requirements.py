@@ -47,6 +47,7 @@ class UnitResult:
     filters: list[FilterNeed]
     lines: list[LineItem]
     warnings: list[str] = field(default_factory=list)
+    charge: oil.Charge | None = None
 
 
 @dataclass
@@ -137,6 +138,23 @@ def spare_lines(unit: Unit, policy: Policy, vessel_id: str) -> list[LineItem]:
     return lines
 
 
+def charge_warning(c: oil.Charge, steering: bool) -> str:
+    """A stated charge below the reservoir plus the oil in actuators and pipes, with both figures."""
+    use = "the storage tank minimum (SOLAS II-1/29.12.3) and the charge use" if steering else "the charge uses"
+    return (f"system_oil {c.stated * M3_TO_L:.1f} L is less than the reservoir plus the oil in the actuators and pipes, "
+            f"{c.least * M3_TO_L:.1f} L: {use} {c.used * M3_TO_L:.1f} L")
+
+
+def storage_rule(c: oil.Charge) -> solas.RuleResult:
+    """SOLAS II-1/29.12.3: the storage tank recharges one power actuating system including its reservoir."""
+    text = f"storage tank minimum {c.used * M3_TO_L:.1f} L ({c.basis})"
+    if not c.stated_ok:
+        return solas.RuleResult("SOLAS II-1/29.12.3", "not met",
+                                f"stated system_oil {c.stated * M3_TO_L:.1f} L is below the reservoir plus actuators and pipes, "
+                                f"{c.least * M3_TO_L:.1f} L; {text}")
+    return solas.RuleResult("SOLAS II-1/29.12.3", "met", text)
+
+
 def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> UnitResult:
     checks = check_unit(unit, vessel, policy)
     kit = build_seal_kit(unit, policy.housing_length)
@@ -144,8 +162,12 @@ def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> Unit
     sets = _sets(seal_item, kit)
     lines = [seal_line_item(unit, s, s.qty_per_actuator * sets, seal_item.basis) for s in kit.lines] if sets else []
 
-    charge, charge_basis = oil.system_charge(unit)
+    figures = oil.charge(unit)
+    charge, charge_basis = figures.used, figures.basis
     storage = solas.storage_tank_minimum(charge) if unit.is_steering else None
+    charge_warnings = [] if figures.stated_ok else [charge_warning(figures, unit.is_steering)]
+    if unit.is_steering:
+        checks.rules.append(storage_rule(figures))
     leak = oil.top_up(unit.oil_leakage, days)
     fluid = str(unit.fluid)
     storage_item = policy.item("storage_oil")
@@ -168,8 +190,8 @@ def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> Unit
                               "", total, "pcs", f"{changes} change(s) due + {policy.spare_filter_sets} spare set(s)",
                               part_key("filter_element", {}, f.element_ref or f"{vessel.id}:{unit.id}:{f.position}"), part=f"{f.position} filter"))
     lines += spare_lines(unit, policy, vessel.id)
-    warnings = list(dict.fromkeys(kit.warnings + checks.warnings))
-    return UnitResult(unit, checks, kit, charge, charge_basis, storage, leak, needs, lines, warnings)
+    warnings = list(dict.fromkeys(kit.warnings + checks.warnings + charge_warnings))
+    return UnitResult(unit, checks, kit, charge, charge_basis, storage, leak, needs, lines, warnings, figures)
 
 
 def oil_plans(units: list[UnitResult], policy: Policy) -> dict[Fluid, PackagePlan]:

@@ -28,7 +28,7 @@ CHECKSUMS: dict[str, str] = {
     "iso3601_2_2016_static_radial_glands.csv": "35ce0e2649f01aa681291a5443d0dcab38d17689d331cec0dae2262452ecc1fa",
     "iso5597_2018_housing_bands.csv": "ec9aebdbdcd0a9f7220296f41ceb0f7b4c3a8d90d2e7982c50acbb9c6d28e949",
     "iso6195_2013_wiper_bands.csv": "35e77e66e4b9e539623987df90a8f3555fc0fe4ca582495877433a29b9d42f76",
-    "seal_compound_compatibility.csv": "7be82b312a6727039728d6d0464a5b88c065566e1b2fd1b0403e7f20dc515d91",
+    "seal_compound_compatibility.csv": "61b4276b692d125c3436a54fab2b7a7fcf16f3f6f711b83be8f6084c05da0a4a",
 }
 
 

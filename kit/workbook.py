@@ -13,6 +13,7 @@ never leaves half a workbook.
 from __future__ import annotations
 
 import datetime as dt
+import math
 from pathlib import Path
 from typing import Any, Iterable
 
@@ -221,6 +222,19 @@ def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) ->
     filters.finish()
 
 
+# One column a rule of SOLAS II-1/29 (kit.solas.judge and the storage tank), each cell its verdict.
+RULE_COLUMNS = ("SOLAS II-1/29.3.2", "SOLAS II-1/29.6.1.1", "SOLAS II-1/29.6.1.2", "SOLAS II-1/29.6.1.3",
+                "SOLAS II-1/29.16.1", "SOLAS II-1/29.6.1.3 reduced mode", "SOLAS II-1/29.3.3", "SOLAS II-1/29.4.3",
+                "SOLAS II-1/29.2.2", "SOLAS II-1/29.2.3", "SOLAS II-1/29.12.3")
+
+
+def rule_cells(rules: list) -> list[str | None]:
+    """The verdict of each of ``RULE_COLUMNS`` (blank where the rule was not judged), with the
+    reduced mode's figures in its cell since its verdict is only "info"."""
+    found = {r.clause: (r.text if r.verdict == "info" else r.verdict) for r in rules}
+    return [found.get(clause) for clause in RULE_COLUMNS]
+
+
 def _checks_sheet(wb: Workbook, order: Order) -> None:
     cols = (("Vessel", 18, None), ("Ship type", 10, None), ("Unit", 10, None), ("Service", 11, None), ("Actuator", 11, None),
             ("Torque midships [kNm]", 12, None), ("Torque at max angle [kNm]", 12, None),
@@ -230,7 +244,9 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
             ("Working pressure [bar]", 11, None), ("Pressure within ratings", 10, None), ("Warnings", 80, None),
             ("Torque basis", 40, None), ("Rudder torque ahead [kNm]", 12, None), ("Rudder torque astern [kNm]", 12, None),
             ("Gear torque at 35 deg [kNm]", 12, None), ("Gear torque pressure [bar]", 11, None),
-            ("Margin over rudder torque [%]", 11, None))
+            ("Margin over rudder torque [%]", 11, None),
+            ("Rudder angle reachable [deg]", 10, None), ("Pump flow needed each [L/min]", 11, None),
+            ("Auxiliary steering gear required", 12, None), *((clause, 14, None) for clause in RULE_COLUMNS))
     sheet = _Sheet(wb, "Gear checks", cols)
     yes = {True: "yes", False: "NO", None: None}
     for r in order.results:
@@ -244,7 +260,11 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
                           yes[c.swing_rule_met], None if c.travel is None else round(c.travel * 1000),
                           None if c.stroke is None else round(c.stroke * 1000), yes[c.travel_ok],
                           round(u.unit.working_pressure / 1e5, 1), yes[c.pressure_ok], " | ".join(u.warnings),
-                          *_rudder_cells(c)])
+                          *_rudder_cells(c),
+                          s(c.reachable_angle and math.degrees(c.reachable_angle)),
+                          s(c.pump_flow_needed and c.pump_flow_needed * 60000),
+                          None if not u.unit.is_steering else {True: "yes", False: "no", None: "unless 29.6.1.3 shown"}[c.auxiliary_gear_required],
+                          *rule_cells(c.rules)])
     sheet.finish()
 
 

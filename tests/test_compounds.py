@@ -67,3 +67,12 @@ def test_no_compatible_compound_raises(monkeypatch):
     monkeypatch.setattr(kit.compounds, "rating", lambda cat, c: "no")
     with pytest.raises(IncompatibleFluidError, match=r"^no seal compound in the table is compatible with HFC for static seals$"):
         compounds.choose("HFC", "static")
+
+
+@pytest.mark.parametrize(("category", "compound"), [("HFAE", "NBR"), ("HFAS", "NBR"), ("HFB", "NBR")])
+def test_high_water_content_fluids_get_nitrile(category, compound):
+    # Seal makers' charts (from memory): NBR for HFA and HFB fluids; polyurethane (AU) at best
+    # limited in water (hydrolysis); EPDM not with the mineral oil of HFAE and HFB.
+    assert compounds.choose(category, "dynamic").compound == compound
+    assert compounds.rating(category, "AU") in ("limited", "no")
+    assert compounds.rating("HFAE", "EPDM") == compounds.rating("HFB", "EPDM") == "no"

@@ -114,9 +114,9 @@ def test_upgrade_from_first_revision_keeps_every_row(db_url):
     assert upgrade(eng, "0002") == ("0001", "0002")
     with eng.begin() as conn:
         before.update(_fill_revision_0002(conn))
-    with pytest.raises(SchemaVersionError, match="schema is at revision 0002, this kit needs 0003; run: kit db upgrade"):
+    with pytest.raises(SchemaVersionError, match="schema is at revision 0002, this kit needs 0004; run: kit db upgrade"):
         require_current(eng)
-    assert upgrade(eng) == ("0002", "0003")
+    assert upgrade(eng) == ("0002", "0004")
     with eng.connect() as conn:  # an old database reaches the same schema as a fresh one
         assert compare_metadata(MigrationContext.configure(conn, opts={"compare_type": True}), SQLModel.metadata) == []
     with eng.connect() as conn:
@@ -127,6 +127,10 @@ def test_upgrade_from_first_revision_keeps_every_row(db_url):
                 assert [r.pop("location") for r in found] == [DEFAULT_LOCATION]
             if name == "spares_policies":  # no content: kit's default policy
                 assert [r.pop("content") for r in found] == [None, None]
+            if name == "actuators":  # revision 0004: the particulars did not say
+                assert {r.pop("vane_angle") for r in found} == {None}
+            if name == "power_units":
+                assert {(r.pop("max_working_pressure"), r.pop("design_pressure")) for r in found} == {(None, None)}
             assert found == rows, name
     with eng.connect() as conn:  # and the rows still say which policy is in force
         found = policy_in_force(conn, "V1", dt.date(2025, 7, 1))
@@ -134,6 +138,12 @@ def test_upgrade_from_first_revision_keeps_every_row(db_url):
     # The new natural key lets the same part be kept in a second place.
     with eng.begin() as conn:
         conn.execute(insert(StockRow.__table__).values(vessel_id="V1", part_id=3, location="steering gear room", quantity=2.0))
+    # Revision 0004: the ship types SOLAS II-1/29.16.1 names beside tankers are accepted, others still refused.
+    with eng.begin() as conn:
+        conn.execute(insert(VesselRow.__table__).values(id="V9", name="Nine", ship_type="gas_carrier", gross_tonnage=12000.0))
+    with pytest.raises(IntegrityError):
+        with eng.begin() as conn:
+            conn.execute(insert(VesselRow.__table__).values(id="V10", name="Ten", ship_type="yacht", gross_tonnage=100.0))
     eng.dispose()
 
 

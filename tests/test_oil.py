@@ -34,7 +34,7 @@ def test_system_charge_stated_wins():
 
 def test_system_charge_from_parts():
     u = unit(ram_unit(reservoir="300 L", pipe=[{"outside_diameter": "33.4 mm", "wall": "3.38 mm", "length": "24 m"}]))
-    rams = 2 * math.pi / 4 * 0.280**2 * 0.900
+    rams = math.pi / 4 * 0.280**2 * 0.900  # one ram pair holds A x stroke (kit.physics.actuator_oil_volume)
     pipe = math.pi / 4 * (0.0334 - 2 * 0.00338) ** 2 * 24
     charge, basis = oil.system_charge(u)
     assert charge == pytest.approx(0.300 + rams + pipe, rel=1e-9)
@@ -115,3 +115,27 @@ def test_iso_3448_limits_are_midpoint_plus_minus_ten_percent(grade):
     assert high == pytest.approx(1.1 * mid, rel=1e-9)
     if grade >= 10:
         assert mid == grade
+
+
+def test_stated_charge_below_the_reservoir_is_a_failed_check():
+    # SOLAS II-1/29.12.3: the storage tank recharges one power actuating system including its
+    # reservoir. By hand: 300 L reservoir + one ram pair pi/4 x 0.280^2 x 0.900 = 55.42 L.
+    from kit.requirements import assess_unit
+    from kit.spares import load_policy
+    from engine_helpers import vessel
+
+    least = 0.300 + math.pi / 4 * 0.280**2 * 0.900
+    c = oil.charge(unit(ram_unit(system_oil="5 L")))
+    assert (c.stated, c.least, c.used, c.stated_ok) == (pytest.approx(0.005), pytest.approx(least), pytest.approx(least), False)
+    v = vessel(ram_unit(system_oil="5 L"))
+    r = assess_unit(v.units[0], v, 90, load_policy())
+    assert r.storage_tank_min == pytest.approx(least)
+    assert (f"system_oil 5.0 L is less than the reservoir plus the oil in the actuators and pipes, {least * 1000:.1f} L: "
+            f"the storage tank minimum (SOLAS II-1/29.12.3) and the charge use {least * 1000:.1f} L") in r.warnings
+    rule = next(x for x in r.checks.rules if x.clause == "SOLAS II-1/29.12.3")
+    assert rule.verdict == "not met" and "5.0 L" in rule.text and f"{least * 1000:.1f} L" in rule.text
+
+
+def test_stated_charge_above_the_least_is_used():
+    c = oil.charge(unit(ram_unit(system_oil="500 L")))
+    assert (c.used, c.basis, c.stated_ok) == (pytest.approx(0.500), "stated", True)

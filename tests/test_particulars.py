@@ -135,3 +135,59 @@ def test_pump_flow_below_a_tenth_of_a_litre_a_minute_is_refused():
     assert err.value.field == "unit[0].pump_flow"
     with pytest.raises(InputError, match=r"unit\[0\]\.pump_flow: expected a flow of at least 0\.1 L/min"):
         vessel_from_dict(with_unit(pump_flow="0.05 L/min"), "slow.toml")
+
+
+def _vane(**over):
+    from engine_helpers import vane_unit, vessel
+
+    return vessel(vane_unit(**over))
+
+
+def test_rotary_vane_that_cannot_swing_hard_over_to_hard_over_is_refused():
+    # 6 moving vanes leave each chamber at most 360 / 6 = 60 deg, less than 2 x 35 deg.
+    with pytest.raises(InputError, match=r"test particulars: unit\[0\]\.vanes: expected vanes whose chambers can swing "
+                                         r"2 x max_rudder_angle = 70 deg \(6 moving vanes leave each at most 360/6 deg = 60\.0 deg\)"):
+        _vane(vanes=6)
+    # 3 vanes of 30 deg each: 120 - 2 x 30 = 60 deg, short of 70 deg.
+    with pytest.raises(InputError, match=r"unit\[0\]\.vanes: .* at most 360/3 deg less 2 x vane_angle 30 deg = 60\.0 deg"):
+        _vane(vanes=3, vane_angle="30 deg")
+    assert _vane(vanes=3, vane_angle="20 deg").units[0].geometry.vane_angle == pytest.approx(math.radians(20))
+
+
+@pytest.mark.parametrize(("duty", "hours"), [(12, 12.0), ("12 h/day", 12.0), ("84 h/week", 12.0), ("20 h/d", 20.0)])
+def test_filter_duty_with_or_without_a_unit(duty, hours):
+    from engine_helpers import ram_unit, vessel
+
+    v = vessel(ram_unit(filter=[{"position": "return", "elements": 1, "change_interval": "2000 h", "duty": duty}]))
+    assert v.units[0].filters[0].duty_hours_per_day == pytest.approx(hours)
+
+
+@pytest.mark.parametrize("duty", ["25 h/day", "12 h", "12 bar/day", "-1 h/day"])
+def test_filter_duty_out_of_range_or_unit_refused(duty):
+    from engine_helpers import ram_unit, vessel
+
+    with pytest.raises(InputError, match=r"unit\[0\]\.filter\[0\]\.duty: expected "):
+        vessel(ram_unit(filter=[{"position": "return", "elements": 1, "change_interval": "2000 h", "duty": duty}]))
+
+
+@pytest.mark.parametrize("fluid", ["HFAE 2", "HFAS 2", "HFB 68"])
+def test_high_water_content_fluids_accepted(fluid):
+    # ISO 6743-4: HFAE oil-in-water emulsions, HFAS aqueous solutions, HFB water-in-oil emulsions.
+    from engine_helpers import ram_unit, vessel
+
+    assert str(vessel(ram_unit(fluid=fluid)).units[0].fluid) == fluid
+
+
+@pytest.mark.parametrize("ship_type", ["chemical_tanker", "gas_carrier"])
+def test_ship_types_of_29_16_accepted(ship_type):
+    from engine_helpers import ram_unit, vessel
+
+    assert vessel(ram_unit(), ship_type=ship_type).ship_type == ship_type
+
+
+def test_optional_stock_and_pressures():
+    from engine_helpers import ram_unit, vessel
+
+    u = vessel(ram_unit(stock_diameter="250 mm", max_working_pressure="140 bar", design_pressure="200 bar")).units[0]
+    assert (u.stock_diameter, u.max_working_pressure, u.design_pressure) == (pytest.approx(0.250), pytest.approx(140e5), pytest.approx(200e5))
+    assert _vane().units[0].stock_diameter == pytest.approx(0.380)  # a rotary vane's is its geometry's

@@ -96,10 +96,55 @@ def test_cylinder_travel():
 def test_actuator_dispatch_and_oil():
     ram = unit(ram_unit())
     assert physics.actuation(ram).torque(0, P) == pytest.approx(physics.ram_actuation(RAM, 2).torque(0, P), rel=1e-12)
-    assert physics.actuator_oil_volume(ram) == pytest.approx(2 * math.pi / 4 * 0.280**2 * 0.900, rel=1e-12)
+    # A ram pair holds A x stroke: as one ram comes out by x the other goes in by x.
+    assert physics.actuator_oil_volume(ram) == pytest.approx(math.pi / 4 * 0.280**2 * 0.900, rel=1e-12)
     cyl = unit(cylinder_unit())
     a_b = math.pi / 4 * 0.200**2
-    assert physics.actuator_oil_volume(cyl) == pytest.approx(2 * (2 * a_b - math.pi / 4 * 0.140**2) * 0.450, rel=1e-12)
+    # A cylinder pair holds (A_bore + A_annulus) x stroke: x_1 + x_2 = stroke.
+    assert physics.actuator_oil_volume(cyl) == pytest.approx((2 * a_b - math.pi / 4 * 0.140**2) * 0.450, rel=1e-12)
     vane = unit(vane_unit())
     assert physics.actuator_oil_volume(vane) == pytest.approx(math.pi * (0.450**2 - 0.250**2) * 0.450, rel=1e-12)
     assert physics.actuation(vane).torque(0.3, P) == pytest.approx(physics.vane_actuation(VANE).torque(0, P), rel=1e-12)
+
+
+def _pair_oil_by_positions(area: float, stroke: float, xs) -> list[float]:
+    """Oil in a ram pair, ram 1 out by x from mid-stroke and ram 2 in by x, at each x (clearances nil)."""
+    return [area * (stroke / 2 + x) + area * (stroke / 2 - x) for x in xs]
+
+
+@pytest.mark.parametrize("count", [2, 4])
+def test_ram_pairs_hold_area_times_stroke_each(count):
+    # Rapson slide pairs: two plungers on one crosshead. Summed over positions by hand, each pair
+    # holds A x stroke at every position, so a 4-ram gear (two pairs) holds 2 A s, not 4 A s.
+    area = math.pi / 4 * 0.280**2
+    by_positions = _pair_oil_by_positions(area, 0.900, [-0.4, -0.1, 0.0, 0.25, 0.45])
+    assert max(by_positions) == pytest.approx(min(by_positions)) == pytest.approx(area * 0.900)
+    u = unit(ram_unit(count=count))
+    assert physics.actuator_oil_volume(u) == pytest.approx(count / 2 * by_positions[0], rel=1e-12)
+
+
+def test_non_steering_cylinders_hold_at_most_the_full_bore():
+    # Hatch cylinders all run out together: fully out, each holds A_bore x stroke, annulus empty.
+    hatch = unit(cylinder_unit(service="hatch_cover", count=8, tiller_radius=None, max_rudder_angle=None))
+    assert physics.actuator_oil_volume(hatch) == pytest.approx(8 * math.pi / 4 * 0.200**2 * 0.450, rel=1e-12)
+
+
+def test_rotary_vane_oil_less_the_vanes():
+    # Annulus pi (R^2 - r^2) h less 2n vanes of 30 deg each: (360 - 4 x 30)/360 of the annulus.
+    v = unit(vane_unit(vane_angle="30 deg"))
+    annulus = math.pi * (0.450**2 - 0.250**2) * 0.450
+    assert physics.actuator_oil_volume(v) == pytest.approx(annulus * 240 / 360, rel=1e-12)
+
+
+def test_reachable_angle_of_a_short_stroke():
+    # Rapson slide: x = R tan(theta) each side, so a stroke s reaches atan(s / 2R).
+    reach = physics.reachable_angle(lambda th: physics.ram_travel(0.600, th), 0.800, math.radians(35))
+    assert reach == pytest.approx(math.atan(0.800 / 1.200), abs=1e-9)
+    assert physics.reachable_angle(lambda th: physics.ram_travel(0.600, th), 0.900, math.radians(35)) == math.radians(35)
+
+
+@pytest.mark.parametrize(("vanes", "vane_angle", "free"), [(2, 0, 180), (3, 20, 80), (5, 0, 72), (6, 0, 60)])
+def test_vane_free_swing(vanes, vane_angle, free):
+    # Between two fixed vanes 360/n deg; less the fixed and the moving vane's own angles.
+    g = VaneGeometry(vanes, 0.4, 1.0, 0.6, 0.4, math.radians(vane_angle))
+    assert math.degrees(physics.vane_free_swing(g)) == pytest.approx(free)
