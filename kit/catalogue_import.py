@@ -29,6 +29,7 @@ from sqlalchemy.engine import Engine
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from catalog_schema.engine import write_transaction
+from catalog_schema.locks import hold
 from catalog_schema.sql import insert_rows, upsert
 from kit.errors import InputError
 from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
@@ -131,6 +132,7 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str) -> Catalog
     entries = _entries(table)
 
     def write(conn) -> CatalogueReport:
+        hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)
         conn.execute(upsert(conn, SUPPLIERS, ["name"]), [{"name": supplier}])
         sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
         known = part_ids(conn)
