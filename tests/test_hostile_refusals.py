@@ -173,3 +173,36 @@ def test_a_refusal_that_does_not_come_again_is_one_line_about_the_database(engin
     assert str(err.value).startswith(f"database {engine.url.render_as_string(hide_password=True)}: "
                                      "refused the change, nothing was written; ")
     assert tries == [1, 1] and dump(engine, ["suppliers"]) == {"suppliers": []}
+
+
+def test_a_particulars_row_the_database_refuses_names_the_file_and_unit(engine, tmp_path, monkeypatch):
+    # kit load: the particulars' own checks refuse a unit count below 1 first; past them, the
+    # database's CHECK (units.count >= 1) is traced to the file and unit.
+    import kit.fleet_store
+    from db_support import TOML_CYLINDER
+
+    toml = tmp_path / "v.toml"
+    toml.write_text(TOML_CYLINDER)
+    real = kit.fleet_store._unit_row
+    monkeypatch.setattr(kit.fleet_store, "_unit_row", lambda u, seq: {**real(u, seq), "count": 0})
+    out = _refused(engine, ["load", str(toml)])
+    assert out.startswith(f"kit: error: {toml}, unit SG1: column count: {EXPECTED} (got 0, refused: ")
+    assert "ck_units_count" in out
+
+
+def test_a_vessel_row_the_database_refuses_names_the_file(engine, tmp_path):
+    import dataclasses
+
+    from catalog_schema.engine import write_transaction
+    from catalog_schema.refusals import RefusedRowError
+    from db_support import TOML_CYLINDER
+    from kit.fleet_store import save_vessels
+    from kit.particulars import load_vessel
+
+    toml = tmp_path / "v.toml"
+    toml.write_text(TOML_CYLINDER)
+    vessel = dataclasses.replace(load_vessel(toml), gross_tonnage=0.0)  # past the particulars' own check
+    with pytest.raises(RefusedRowError) as err:
+        write_transaction(engine, lambda conn: save_vessels(conn, [vessel]))
+    assert str(err.value).startswith(f"{toml}: column gross_tonnage: {EXPECTED} (got 0.0, refused: ")
+    assert dump(engine, ["vessels"]) == {"vessels": []}
