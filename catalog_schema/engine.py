@@ -109,7 +109,8 @@ def _sqlite_engine(url: str, database: str | None, busy_timeout_ms: int) -> Engi
     return engine
 
 
-def _worth_retrying(exc: DBAPIError) -> bool:
+def worth_retrying(exc: DBAPIError) -> bool:
+    """True for a lost lock or serialisation race, which another try may win."""
     state = getattr(exc.orig, "sqlstate", None)
     if state in _PG_RETRY_STATES:
         return True
@@ -117,18 +118,28 @@ def _worth_retrying(exc: DBAPIError) -> bool:
     return isinstance(exc, OperationalError) and ("database is locked" in text or "database is busy" in text)
 
 
+class Unplaced(Exception):
+    """The database refused rows of a write, not yet traced to one (see :mod:`catalog_schema.refusals`)."""
+
+
 def write_transaction(engine: Engine, work: Callable[[Connection], T], attempts: int = WRITE_ATTEMPTS) -> T:
     """Run ``work(conn)`` in one transaction: all of it is committed, or none of it.
 
     A transaction that lost a lock or serialisation race is rolled back and run again, up to
-    ``attempts`` times; then :class:`BusyError`. Any other error rolls back and propagates.
+    ``attempts`` times; then :class:`BusyError`. One whose rows the database refused is rolled
+    back and run once more to find the row (:func:`catalog_schema.refusals.replay_locating`),
+    which raises the error naming it. Any other error rolls back and propagates.
     """
     for attempt in range(1, attempts + 1):
         try:
             with engine.begin() as conn:
                 return work(conn)
+        except Unplaced as refusal:
+            from catalog_schema.refusals import replay_locating
+
+            replay_locating(engine, work, refusal)
         except DBAPIError as exc:
-            if not _worth_retrying(exc):
+            if not worth_retrying(exc):
                 raise
             if attempt == attempts:
                 raise BusyError(shown(str(engine.url)), f"another writer held it through {attempts} attempts",

@@ -29,6 +29,8 @@ from sqlalchemy.engine import Engine
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from catalog_schema.engine import write_transaction
+from catalog_schema.locks import hold
+from catalog_schema.refusals import located
 from catalog_schema.sql import insert_rows, upsert
 from kit.errors import InputError
 from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
@@ -131,7 +133,9 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str) -> Catalog
     entries = _entries(table)
 
     def write(conn) -> CatalogueReport:
-        conn.execute(upsert(conn, SUPPLIERS, ["name"]), [{"name": supplier}])
+        hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)
+        located(conn, SUPPLIERS, ["name"], [{"name": supplier}], lambda c, one: c.execute(upsert(c, SUPPLIERS, ["name"]), one),
+                lambda _: str(path), {"name": "--supplier"})
         sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
         known = part_ids(conn)
         report = CatalogueReport(supplier, len(entries), 0)
@@ -143,7 +147,8 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str) -> Catalog
             rows.append((sid, pid, ref, key, *rest))
         report.matched = len(rows) - len(report.unmatched)
         conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
-        insert_rows(conn, ENTRIES, ENTRY_COLUMNS, rows)
+        located(conn, ENTRIES, ENTRY_COLUMNS, rows, lambda c, some: insert_rows(c, ENTRIES, ENTRY_COLUMNS, some),
+                lambda i: table.where(entries[i][0]), {"supplier_id": "--supplier", "part_id": "part_key"})
         return report
 
     return write_transaction(engine, write)

@@ -26,6 +26,7 @@ from catalog_schema.core_tables import (
     UNITS,
     VESSELS,
 )
+from catalog_schema.refusals import located
 from catalog_schema.sql import in_batches, upsert
 from kit.errors import InputError
 from kit.particulars import (
@@ -132,7 +133,8 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     companies = {name: company_id(conn, name) for name in dict.fromkeys(v.company for v in given if v.company is not None)}
     rows = [{"id": v.id, "name": v.name, "ship_type": v.ship_type, "gross_tonnage": v.gross_tonnage,
              "company_id": companies.get(v.company), "source": v.source or None} for v in latest]
-    conn.execute(upsert(conn, VESSELS, ["id"], update=[c for c in rows[0] if c != "id"]), rows)
+    located(conn, VESSELS, (), rows, lambda c, some: c.execute(upsert(c, VESSELS, ["id"], update=[k for k in rows[0] if k != "id"]), list(some)),
+            lambda i: latest[i].source or f"vessel {latest[i].id}")
 
     def unit_ids_of(vessel_ids: list[str]) -> dict[tuple[str, str], int]:
         found: dict[tuple[str, str], int] = {}
@@ -147,33 +149,40 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     gone = [uid for key, uid in existing.items() if key not in wanted]
     for chunk in in_batches(conn, gone):
         conn.execute(delete(UNITS).where(UNITS.c.id.in_(chunk)))
-    changed, added = [], []
+    changed, added = [], []  # (where, row): the database's refusal of a row names its file and unit
     for v in latest:
         for seq, unit in enumerate(v.units):
             values = _unit_row(unit, seq)
+            where = f"{v.source or 'vessel ' + v.id}, unit {unit.id}"
             if (v.id, unit.id) in existing:
-                changed.append({"uid": existing[(v.id, unit.id)], **{f"new_{k}": x for k, x in values.items()}})
+                changed.append((where, {"uid": existing[(v.id, unit.id)], **{f"new_{k}": x for k, x in values.items()}}))
             else:
-                added.append({"vessel_id": v.id, **values})
+                added.append((where, {"vessel_id": v.id, **values}))
     if changed:
-        conn.execute(update(UNITS).where(UNITS.c.id == bindparam("uid"))
-                     .values({k.removeprefix("new_"): bindparam(k) for k in changed[0] if k != "uid"}), changed)
-    if added:
-        conn.execute(insert(UNITS), added)
+        statement = (update(UNITS).where(UNITS.c.id == bindparam("uid"))
+                     .values({k.removeprefix("new_"): bindparam(k) for k in changed[0][1] if k != "uid"}))
+        _located(conn, UNITS, changed, statement, {f"new_{c}": f"column {c}" for c in UNITS.c.keys()})
+    _located(conn, UNITS, added, insert(UNITS))
     unit_id = unit_ids_of(vessel_ids_)
-    units = [(unit_id[(v.id, u.id)], u) for v in latest for u in v.units]
+    units = [(unit_id[(v.id, u.id)], u, f"{v.source or 'vessel ' + v.id}, unit {u.id}") for v in latest for u in v.units]
 
     tables = [ACTUATORS, POWER_UNITS] + [t for t, _, _ in _CHILDREN.values()]
-    for chunk in in_batches(conn, [uid for uid, _ in units]):
+    for chunk in in_batches(conn, [uid for uid, _, _ in units]):
         for table in tables:
             conn.execute(delete(table).where(table.c.unit_id.in_(chunk)))
-    conn.execute(insert(ACTUATORS), [{"unit_id": uid, **_geometry_row(u)} for uid, u in units])
-    conn.execute(insert(POWER_UNITS), [{"unit_id": uid, **_power_row(u)} for uid, u in units])
+    _located(conn, ACTUATORS, [(w, {"unit_id": uid, **_geometry_row(u)}) for uid, u, w in units], insert(ACTUATORS))
+    _located(conn, POWER_UNITS, [(w, {"unit_id": uid, **_power_row(u)}) for uid, u, w in units], insert(POWER_UNITS))
     for table, rows_of, _ in _CHILDREN.values():
-        child_rows = [{"unit_id": uid, "seq": i, **r} for uid, u in units for i, r in enumerate(rows_of(u))]
-        if child_rows:
-            conn.execute(insert(table), child_rows)
+        child_rows = [(w, {"unit_id": uid, "seq": i, **r}) for uid, u, w in units for i, r in enumerate(rows_of(u))]
+        _located(conn, table, child_rows, insert(table))
     return ids
+
+
+def _located(conn: Connection, table, rows: list[tuple[str, dict]], statement, fields: dict[str, str] | None = None) -> None:
+    """Run ``statement`` for the rows (each with the file and unit it came from), naming the one
+    the database refuses (:func:`catalog_schema.refusals.located`)."""
+    located(conn, table, (), [r for _, r in rows], lambda c, some: c.execute(statement, list(some)),
+            lambda i: rows[i][0], fields)
 
 
 def vessel_ids(conn: Connection) -> list[str]:

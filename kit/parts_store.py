@@ -25,6 +25,7 @@ from sqlalchemy import select, update
 from sqlalchemy.engine import Connection
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, PARTS
+from catalog_schema.locks import hold
 from catalog_schema.sql import in_batches, upsert
 from kit.errors import InputError
 from kit.parts import PART_KINDS, LineItem, part_key
@@ -49,11 +50,22 @@ class Registered:
 def register_parts(conn: Connection, items: Iterable[LineItem]) -> Registered:
     """Add the generic part of every line item not yet in the database, and match to them the
     catalogue entries imported before they were registered (kept with their key, see
-    :mod:`kit.catalogue_import`)."""
+    :mod:`kit.catalogue_import`).
+
+    Matching is done twice, from each side: a catalogue import looks up the ids of the parts
+    registered so far, and this updates the entries still unmatched. Two such transactions
+    running at once on PostgreSQL could each miss the other's uncommitted rows (the import read
+    the ids before this committed; this updated before the import's rows were committed), leaving
+    the whole import unmatched. So both hold the lock ``part matching`` (:mod:`catalog_schema.locks`)
+    from their first statement: one runs after the other has committed, and the second sees the
+    first's rows, whichever order they come in. One statement per transaction, not per row; a
+    set-based UPDATE after the insert would still need the lock, as it cannot see uncommitted parts.
+    """
     rows = {i.key: {"key": i.key, "kind": i.kind, "designation": i.designation, "standard": i.standard or None}
             for i in items}
     if not rows:
         return Registered(0, 0)
+    hold(conn, "part matching")
     keys = sorted(rows)
     conn.execute(upsert(conn, PARTS, ["key"]), [rows[k] for k in keys])
     part_id = select(PARTS.c.id).where(PARTS.c.key == ENTRIES.c.part_key).scalar_subquery()

@@ -29,6 +29,7 @@ from sqlalchemy.engine import Connection, Engine
 from catalog_schema.conventions import DEFAULT_LOCATION
 from catalog_schema.core_tables import PARTS, STOCK, VESSELS
 from catalog_schema.engine import write_transaction
+from catalog_schema.refusals import located
 from catalog_schema.sql import upsert
 from kit.catalogue_import import number
 from kit.errors import InputError
@@ -107,17 +108,20 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "
         entries.sort(key=lambda e: (e[1]["part_id"], e[1]["location"]))
         values = [v for _, v in entries]
         natural_key = ["vessel_id", "part_id", "location"]
+
+        def upsert_located(chosen: list[tuple[Row, dict]], statement) -> None:
+            """Run ``statement`` for the rows' values, naming the line of one the database refuses."""
+            located(conn, STOCK, (), [v for _, v in chosen], lambda c, some: c.execute(statement, list(some)),
+                    lambda i: table.where(chosen[i][0].line), {"vessel_id": "--vessel", "part_id": "part_key"})
+
         if mode == "count":
-            if values:
-                conn.execute(upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]), values)
+            upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
             return StockReport(vessel_id, mode, len(values))
         _refuse_negative(conn, table, vessel_id, entries)
         # An issue only changes a row that exists (checked above). It cannot go through
         # INSERT ... ON CONFLICT: both engines check the CHECK on the row proposed for insertion.
         issues = [{"d": v["quantity"], "v": v["vessel_id"], "p": v["part_id"], "l": v["location"]} for v in values if v["quantity"] < 0]
-        receipts = [v for v in values if v["quantity"] >= 0]
-        if receipts:
-            conn.execute(upsert(conn, STOCK, natural_key, add=["quantity"]), receipts)
+        upsert_located([(row, v) for row, v in entries if v["quantity"] >= 0], upsert(conn, STOCK, natural_key, add=["quantity"]))
         if issues:
             conn.execute(update(STOCK).where(STOCK.c.vessel_id == bindparam("v"), STOCK.c.part_id == bindparam("p"),
                                              STOCK.c.location == bindparam("l"))

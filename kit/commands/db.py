@@ -44,12 +44,13 @@ def status(engine) -> None:
     from sqlalchemy import func, inspect, select
 
     from catalog_schema.engine import shown
-    from catalog_schema.migrate import current, head
+    from catalog_schema.migrate import current, head, is_newer
     from catalog_schema.core_tables import metadata
 
     found = current(engine)
     click.echo(f"database: {shown(str(engine.url))}")
-    click.echo(f"revision: {found or 'none (empty database)'}; this kit's newest: {head()}")
+    newer = " (newer than this kit)" if is_newer(found) else ""
+    click.echo(f"revision: {found or 'none (empty database)'}{newer}; this kit's newest: {head()}")
     present = set(inspect(engine).get_table_names())
     with engine.connect() as conn:
         for table in metadata.sorted_tables:
