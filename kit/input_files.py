@@ -48,12 +48,15 @@ SHEET_XLSX = Kind("an existing .xlsx or .csv file", MAX_XLSX_BYTES)
 PARTICULARS_XLSX = Kind("an existing .xlsx file", MAX_XLSX_BYTES)
 
 
-def _mib(size: int) -> str:
-    return f"{size / 2**20:.1f} MiB"
+def _size(size: int) -> str:
+    """A size as a refusal shows it: MiB, or bytes below one MiB."""
+    if size < 1 << 20:
+        return f"{size:,} bytes"
+    return f"{size >> 20} MiB" if size % (1 << 20) == 0 else f"{size / 2**20:.1f} MiB"
 
 
 def _too_big(source: str, kind: Kind, got: str) -> InputError:
-    return InputError(source, "file", f"a file of at most {kind.max_bytes >> 20} MiB", got=got)
+    return InputError(source, "file", f"a file of at most {_size(kind.max_bytes)}", got=got)
 
 
 def _open(path: Path, kind: Kind) -> int:
@@ -66,7 +69,7 @@ def _open(path: Path, kind: Kind) -> int:
     if not stat.S_ISREG(before.st_mode):
         raise InputError(source, "file", "a regular file", got=described(path, before))  # never opened
     if before.st_size > kind.max_bytes:
-        raise _too_big(source, kind, _mib(before.st_size))
+        raise _too_big(source, kind, _size(before.st_size))
     try:
         fd = os.open(path, _OPEN_FLAGS)  # O_NONBLOCK: a FIFO swapped in cannot make this wait
     except OSError as exc:
@@ -78,7 +81,7 @@ def _open(path: Path, kind: Kind) -> int:
                          got=f"{kind_of(opened.st_mode)} in its place")
     if opened.st_size > kind.max_bytes:
         os.close(fd)
-        raise _too_big(source, kind, _mib(opened.st_size))
+        raise _too_big(source, kind, _size(opened.st_size))
     return fd
 
 
