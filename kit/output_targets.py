@@ -79,17 +79,17 @@ def _identity(path: str) -> tuple[int, int] | None:
 
 
 def _database_part(target: Path, database: str) -> str | None:
-    """Which of the database's files ``target`` is ("the database file", "its -wal file"), if any."""
-    name = os.path.realpath(target)
-    same = _identity(str(target))
+    """Which of the database's files ``target`` is ("the fleet database", "the -wal file of ..."),
+    or None."""
+    name, same = os.path.realpath(target), _identity(str(target))
     for suffix in COMPANIONS:
         part = database + suffix
         if name == os.path.realpath(part) or (same is not None and same == _identity(part)):
             return "the fleet database" if not suffix else f"the {suffix} file of the fleet database"
-        # a link to the database, given a companion's name, would be taken for one by SQLite
+        # beside a link to the database, SQLite would take this name for the link's companion
         if suffix and target.name.endswith(suffix):
-            base = target.with_name(target.name[: -len(suffix)])
-            if _identity(str(base)) is not None and _identity(str(base)) == _identity(database):
+            base = _identity(str(target)[: -len(suffix)])
+            if base is not None and base == _identity(database):
                 return f"the {suffix} file of a link to the fleet database"
     return None
 
