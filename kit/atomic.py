@@ -14,6 +14,7 @@ from pathlib import Path
 from typing import Callable
 
 from kit.errors import OutputError
+from kit.output_targets import refuse_bad_target
 
 
 def replace_atomically(path: Path, write: Callable[[Path], object]) -> Path:
@@ -21,9 +22,13 @@ def replace_atomically(path: Path, write: Callable[[Path], object]) -> Path:
 
     On any failure the temporary file is removed and ``path`` is left as it was; an OSError
     (no room, no permission, read-only folder) becomes :class:`~kit.errors.OutputError`.
+    ``path`` is refused (:func:`kit.output_targets.refuse_bad_target`: the fleet database, a
+    device, FIFO, folder, a read-only file) before anything is written and again just before
+    the rename, in case it became one meanwhile.
     Where the system offers it (Linux, ``O_TMPFILE``) the file being written has no name until it
     is complete, so even a process killed outright (SIGKILL, power loss) leaves no partial file.
     """
+    refuse_bad_target(path)
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
@@ -58,6 +63,7 @@ def _write_unnamed(path: Path, write: Callable[[Path], object]) -> None:
         # The content is complete: give it a name beside the target, then move it into place.
         tmp = path.parent / f".{path.name}.{os.getpid()}.{uuid.uuid4().hex[:8]}.part"
         _link_following(f"/proc/self/fd/{fd}", tmp)
+        refuse_bad_target(path)
         os.replace(tmp, path)
         tmp = None
 
@@ -82,6 +88,8 @@ def _refuse_quietly(path: Path, step: Callable[[], object], write: Callable[[Pat
     try:
         try:
             step()
+        except OutputError:
+            raise  # already one line, e.g. the target became a FIFO while the file was written
         except OSError as exc:
             failure = exc.strerror or str(exc)
             sys.unraisablehook = _drop
@@ -137,7 +145,7 @@ def _write_named(path: Path, write: Callable[[Path], object]) -> None:
         raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
     os.close(fd)
     try:
-        _refuse_quietly(path, lambda: (write(Path(tmp)), os.replace(tmp, path)), write)
+        _refuse_quietly(path, lambda: (write(Path(tmp)), refuse_bad_target(path), os.replace(tmp, path)), write)
     finally:
         if os.path.exists(tmp):
             os.unlink(tmp)

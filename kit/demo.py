@@ -11,7 +11,6 @@ elements and oil below what a long voyage needs.
 from __future__ import annotations
 
 import csv
-import shutil
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -72,13 +71,15 @@ def _write_csv(path: Path, rows: list[dict]) -> None:
 
 
 def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
-    """Build the demo in ``out`` (replaced if it exists) and return where everything is."""
+    """Build the demo in ``out`` and return where everything is. ``out`` must be new, empty, or a
+    folder an earlier demo made (:func:`kit.output_targets.make_demo_folder`), which is replaced."""
     from catalog_schema.engine import make_engine, write_transaction
     from catalog_schema.migrate import upgrade
     from kit.bom import consolidate
     from kit.catalogue_import import import_catalogue
     from kit.fleet_store import read_vessels, save_vessels
     from kit.order_sources import catalogue_offers, stock_on_board
+    from kit.output_targets import check_demo_folder, make_demo_folder
     from kit.particulars import load_folder
     from kit.parts_store import register_parts
     from kit.preflight import preflight_order
@@ -87,11 +88,11 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     from kit.stock_import import import_stock
     from kit.workbook import write_workbook
 
+    check_demo_folder(out)  # before any work
     fleet = fleet or demo_fleet_folder()
     vessels = load_folder(fleet)
-    if out.exists():
-        shutil.rmtree(out)
-    (out / "imports").mkdir(parents=True)
+    make_demo_folder(out)
+    (out / "imports").mkdir()
     database = out / "fleet.sqlite"
     engine = make_engine(f"sqlite:///{database}")
     try:

@@ -78,6 +78,9 @@ class OutputError(KitError, OSError):
 
     target: str
     expected: str
+    field: str = "output"  # the option that named it, e.g. --out
+    got: str | None = None
 
     def __str__(self) -> str:
-        return f"{self.target}: output: expected {self.expected}"
+        found = f" (got {self.got})" if self.got is not None else ""
+        return f"{self.target}: {self.field}: expected {self.expected}{found}"

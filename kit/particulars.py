@@ -12,13 +12,14 @@ from __future__ import annotations
 
 import math
 import re
-import tomllib
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
+from kit.input_files import TOML_PARTICULARS, read_text
 from kit.rudder import POSITION_K3, PROFILE_K2, Rudder
+from kit.toml_text import parse_toml
 from kit.units import to_si
 
 # "chemical_tanker" and "gas_carrier" are cargo ships that SOLAS II-1/29.16 names beside tankers.
@@ -517,26 +518,30 @@ def vessel_from_dict(data: Any, source: str = "") -> Vessel:
 
 
 def load_vessel(path: str | Path) -> Vessel:
-    """Read and check one particulars file."""
-    path = Path(path)
+    """Read and check one particulars file (a regular file, see :mod:`kit.input_files`)."""
     source = str(path)
-    try:
-        raw = path.read_bytes()
-    except OSError as exc:
-        raise InputError(source, "file", "a readable particulars file", got=exc.strerror or str(exc)) from None
-    try:
-        data = tomllib.loads(raw.decode("utf-8"))
-    except UnicodeDecodeError:
-        raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
-    except tomllib.TOMLDecodeError as exc:
-        raise InputError(source, "file", "valid TOML", got=str(exc)) from None
-    return vessel_from_dict(data, source)
+    return vessel_from_dict(parse_toml(read_text(path, TOML_PARTICULARS), source), source)
+
+
+def is_toml(path: Path) -> bool:
+    """A ``.toml`` file name, in any case (``.TOML`` too)."""
+    return path.suffix.lower() == ".toml"
 
 
 def load_folder(folder: str | Path) -> list[Vessel]:
-    """Read every ``*.toml`` particulars file in ``folder`` (sorted by name)."""
+    """Read every ``*.toml`` particulars file in ``folder`` (sorted by name; any case of the
+    suffix). A vessel id in two files is refused, naming both."""
     folder = Path(folder)
-    files = sorted(folder.glob("*.toml"))
+    files = sorted(p for p in folder.iterdir() if is_toml(p))
     if not files:
         raise InputError(str(folder), "folder", "at least one *.toml particulars file", got="none")
-    return [load_vessel(f) for f in files]
+    vessels: list[Vessel] = []
+    first: dict[str, str] = {}
+    for f in files:
+        vessel = load_vessel(f)
+        if vessel.id in first:
+            raise InputError(str(f), "vessel.id", f"a vessel id no other file of this load has (also in {first[vessel.id]})",
+                             got=repr(vessel.id))
+        first[vessel.id] = str(f)
+        vessels.append(vessel)
+    return vessels

@@ -19,13 +19,14 @@ reported at its sheet, row and column.
 from __future__ import annotations
 
 import re
-import tomllib
 from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
+from kit.input_files import TOML_PARTICULARS, read_text
 from kit.particulars import Vessel, vessel_from_dict
 from kit.sheets import Sheet, read_sheets, write_workbook
+from kit.toml_text import parse_toml
 
 VESSEL_FIELDS = ("id", "name", "ship_type", "gross_tonnage", "company")
 UNIT_COLUMNS = (
@@ -82,10 +83,7 @@ def write_particulars_template(path: str | Path, from_toml: str | Path | None = 
     """Write the particulars workbook, empty or filled from a TOML particulars file."""
     document = None
     if from_toml is not None:
-        try:
-            document = tomllib.loads(Path(from_toml).read_text(encoding="utf-8"))
-        except (OSError, UnicodeDecodeError, tomllib.TOMLDecodeError) as exc:
-            raise InputError(str(from_toml), "file", "a readable TOML particulars file", got=str(exc)) from None
+        document = parse_toml(read_text(from_toml, TOML_PARTICULARS), str(from_toml))
         vessel_from_dict(document, str(from_toml))  # refuse a bad file before writing anything
     write_workbook(path, particulars_sheets(document))
 

@@ -21,6 +21,7 @@ from typing import Any, Iterable, Sequence
 
 from kit.atomic import replace_atomically
 from kit.errors import InputError
+from kit.input_files import PARTICULARS_XLSX, SHEET_CSV, SHEET_XLSX, check_input, open_text
 from kit.safe_text import csv_field, from_csv_field, is_risky
 
 # Data rows read from one sheet. Sheets are streamed (openpyxl read-only mode, csv line by line)
@@ -209,8 +210,7 @@ def read_table(path: str | Path, sheet: str, *, known: Sequence[str] | None = No
     path = Path(path)
     source = str(path)
     max_rows = MAX_ROWS if max_rows is None else max_rows
-    if not path.is_file():
-        raise InputError(source, "file", "an existing .xlsx or .csv file", got="no such file")
+    check_input(path, SHEET_CSV if path.suffix.lower() == ".csv" else SHEET_XLSX)
     if path.suffix.lower() == ".csv":
         return _read_csv(path, known, required, max_rows)
     if path.suffix.lower() != ".xlsx":
@@ -233,8 +233,7 @@ def read_sheets(path: str | Path) -> dict[str, list[tuple[int, Sequence[Any]]]]:
     """Every sheet of a workbook as raw (row number, cells) lists, for multi-sheet templates."""
     path = Path(path)
     source = str(path)
-    if not path.is_file():
-        raise InputError(source, "file", "an existing .xlsx file", got="no such file")
+    check_input(path, PARTICULARS_XLSX)
     wb = _open_workbook(path)
     try:
         found = {}
@@ -252,10 +251,7 @@ def read_sheets(path: str | Path) -> dict[str, list[tuple[int, Sequence[Any]]]]:
 
 def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], max_rows: int) -> Table:
     source = str(path)
-    try:
-        handle = path.open(encoding="utf-8-sig", newline="")
-    except OSError as exc:
-        raise InputError(source, "file", "a readable CSV file", got=exc.strerror or str(exc)) from None
+    handle = open_text(path, SHEET_CSV, encoding="utf-8-sig", newline="")
     with handle:
         reader = csv.reader(handle)
 

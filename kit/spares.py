@@ -16,7 +16,9 @@ from typing import Any
 
 from kit.errors import InputError
 from kit.housings import LENGTHS as HOUSING_LENGTHS
+from kit.input_files import TOML_POLICY, read_text
 from kit.oil import Package
+from kit.toml_text import parse_toml
 from kit.units import to_si
 
 PER = ("unit", "actuator", "actuator_size", "voltage", "valve_block", "hose_size", "pump_model")
@@ -71,20 +73,12 @@ def _merge(base: dict[str, Any], override: dict[str, Any], source: str) -> dict[
 
 
 def read_policy_text(path: str | Path) -> str:
-    """The text of a company policy file, or one line saying why it cannot be read."""
-    try:
-        return Path(path).read_text(encoding="utf-8")
-    except OSError as exc:
-        raise InputError(str(path), "file", "a readable spares policy file", got=exc.strerror) from None
-    except UnicodeDecodeError as exc:
-        raise InputError(str(path), "file", "valid TOML", got=str(exc)) from None
+    """The text of a company policy file (a regular file, see :mod:`kit.input_files`)."""
+    return read_text(path, TOML_POLICY)
 
 
 def _parse(text: str, source: str) -> dict[str, Any]:
-    try:
-        return tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
-        raise InputError(source, "file", "valid TOML", got=str(exc)) from None
+    return parse_toml(text, source)
 
 
 def _build(data: dict[str, Any], source: str) -> Policy:

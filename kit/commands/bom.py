@@ -12,13 +12,13 @@ from kit.commands.common import db_option
 @click.command(epilog=SAFETY)
 @click.option("--vessel", "vessel_ids", multiple=True, metavar="ID", help="A vessel's id (repeatable); default the whole fleet.")
 @click.option("--days", type=click.FloatRange(min=0), default=90, show_default=True, help="Period to cover, in days.")
-@click.option("--out", "out", type=click.Path(dir_okay=False), default="kit-bom.xlsx", show_default=True,
-              help="Workbook to write (.xlsx).")
-@click.option("--csv", "csv_out", type=click.Path(dir_okay=False), help="Also write the order lines as CSV.")
-@click.option("--json", "json_out", type=click.Path(dir_okay=False), help="Also write the order as JSON.")
+@click.option("--out", "out", type=click.Path(), default="kit-bom.xlsx", show_default=True,
+              help="Workbook to write (.xlsx); never the fleet database, a device, a folder or a read-only file.")
+@click.option("--csv", "csv_out", type=click.Path(), help="Also write the order lines as CSV.")
+@click.option("--json", "json_out", type=click.Path(), help="Also write the order as JSON.")
 @click.option("--particulars", type=click.Path(exists=False), help="Read vessels from a .toml file or folder instead of "
               "the database (no stock, no catalogue: a first list for a new-build series).")
-@click.option("--policy", "policy_file", type=click.Path(dir_okay=False),
+@click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
 @db_option()
 def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file) -> None:
@@ -34,8 +34,10 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
     from kit.fleet_orders import build_order
+    from kit.output_targets import check_outputs
     from kit.workbook import write_workbook
 
+    check_outputs({"--out": out, "--csv": csv_out, "--json": json_out})
     order, scope = build_order(engine, vessel_ids, days, particulars, policy_file)
     path = write_workbook(order, out, days, scope)
     written = [str(path)]

@@ -12,10 +12,10 @@ from kit.commands.common import reports_errors
 
 
 @click.command(epilog=SAFETY)
-@click.argument("particulars", type=click.Path(dir_okay=False))
+@click.argument("particulars", type=click.Path())
 @click.option("--days", type=click.FloatRange(min=0), default=0, show_default=True,
               help="Length of the voyage or period, in days.")
-@click.option("--policy", "policy_file", type=click.Path(dir_okay=False), default=None,
+@click.option("--policy", "policy_file", type=click.Path(), default=None,
               help="Company spares policy (TOML) merged over kit's default policy.")
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (the scripting format in the README).")
 @reports_errors

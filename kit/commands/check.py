@@ -14,8 +14,8 @@ from kit.commands.common import db_option
 @click.command(epilog=SAFETY)
 @click.argument("vessel_id")
 @click.option("--days", type=click.FloatRange(min=0), required=True, help="Length of the voyage, in days.")
-@click.option("--out", type=click.Path(dir_okay=False), help="Also write the shortfall as a workbook (.xlsx).")
-@click.option("--policy", "policy_file", type=click.Path(dir_okay=False),
+@click.option("--out", type=click.Path(), help="Also write the shortfall as a workbook (.xlsx).")
+@click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML); default the vessel's policy in force in the fleet database.")
 @db_option()
 def check(engine, vessel_id, days, out, policy_file) -> None:
@@ -34,9 +34,11 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
 
     from kit.fleet_orders import load_fleet, vessel_policies
     from kit.order_sources import catalogue_offers, stock_on_board
+    from kit.output_targets import check_outputs
     from kit.preflight import preflight_order
     from kit.requirements import assess_vessel
 
+    check_outputs({"--out": out})
     (vessel,) = load_fleet(engine, [vessel_id])
     result = assess_vessel(vessel, days, vessel_policies(engine, [vessel.id], policy_file)[vessel.id])
     with engine.connect() as conn:

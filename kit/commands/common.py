@@ -32,14 +32,16 @@ def without_cycle_collector() -> Iterator[None]:
 
 def reports_errors(func: Callable[..., Any]) -> Callable[..., Any]:
     """Turn the project's own errors into one line on stderr and exit status 2 (and run the
-    command with :func:`without_cycle_collector`)."""
+    command with :func:`without_cycle_collector`, and with outputs of its own checked, see
+    :mod:`kit.output_targets`)."""
 
     @functools.wraps(func)
     def wrapper(*args: Any, **kwargs: Any) -> Any:
         from kit.errors import KitError
+        from kit.output_targets import protecting
 
         try:
-            with without_cycle_collector():
+            with without_cycle_collector(), protecting(None):
                 return func(*args, **kwargs)
         except KitError as exc:
             click.echo(f"kit: error: {exc}", err=True)
@@ -53,7 +55,8 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
 
     The value is a SQLite file path or a database URL; without one, kit's default SQLite file.
     With ``migrate`` a fresh database is built first and one at an old schema is refused.
-    Errors, including the database's own, become one line and exit status 2.
+    Errors, including the database's own, become one line and exit status 2. No file the
+    command writes may be the database (:func:`kit.output_targets.protecting`).
     """
 
     def decorate(func: Callable[..., Any]) -> Callable[..., Any]:
@@ -65,11 +68,14 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
             from catalog_schema.errors import DatabaseError
             from catalog_schema.migrate import require_current
 
+            from kit.output_targets import protecting
+
             engine = make_engine(resolve_url(db))
             try:
                 if migrate:
                     require_current(engine)
-                return func(*args, engine=engine, **kwargs)
+                with protecting(engine.url):
+                    return func(*args, engine=engine, **kwargs)
             except DBAPIError as exc:
                 first = str(exc.orig).strip().splitlines()[0] if exc.orig else type(exc).__name__
                 raise DatabaseError(shown(str(engine.url)), "refused the change, nothing was written", first) from None

@@ -24,7 +24,7 @@ def policy() -> None:
 @click.option("--days", "cover_days", type=int, required=True, help="Days of cover on board.")
 @click.option("--from", "in_force_from", type=click.DateTime(["%Y-%m-%d"]), required=True, help="In force from (YYYY-MM-DD).")
 @click.option("--note", help="Free text, e.g. who approved it.")
-@click.option("--file", "policy_file", type=click.Path(dir_okay=False),
+@click.option("--file", "policy_file", type=click.Path(),
               help="The company spares policy file (TOML, as for --policy); without it, kit's default policy.")
 @db_option()
 def set_(engine, company, vessel, name, cover_days, in_force_from, note, policy_file) -> None:

@@ -26,8 +26,10 @@ def particulars(out: str, from_toml: str | None) -> None:
 
     Example: kit template particulars corvina.xlsx --from demo_fleet/corvina_bay.toml
     """
+    from kit.output_targets import check_outputs
     from kit.particulars_sheet import write_particulars_template
 
+    check_outputs({"OUT": out})
     if not out.lower().endswith(".xlsx"):
         from kit.errors import InputError
 
@@ -45,9 +47,11 @@ def stock_(engine, out: str, vessel: str | None) -> None:
 
     Example: kit template stock corvina_count.xlsx --vessel CORVINA-BAY
     """
+    from kit.output_targets import check_outputs
     from kit.sheets import write_sheet
     from kit.stock_import import stock_template
 
+    check_outputs({"OUT": out})
     with engine.connect() as conn:
         sheet = stock_template(conn, vessel)
     write_sheet(out, sheet)
@@ -63,7 +67,9 @@ def catalogue_(out: str) -> None:
     Example: kit template catalogue northwind.xlsx
     """
     from kit.catalogue_import import COLUMNS, NOTES, SHEET
+    from kit.output_targets import check_outputs
     from kit.sheets import Sheet, write_sheet
 
+    check_outputs({"OUT": out})
     write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES))
     click.echo(f"wrote {out}")
