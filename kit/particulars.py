@@ -11,13 +11,13 @@ All values in the dataclasses are SI floats: m, Pa, m^3/s, m^3, s, rad.
 from __future__ import annotations
 
 import math
-import re
 import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
+from kit.safe_text import CONTROL
 from kit.units import to_si
 
 SHIP_TYPES = ("cargo", "passenger", "tanker")
@@ -35,7 +35,7 @@ MAX_GROSS_TONNAGE = 1_000_000
 MAX_COUNT = 1000  # rams, cylinders, pumps, elements, coils, hoses: past this, a typing error
 MAX_TEXT = 200
 
-_CONTROL = re.compile(r"[\x00-\x1f\x7f]")
+_CONTROL = CONTROL  # C0, DEL and C1: the one check of every stored text (kit.safe_text)
 
 
 @dataclass(frozen=True)

@@ -25,6 +25,7 @@ CHECKSUMS: dict[str, str] = {
     "iso3448_1992_viscosity_grades.csv": "8bf660be3d2d7969ba6cc2332c1da7b7d8f9e8672f47f5ce2f39153e60138297",
     "iso3601_1_2012_o_ring_sizes.csv": "0edc9ec5bee374fc3b1de5882187b6d24ef0548ae9be92d1c354ff6d249c0e73",
     "iso3601_2_2016_static_radial_glands.csv": "35ce0e2649f01aa681291a5443d0dcab38d17689d331cec0dae2262452ecc1fa",
+    "iso4217_2015_currency_codes.csv": "5ad58d03ed32732969ddfdbcfd520f4af44a711dcee0d6924bf5c7ef7eb88d12",
     "iso5597_2018_housing_bands.csv": "fc91532cb2e398c3b080971367d3237c3fc3fea5900b7ef8bc401665850f3f8a",
     "iso6195_2013_wiper_bands.csv": "0206448b283e01acc31c5f4dacde0c86a461ed24b3f223027441c653414bf4b9",
     "seal_compound_compatibility.csv": "7be82b312a6727039728d6d0464a5b88c065566e1b2fd1b0403e7f20dc515d91",

@@ -29,7 +29,7 @@ from kit.oil import L_PER_M3, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
 from kit.parts import fmt_mm
 from kit.report import seal_json
-from kit.safe_text import TRIGGERS, is_risky
+from kit.safe_text import CONTROL, TRIGGERS, is_risky, visible
 from kit.seal_kit import mm
 
 HEADER_FONT = Font(bold=True)
@@ -72,7 +72,7 @@ class _Sheet:
             self.append([name for name, _, _ in self.columns], header=True)
 
     def _header_cell(self, value: Any) -> WriteOnlyCell:
-        c = WriteOnlyCell(self.ws, value=value)
+        c = WriteOnlyCell(self.ws, value=visible(value))
         if is_risky(value) and not isinstance(value, Formula):
             c.data_type = "s"  # user text: never a formula
         c.font, c.fill = HEADER_FONT, HEADER_FILL
@@ -106,8 +106,11 @@ class _Sheet:
                 if v is not None and (not isinstance(v, str) or isinstance(v, Formula)):
                     row[i] = self._styled(i, "fmt", v)
             for i, v in enumerate(row):
-                if isinstance(v, str) and v.startswith(TRIGGERS) and not isinstance(v, Formula):
-                    row[i] = self._styled(i, "text", v)
+                if isinstance(v, str) and not isinstance(v, Formula):
+                    if CONTROL.search(v):  # stored by another program: openpyxl would refuse the cell
+                        row[i] = v = visible(v)
+                    if v.startswith(TRIGGERS):
+                        row[i] = self._styled(i, "text", v)
         self.ws.append(row)
         self.rows += 1
         return self.rows
