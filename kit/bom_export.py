@@ -15,7 +15,7 @@ from typing import Any
 
 from kit.atomic import replace_atomically
 from kit.bom import Order
-from kit.safe_text import csv_field, visible
+from kit.safe_text import csv_field, each_text, visible
 
 FIELDS = ("number", "designation", "standard", "compound", "required", "on_board", "to_order", "uom", "pack_size",
           "packs", "supplier", "supplier_part_number", "price_per_pack", "currency", "line_total", "lead_time_days",
@@ -48,16 +48,6 @@ def write_csv(order: Order, path: str | Path) -> Path:
     return replace_atomically(Path(path), lambda tmp: tmp.write_text(buf.getvalue(), encoding="utf-8"))
 
 
-def _visible(value: Any) -> Any:
-    """``value`` with control characters replaced in every text, keys included (JSON would carry
-    them as escapes, to be decoded raw by whoever reads the file)."""
-    if isinstance(value, dict):
-        return {visible(k): _visible(v) for k, v in value.items()}
-    if isinstance(value, list):
-        return [_visible(v) for v in value]
-    return visible(value)
-
-
 def write_json(order: Order, path: str | Path, days: float) -> Path:
     doc = {
         "vessels": order.vessel_ids, "days": days,
@@ -68,5 +58,6 @@ def write_json(order: Order, path: str | Path, days: float) -> Path:
                 for o in order.oil],
         "totals": order.totals_by_currency(),
     }
-    text = json.dumps(_visible(doc), indent=2)
+    # Control characters replaced: JSON would carry them as escapes, decoded raw by whoever reads it.
+    text = json.dumps(each_text(doc, visible), indent=2)
     return replace_atomically(Path(path), lambda tmp: tmp.write_text(text, encoding="utf-8"))

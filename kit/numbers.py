@@ -90,7 +90,7 @@ def number(table: Table, row: Row, column: str, mark: DecimalMark, *, minimum: f
     if isinstance(value, str):
         parsed = parse_decimal(value, mark.name)
         if parsed is None:
-            raise table.error(row, column, mark.expected(), value)
+            raise table.error(row, column, mark.expected(), value if len(value) <= MAX_CHARS else value[:MAX_CHARS] + "...")
         value = parsed
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
         raise table.error(row, column, "a finite number", value)
@@ -111,5 +111,6 @@ def whole_number(table: Table, row: Row, column: str, minimum: int, maximum: int
     elif isinstance(value, float) and math.isfinite(value) and value.is_integer():
         value = int(value)
     if isinstance(value, bool) or not isinstance(value, int) or not minimum <= value <= maximum:
-        raise table.error(row, column, f"a whole number from {minimum:,} to {maximum:,}", value)
+        shown = value[:MAX_CHARS] + "..." if isinstance(value, str) and len(value) > MAX_CHARS else value
+        raise table.error(row, column, f"a whole number from {minimum:,} to {maximum:,}", shown)
     return value

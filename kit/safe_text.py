@@ -15,14 +15,16 @@ cell, and an escape sequence on a terminal can rewrite what the user sees. Text 
 from __future__ import annotations
 
 import re
-from typing import Any
+from typing import Any, Callable
 
 from kit.errors import InputError
 
 TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
-CONTROL = re.compile(r"[\x00-\x1f\x7f-\x9f]")
+# C0 (NUL to US), DEL and C1 (Unicode 15.0, 23.1); and the lone surrogates Python makes of bytes
+# that are not UTF-8 (in a command-line argument), which no database or file can encode.
+CONTROL = re.compile(r"[\x00-\x1f\x7f-\x9f\ud800-\udfff]")
 REPLACEMENT = "\ufffd"
-NO_CONTROL = "text without control characters (tab, newline, NUL, escape and the like)"
+NO_CONTROL = "text without control characters (tab, newline, NUL, escape and the like) or bytes that are not UTF-8"
 
 
 def checked_text(value: str, *, source: str, field: str) -> str:
@@ -44,6 +46,16 @@ def visible(value: Any) -> Any:
     if isinstance(value, str) and CONTROL.search(value) is not None:
         return CONTROL.sub(REPLACEMENT, value)
     return value
+
+
+def each_text(value: Any, change: Callable[[str], Any]) -> Any:
+    """``value`` (dicts and lists of any depth, as for JSON) with ``change`` applied to every text
+    in it, keys included."""
+    if isinstance(value, dict):
+        return {change(k) if isinstance(k, str) else k: each_text(v, change) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [each_text(v, change) for v in value]
+    return change(value) if isinstance(value, str) else value
 
 
 def shown_on_terminal(value: Any) -> str:

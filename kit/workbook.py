@@ -124,6 +124,16 @@ class Formula(str):
     """A formula kit itself writes (never user text)."""
 
 
+def _equal_to(text: str) -> str:
+    """A SUMIF criterion, as a formula's string literal, that matches cells holding ``text`` as
+    kit writes it (:func:`kit.safe_text.visible`) and nothing else: ``=`` first, so a stored
+    ``>`` or ``<`` is no comparison, ``~`` before the wildcards ``*`` and ``?``, and ``"`` doubled
+    (string literals: ECMA-376 Part 1, 18.17 Formulas; the criteria's ``=``, ``~`` and wildcards as
+    SUMIF reads them: from memory, checked by recalculating in LibreOffice in the tests)."""
+    escaped = "".join("~" + ch if ch in "~*?" else ch for ch in visible(text))
+    return '"=' + escaped.replace('"', '""') + '"'
+
+
 def _roundup(ratio: str) -> str:
     """Whole packs for ``ratio`` (a formula), never below 0; the 1e-9 keeps 3.0000000001 at 3."""
     return f"ROUNDUP(MAX(0,{ratio}-0.000000001),0)"
@@ -295,7 +305,7 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     currencies = sorted({line.match.currency for line in order.lines if line.match and line.match.currency})
     for cur in currencies:
         sheet.append([f"Total of priced lines [{cur}]",
-                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},\"{cur}\","
+                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},{_equal_to(cur)},"
                               f"'Order lines'!{COL['Line total']}2:{COL['Line total']}{n})")])
     unpriced = sum(1 for line in order.lines if not (line.match and line.match.price is not None))
     sheet.append(["Lines with no catalogue price", unpriced])

@@ -137,6 +137,11 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
             except DBAPIError as exc:
                 first = str(exc.orig).strip().splitlines()[0] if exc.orig else type(exc).__name__
                 raise DatabaseError(shown(str(engine.url)), "refused the change, nothing was written", first) from None
+            except UnicodeEncodeError as exc:  # files are read as strict UTF-8: only an argument gets here
+                from kit.errors import InputError
+
+                raise InputError("command line", "argument", "text in UTF-8",
+                                 got=repr(exc.object[exc.start:exc.end] if isinstance(exc.object, str) else exc.reason)) from None
             finally:
                 engine.dispose()
 
