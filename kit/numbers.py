@@ -103,14 +103,15 @@ def number(table: Table, row: Row, column: str, mark: DecimalMark, *, minimum: f
 def whole_number(table: Table, row: Row, column: str, minimum: int, maximum: int,
                  default: int | None = None) -> int | None:
     """The whole number in ``column`` of ``row`` (``default`` when empty), from ``minimum`` to ``maximum``."""
-    value: Any = row.values.get(column)
-    if value is None:
+    raw: Any = row.values.get(column)
+    if raw is None:
         return default
-    if isinstance(value, str) and len(value) <= MAX_CHARS and value.isascii() and value.isdigit():  # "²" isdigit too
-        value = int(value)
-    elif isinstance(value, float) and math.isfinite(value) and value.is_integer():
-        value = int(value)
+    value = raw
+    if isinstance(raw, str) and len(raw) <= MAX_CHARS and raw.isascii() and raw.isdigit():  # "²" isdigit too
+        value = int(raw)
+    elif isinstance(raw, float) and math.isfinite(raw) and raw.is_integer():
+        value = int(raw)
     if isinstance(value, bool) or not isinstance(value, int) or not minimum <= value <= maximum:
-        shown = value[:MAX_CHARS] + "..." if isinstance(value, str) and len(value) > MAX_CHARS else value
+        shown = raw[:MAX_CHARS] + "..." if isinstance(raw, str) and len(raw) > MAX_CHARS else raw
         raise table.error(row, column, f"a whole number from {minimum:,} to {maximum:,}", shown)
     return value
