@@ -64,12 +64,12 @@ def show(engine, vessel, on) -> None:
     day = on or dt.date.today()
     with engine.connect() as conn:
         found = policy_in_force(conn, vessel, day)
+    rules = load_policy() if found is None else found.policy()  # checked before anything is printed
     if found is None:
         click.echo(visible(f"{vessel}: no spares policy in force on {day.isoformat()}"))
     else:
         click.echo(visible(f"{vessel}: {found.name} ({found.scope} policy from {found.in_force_from.isoformat()}), "
                    f"{found.cover_days} days of cover" + (f"; {found.note}" if found.note else "")))
-    rules = load_policy() if found is None else found.policy()
     click.echo(visible(f"  policy: {rules.name} ({rules.source})"))
     click.echo(visible(f"  spare filter element sets: {rules.spare_filter_sets}; housing length: {rules.housing_length}"))
     for item in rules.items:
