@@ -219,3 +219,19 @@ def test_the_currency_table_names_its_source():
     # ISO 4217: numeric codes of EUR 978, USD 840, NOK 578, JPY 392.
     assert {c: by_code[c]["numeric"] for c in ("EUR", "USD", "NOK", "JPY")} == {"EUR": "978", "USD": "840", "NOK": "578", "JPY": "392"}
     assert all(len(c) == 3 and c.isascii() and c.isalpha() and c.isupper() for c in by_code)
+
+
+def test_the_bounds_are_documented():
+    """SECURITY.md states every bound kit enforces on a number, and the README the decimal-mark rule."""
+    from pathlib import Path
+
+    from kit import numbers, spares
+
+    root = Path(__file__).resolve().parents[1]
+    security = (root / "SECURITY.md").read_text()
+    for figure in (numbers.MAX_PACK_QTY, numbers.MAX_DAYS, int(numbers.MAX_PRICE), int(numbers.MAX_QUANTITY),
+                   spares.MAX_SPARE_SETS, spares.MAX_ITEM_QUANTITY, spares.MAX_RATING_BAR):
+        assert f"{figure:,}" in security, figure
+    assert f"at least {spares.MIN_PACKAGE_L:g} L" in security
+    readme = (root / "README.md").read_text()
+    assert "--decimal-mark point|comma" in readme and "semicolon-separated" in readme and "YYYY-MM-DD" in readme
