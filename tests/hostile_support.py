@@ -47,6 +47,18 @@ class Fleet:
         assert dump(self.engine) == before
 
 
+def workbook(path: Path, sheet: str, rows: list[list]) -> Path:
+    """A one-sheet .xlsx holding ``rows`` (the header first), as a spreadsheet program saves it."""
+    import openpyxl
+
+    wb = openpyxl.Workbook()
+    wb.active.title = sheet
+    for row in rows:
+        wb.active.append(row)
+    wb.save(path)
+    return path
+
+
 def refused_without_db(args: list, line: str) -> None:
     """The same for a command that needs no database (or is refused before opening one)."""
     done = CliRunner().invoke(main, [*map(str, args)])

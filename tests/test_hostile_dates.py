@@ -9,12 +9,11 @@ from __future__ import annotations
 
 import datetime as dt
 
-import openpyxl
 import pytest
 from sqlalchemy import select
 
 from catalog_schema.core_tables import STOCK
-from hostile_support import Fleet
+from hostile_support import Fleet, workbook
 
 EXPECTED = "a date, YYYY-MM-DD (ISO 8601)"
 # ISO 8601-1:2019, 5.2.2.1 (calendar date, extended format): four-digit year, two-digit month
@@ -48,12 +47,7 @@ def test_a_count_date_in_the_future_is_refused(fleet):
     fleet.refused(["stock", "import", path, "--vessel", "TEST-ONE"],
                   f"{path}, line 2: column counted_on: expected the date of a count already made (today is {today.isoformat()}) "
                   f"(got {tomorrow!r})")
-    book = fleet.folder / "s.xlsx"
-    wb = openpyxl.Workbook()
-    wb.active.title = "stock"
-    wb.active.append(["part_key", "quantity", "counted_on"])
-    wb.active.append([fleet.key, 1, dt.datetime(2099, 1, 1)])
-    wb.save(book)
+    book = workbook(fleet.folder / "s.xlsx", "stock", [["part_key", "quantity", "counted_on"], [fleet.key, 1, dt.datetime(2099, 1, 1)]])
     fleet.refused(["stock", "import", book, "--vessel", "TEST-ONE"],
                   f"{book}, sheet stock, row 2: column counted_on: expected the date of a count already made "
                   f"(today is {today.isoformat()}) (got '2099-01-01')")
@@ -63,12 +57,7 @@ def test_todays_count_and_a_workbook_date_cell_are_read(fleet):
     path = fleet.file("s.csv", f"part_key,quantity,counted_on\n{fleet.key},1,{dt.date.today().isoformat()}\n")
     assert fleet.kit("stock", "import", path, "--vessel", "TEST-ONE").exit_code == 0
     assert counted_on(fleet) == [dt.date.today()]
-    book = fleet.folder / "s.xlsx"
-    wb = openpyxl.Workbook()
-    wb.active.title = "stock"
-    wb.active.append(["part_key", "quantity", "counted_on"])
-    wb.active.append([fleet.key, 2, dt.datetime(2025, 3, 4)])
-    wb.save(book)
+    book = workbook(fleet.folder / "s.xlsx", "stock", [["part_key", "quantity", "counted_on"], [fleet.key, 2, dt.datetime(2025, 3, 4)]])
     assert fleet.kit("stock", "import", book, "--vessel", "TEST-ONE").exit_code == 0
     assert counted_on(fleet) == [dt.date(2025, 3, 4)]
 

@@ -7,13 +7,12 @@ the plain forms are read as written."""
 
 from __future__ import annotations
 
-import openpyxl
 import pytest
 from sqlalchemy import select
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, STOCK
 from db_support import db_url  # noqa: F401  (fixture)
-from hostile_support import Fleet, refused_without_db
+from hostile_support import Fleet, refused_without_db, workbook
 
 POINT = ("a plain number with a decimal point, e.g. 12.50, and no grouping separators (decimal point: {why}; "
          "--decimal-mark comma reads 12,50)")
@@ -124,12 +123,7 @@ def test_whole_numbers_and_prices_past_their_bounds_are_refused(fleet, column, t
     ("lead_time_days", 2.0 ** 63, "a whole number from 0 to 3,650 (got 9.223372036854776e+18)"),
 ])
 def test_workbook_cells_holding_huge_floats_are_refused(fleet, column, value, expected):
-    path = fleet.folder / "cat.xlsx"
-    wb = openpyxl.Workbook()
-    wb.active.title = "catalogue"
-    wb.active.append(["supplier_ref", "part_key", "currency", column])
-    wb.active.append(["A1", fleet.key, "EUR", value])
-    wb.save(path)
+    path = workbook(fleet.folder / "cat.xlsx", "catalogue", [["supplier_ref", "part_key", "currency", column], ["A1", fleet.key, "EUR", value]])
     fleet.refused(["catalogue", "import", path, "--supplier", "S"], f"{path}, sheet catalogue, row 2: column {column}: expected {expected}")
 
 
@@ -139,11 +133,7 @@ def test_stock_quantities_are_bounded_both_ways(fleet):
                   f"{path}, line 2: column quantity: expected a number from 0 to 1,000,000,000 (got 1000000001.0)")
     fleet.refused(["stock", "import", path, "--vessel", "TEST-ONE", "--mode", "adjust"],
                   f"{path}, line 2: column quantity: expected a number from -1,000,000,000 to 1,000,000,000 (got 1000000001.0)")
-    wb = openpyxl.Workbook()
-    wb.active.title = "stock"
-    wb.active.append(["part_key", "quantity"])
-    wb.active.append([fleet.key, 1e300])
-    wb.save(fleet.folder / "s.xlsx")
+    workbook(fleet.folder / "s.xlsx", "stock", [["part_key", "quantity"], [fleet.key, 1e300]])
     fleet.refused(["stock", "import", fleet.folder / "s.xlsx", "--vessel", "TEST-ONE"],
                   f"{fleet.folder / 's.xlsx'}, sheet stock, row 2: column quantity: expected a number from 0 to 1,000,000,000 (got 1e+300)")
 
