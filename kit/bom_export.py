@@ -15,7 +15,7 @@ from typing import Any
 
 from kit.atomic import replace_atomically
 from kit.bom import Order
-from kit.safe_text import csv_field
+from kit.safe_text import csv_field, each_text, visible
 
 FIELDS = ("number", "designation", "standard", "compound", "required", "on_board", "to_order", "uom", "pack_size",
           "packs", "supplier", "supplier_part_number", "price_per_pack", "currency", "line_total", "lead_time_days",
@@ -58,5 +58,6 @@ def write_json(order: Order, path: str | Path, days: float) -> Path:
                 for o in order.oil],
         "totals": order.totals_by_currency(),
     }
-    text = json.dumps(doc, indent=2)
+    # Control characters replaced: JSON would carry them as escapes, decoded raw by whoever reads it.
+    text = json.dumps(each_text(doc, visible), indent=2)
     return replace_atomically(Path(path), lambda tmp: tmp.write_text(text, encoding="utf-8"))

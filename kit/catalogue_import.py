@@ -8,11 +8,14 @@ One row per supplier part. Columns (sheet ``catalogue`` of a workbook, or a CSV 
 ``part_kind`` ...   the generic part by kind and dimensions, or ``part_key`` (see
                     :mod:`kit.parts_store`)
 ``description``     the supplier's own text (optional)
-``pack_qty``        pieces (or litres, metres) per pack, a whole number >= 1 (default 1)
-``price``           price per pack, a number >= 0 (optional)
-``currency``        ISO 4217 code, three letters (required)
-``lead_time_days``  whole days from order to dispatch, >= 0 (optional)
+``pack_qty``        pieces (or litres, metres) per pack, a whole number 1 to 1,000,000 (default 1)
+``price``           price per pack, a number 0 to 10**12 (optional)
+``currency``        an ISO 4217 alphabetic code (required; see :mod:`kit.currencies`)
+``lead_time_days``  whole days from order to dispatch, 0 to 3,650 (optional)
 ==================  ===========================================================================
+
+Numbers are plain decimals in the file's decimal mark (:mod:`kit.numbers`); text holds no
+control characters (:func:`kit.safe_text.checked_text`).
 
 An import replaces that supplier's whole catalogue in one transaction. Rows are matched to the
 generic parts already in the database by their normalised key; rows that match nothing are kept
@@ -33,8 +36,10 @@ from catalog_schema.locks import hold
 from catalog_schema.refusals import located
 from catalog_schema.sql import insert_rows, upsert
 from kit.errors import InputError
+from kit.numbers import MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, decimal_mark, number, whole_number
 from kit.parts_store import PART_COLUMNS, KeyReader, part_ids
-from kit.sheets import Row, Table, read_table
+from kit.safe_text import NO_CONTROL, CONTROL, checked_text
+from kit.sheets import Table, read_table
 
 SHEET = "catalogue"
 COLUMNS = ("supplier_ref", *PART_COLUMNS, "description", "pack_qty", "price", "currency", "lead_time_days")
@@ -63,44 +68,19 @@ class CatalogueReport:
     unmatched: list[tuple[str, str, str]] = field(default_factory=list)  # (where, supplier_ref, part key)
 
 
-def whole_number(table: Table, row: Row, column: str, minimum: int, default: int | None = None) -> int | None:
-    value = row.values.get(column)
-    if value is None:
-        return default
-    if isinstance(value, str) and value.isascii() and value.isdigit():  # CSV text (isdigit alone passes "²")
-        value = int(value)
-    elif isinstance(value, float) and value.is_integer():
-        value = int(value)
-    if isinstance(value, bool) or not isinstance(value, int) or value < minimum:
-        raise table.error(row, column, f"a whole number of at least {minimum}", value)
-    return value
-
-
-def number(table: Table, row: Row, column: str, minimum: float | None = 0.0) -> float | None:
-    value = row.values.get(column)
-    if value is None:
-        return None
-    if isinstance(value, str):
-        try:
-            value = float(value.replace(",", ""))
-        except ValueError:
-            raise table.error(row, column, "a number", value) from None
-    if isinstance(value, bool) or not isinstance(value, (int, float)) or value != value:
-        raise table.error(row, column, "a number", value)
-    if minimum is not None and value < minimum:
-        raise table.error(row, column, f"a number of at least {minimum:g}", value)
-    return float(value)
-
-
 # A checked row: its line, then the values of ENTRY_COLUMNS from supplier_ref on.
 Entry = tuple[int, str, str, str | None, int, float | None, str, int | None]
 ENTRY_COLUMNS = ("supplier_id", "part_id", "supplier_ref", "part_key", "description", "pack_qty", "price", "currency",
                  "lead_time_days")
 
 
-def _entries(table: Table) -> list[Entry]:
+def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
     """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
-    currency, lead_time_days); the first bad cell refuses the file."""
+    currency, lead_time_days); the first bad cell refuses the file. ``mark_option`` is the
+    decimal mark the user stated (None: the file's default, see :mod:`kit.numbers`)."""
+    from kit.currencies import currency_code
+
+    mark = decimal_mark(table, mark_option)
     keys = KeyReader(table)
     seen: dict[str, int] = {}
     out: list[Entry] = []
@@ -111,26 +91,33 @@ def _entries(table: Table) -> list[Entry]:
             raise table.error(row, "supplier_ref", "the supplier's part number", "an empty cell")
         if not isinstance(ref, str):
             ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
+        if CONTROL.search(ref):
+            raise table.error(row, "supplier_ref", NO_CONTROL, ref)
         if ref in seen:
             raise table.error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
         seen[ref] = row.line
-        currency = v.get("currency")
-        if not (isinstance(currency, str) and len(currency) == 3 and currency.isalpha()):
-            raise table.error(row, "currency", "an ISO 4217 code of three letters, e.g. EUR", currency)
+        currency = currency_code(table, row, v.get("currency"))
         description = v.get("description")
-        out.append((row.line, ref, keys.key(row), None if description is None else str(description),
-                    whole_number(table, row, "pack_qty", 1, default=1), number(table, row, "price"), currency.upper(),
-                    whole_number(table, row, "lead_time_days", 0)))
+        if description is not None:
+            description = str(description)
+            if CONTROL.search(description):
+                raise table.error(row, "description", NO_CONTROL, description)
+        out.append((row.line, ref, keys.key(row), description,
+                    whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY, default=1),
+                    number(table, row, "price", mark, maximum=MAX_PRICE), currency,
+                    whole_number(table, row, "lead_time_days", 0, MAX_DAYS)))
     return out
 
 
-def import_catalogue(engine: Engine, path: str | Path, supplier: str) -> CatalogueReport:
-    """Replace ``supplier``'s catalogue by the rows of ``path``; report what matched nothing."""
-    supplier = supplier.strip()
+def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueReport:
+    """Replace ``supplier``'s catalogue by the rows of ``path``; report what matched nothing.
+    ``decimal`` is the decimal mark of the file's numbers ("point" or "comma"; None: by the
+    file's kind, see :mod:`kit.numbers`)."""
+    supplier = checked_text(supplier, source=str(path), field="--supplier").strip()
     if not supplier:
         raise InputError(str(path), "--supplier", "a supplier name", got="an empty name")
     table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
-    entries = _entries(table)
+    entries = _entries(table, decimal)
 
     def write(conn) -> CatalogueReport:
         hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)

@@ -11,7 +11,6 @@ All values in the dataclasses are SI floats: m, Pa, m^3/s, m^3, s, rad.
 from __future__ import annotations
 
 import math
-import re
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
@@ -20,6 +19,7 @@ from kit.errors import InputError
 from kit.input_files import TOML_PARTICULARS, read_text
 from kit.rudder import POSITION_K3, PROFILE_K2, Rudder
 from kit.toml_text import parse_toml
+from kit.safe_text import CONTROL
 from kit.units import to_si
 
 # "chemical_tanker" and "gas_carrier" are cargo ships that SOLAS II-1/29.16 names beside tankers.
@@ -42,7 +42,7 @@ MAX_GROSS_TONNAGE = 1_000_000
 MAX_COUNT = 1000  # rams, cylinders, pumps, elements, coils, hoses: past this, a typing error
 MAX_TEXT = 200
 
-_CONTROL = re.compile(r"[\x00-\x1f\x7f]")
+_CONTROL = CONTROL  # C0, DEL and C1: the one check of every stored text (kit.safe_text)
 
 
 @dataclass(frozen=True)

@@ -29,6 +29,7 @@ from catalog_schema.locks import hold
 from catalog_schema.sql import in_batches, upsert
 from kit.errors import InputError
 from kit.parts import PART_KINDS, LineItem, part_key
+from kit.safe_text import CONTROL, NO_CONTROL
 from kit.sheets import Row, Table
 from kit.units import to_si
 
@@ -115,6 +116,8 @@ class KeyReader:
         given = row.values.get("part_key")
         if given is not None:
             text = str(given).strip()
+            if CONTROL.search(text):
+                raise self.table.error(row, "part_key", NO_CONTROL, given)
             if text.split(":", 1)[0] not in PART_KINDS:
                 raise self.table.error(row, "part_key", "a part key starting with a part kind, e.g. rod_seal:d=280:D=300:L=25", given)
             return text
@@ -131,6 +134,8 @@ class KeyReader:
             if dims[inner] >= dims[outer]:
                 raise self.table.error(row, inner, f"{inner} smaller than {outer}", row.values[inner])
         spec = row.values.get("spec")
+        if spec is not None and CONTROL.search(str(spec)):
+            raise self.table.error(row, "spec", NO_CONTROL, spec)
         if not names and spec is None:
             raise self.table.error(row, "spec", f"the part's grade or reference (a {kind} has no dimensions)", "an empty cell")
         return part_key(kind, dims, "" if spec is None else str(spec))

@@ -18,7 +18,9 @@ from sqlalchemy.engine import Connection
 from catalog_schema.core_tables import SPARES_POLICIES
 from catalog_schema.sql import upsert
 from kit.errors import InputError
+from kit.numbers import MAX_DAYS
 from kit.fleet_store import COMPANIES, VESSELS, company_id
+from kit.safe_text import checked_text
 from kit.spares import Policy, policy_from_text
 
 POLICIES = SPARES_POLICIES
@@ -50,8 +52,11 @@ def set_policy(conn: Connection, *, name: str, cover_days: int, in_force_from: d
     """
     if (company is None) == (vessel is None):
         raise InputError("kit policy set", "--company/--vessel", "exactly one of the two", got="both" if company else "neither")
-    if cover_days < 0:
-        raise InputError("kit policy set", "--days", "a whole number of days >= 0", got=repr(cover_days))
+    if not 0 <= cover_days <= MAX_DAYS:
+        raise InputError("kit policy set", "--days", f"a whole number of days from 0 to {MAX_DAYS}", got=repr(cover_days))
+    for option, text in (("--name", name), ("--company", company), ("--vessel", vessel), ("--note", note)):
+        if text is not None:
+            checked_text(text, source="kit policy set", field=option)
     if content is not None:
         policy_from_text(content, content_source)
     if vessel is not None and conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel)).first() is None:

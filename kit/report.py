@@ -136,7 +136,9 @@ def render(r: VesselResult, console) -> None:
     """Print the readable report of ``r`` on a rich ``console``."""
     from rich.table import Table
 
-    data = vessel_json(r)
+    from kit.safe_text import each_text, shown_on_terminal
+
+    data = each_text(vessel_json(r), shown_on_terminal)  # text from files as it is: no markup, no control characters
     v = data["vessel"]
     console.print(f"[bold]{v['name']}[/bold] ({v['id']}), {v['ship_type']}, {v['gross_tonnage']:,.0f} GT"
                   f" -- period {r.days:g} days -- spares policy: {data['policy']}")

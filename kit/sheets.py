@@ -13,16 +13,17 @@ leading ``'`` in a CSV (:mod:`kit.safe_text`); reading a CSV drops that ``'`` ag
 from __future__ import annotations
 
 import csv
+import itertools
 import re
 import zipfile
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import Any, Iterable, Sequence
 
 from kit.atomic import replace_atomically
 from kit.errors import InputError
 from kit.input_files import PARTICULARS_XLSX, SHEET_CSV, SHEET_XLSX, check_input, open_text
-from kit.safe_text import csv_field, from_csv_field, is_risky
+from kit.safe_text import csv_field, from_csv_field, is_risky, visible
 
 # Data rows read from one sheet. Sheets are streamed (openpyxl read-only mode, csv line by line)
 # and refused at the first row past the limit, so a huge sheet is never held whole in memory.
@@ -51,6 +52,7 @@ class Table:
     sheet: str | None
     columns: tuple[str, ...]
     rows: list[Row]
+    separator: str | None = None  # a CSV's field separator (see :func:`csv_separator`); None for a workbook
 
     def where(self, line: int | None = None) -> str:
         """``file, sheet S, row N`` (xlsx) or ``file, line N`` (CSV), for error messages."""
@@ -253,7 +255,9 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
     source = str(path)
     handle = open_text(path, SHEET_CSV, encoding="utf-8-sig", newline="")
     with handle:
-        reader = csv.reader(handle)
+        head = _leading_lines(source, handle)
+        separator = csv_separator(source, head[-1] if head else "")
+        reader = csv.reader(itertools.chain(head, handle), delimiter=separator)
 
         def lines() -> Iterable[tuple[int, Sequence[Any]]]:
             start = 1
@@ -266,7 +270,39 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
             except UnicodeDecodeError:
                 raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
 
-        return _table(source, None, lines(), known, required, max_rows, clean=True)
+        return replace(_table(source, None, lines(), known, required, max_rows, clean=True), separator=separator)
+
+
+# A CSV's field separator: the one of these its header line holds (column names hold none).
+SEPARATORS = (",", ";", "\t")
+
+
+def _leading_lines(source: str, handle) -> list[str]:
+    """The lines up to and including the first that is not blank (the header line)."""
+    head: list[str] = []
+    try:
+        for line in handle:
+            head.append(line)
+            if line.strip():
+                break
+    except UnicodeDecodeError:
+        raise InputError(source, "file", "UTF-8 text", got="undecodable bytes") from None
+    return head
+
+
+def csv_separator(source: str, header: str) -> str:
+    """The separator of a CSV whose header line is ``header``: comma, semicolon or tab, whichever
+    it holds (a comma when it holds none: one column). Never guessed between two.
+
+    >>> csv_separator("c.csv", "supplier_ref;price;currency"), csv_separator("c.csv", "part_key")
+    (';', ',')
+    """
+    found = [s for s in SEPARATORS if s in header]
+    if len(found) > 1:
+        names = {",": "commas", ";": "semicolons", "\t": "tabs"}
+        raise InputError(f"{source}, line 1", "header row", "column names separated by one of comma, semicolon or tab",
+                         got=" and ".join(names[s] for s in found))
+    return found[0] if found else ","
 
 
 # --- writing -------------------------------------------------------------------------------
@@ -297,7 +333,7 @@ def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
             for cell in ws[1]:
                 cell.font = Font(bold=True)
             for row in sheet.rows:
-                ws.append(list(row))
+                ws.append([visible(v) for v in row])
                 for cell in ws[ws.max_row]:
                     if is_risky(cell.value):
                         cell.data_type = "s"  # user text: never a formula

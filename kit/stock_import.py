@@ -7,10 +7,13 @@ Columns (sheet ``stock`` of a workbook, or a CSV file), as :func:`stock_template
 ``part_key``     the generic part's normalised key (required; the template lists them)
 ``designation``  what the part is, for the person counting (not read back)
 ``location``     where on board it is kept (optional; default ``unassigned``)
-``quantity``     a number >= 0 in the part's unit of measure (pcs, L, m); in ``adjust`` mode the
-                 change: + for a receipt, - for an issue
-``counted_on``   the date of the count, YYYY-MM-DD (optional)
+``quantity``     a number from 0 to 10**9 in the part's unit of measure (pcs, L, m); in ``adjust``
+                 mode the change: + for a receipt, - for an issue
+``counted_on``   the date of the count, YYYY-MM-DD and not after today (optional)
 ===============  ==============================================================================
+
+Numbers are plain decimals in the file's decimal mark (:mod:`kit.numbers`), dates ISO 8601
+calendar dates (:mod:`kit.dates`); a location holds no control characters.
 
 In ``count`` mode each row sets the stock of its part at its location; in ``adjust`` mode it
 adds to it, in the database (``quantity = quantity + change``), so two imports at once both
@@ -31,8 +34,10 @@ from catalog_schema.core_tables import PARTS, STOCK, VESSELS
 from catalog_schema.engine import write_transaction
 from catalog_schema.refusals import located
 from catalog_schema.sql import upsert
-from kit.catalogue_import import number
+from kit.dates import iso_date
 from kit.errors import InputError
+from kit.numbers import MAX_QUANTITY, DecimalMark, decimal_mark, number
+from kit.safe_text import CONTROL, NO_CONTROL
 from kit.sheets import Row, Sheet, Table, read_table
 
 SHEET = "stock"
@@ -58,17 +63,21 @@ def _date(table: Table, row: Row) -> dt.date | None:
     value = row.values.get("counted_on")
     if value is None:
         return None
-    if isinstance(value, dt.datetime):
-        return value.date()
-    if isinstance(value, dt.date):
-        return value
-    try:
-        return dt.date.fromisoformat(str(value))
-    except ValueError:
-        raise table.error(row, "counted_on", "a date, YYYY-MM-DD", value) from None
+    if isinstance(value, dt.datetime):  # a workbook's date cell
+        day = value.date()
+    elif isinstance(value, dt.date):
+        day = value
+    else:
+        day = iso_date(value) if isinstance(value, str) else None
+        if day is None:
+            raise table.error(row, "counted_on", "a date, YYYY-MM-DD (ISO 8601)", value)
+    if day > dt.date.today():
+        raise table.error(row, "counted_on", f"the date of a count already made (today is {dt.date.today().isoformat()})",
+                          day.isoformat())
+    return day
 
 
-def _rows(table: Table, mode: str) -> list[tuple[Row, str, str, float, dt.date | None]]:
+def _rows(table: Table, mode: str, mark: DecimalMark) -> list[tuple[Row, str, str, float, dt.date | None]]:
     seen: dict[tuple[str, str], int] = {}
     out = []
     for row in table.rows:
@@ -76,22 +85,26 @@ def _rows(table: Table, mode: str) -> list[tuple[Row, str, str, float, dt.date |
         if key is None:
             raise table.error(row, "part_key", "the generic part's key (see kit template stock)", "an empty cell")
         location = str(row.values.get("location") or DEFAULT_LOCATION)
+        if CONTROL.search(location):
+            raise table.error(row, "location", NO_CONTROL, location)
         if (key, location) in seen:
             raise table.error(row, "part_key", f"each part once per location (already on {table.where(seen[key, location])})", key)
         seen[key, location] = row.line
-        quantity = number(table, row, "quantity", minimum=0.0 if mode == "count" else None)
+        quantity = number(table, row, "quantity", mark, minimum=0.0 if mode == "count" else None, maximum=MAX_QUANTITY)
         if quantity is None:
             raise table.error(row, "quantity", "a number", "an empty cell")
         out.append((row, str(key), location, quantity, _date(table, row)))
     return out
 
 
-def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count") -> StockReport:
-    """Write the stock rows of ``path`` for ``vessel_id`` in one transaction."""
+def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count",
+                 decimal: str | None = None) -> StockReport:
+    """Write the stock rows of ``path`` for ``vessel_id`` in one transaction. ``decimal`` is the
+    decimal mark of the file's numbers ("point" or "comma"; None: by the file's kind)."""
     if mode not in MODES:
         raise InputError(str(path), "--mode", "one of " + ", ".join(MODES), got=repr(mode))
     table = read_table(path, SHEET, known=COLUMNS, required=("part_key", "quantity"))
-    rows = _rows(table, mode)
+    rows = _rows(table, mode, decimal_mark(table, decimal))
 
     def write(conn: Connection) -> StockReport:
         if conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel_id)).first() is None:

@@ -26,6 +26,7 @@ CHECKSUMS: dict[str, str] = {
     "iso3448_1992_viscosity_grades.csv": "8bf660be3d2d7969ba6cc2332c1da7b7d8f9e8672f47f5ce2f39153e60138297",
     "iso3601_1_2012_o_ring_sizes.csv": "0edc9ec5bee374fc3b1de5882187b6d24ef0548ae9be92d1c354ff6d249c0e73",
     "iso3601_2_2016_static_radial_glands.csv": "35ce0e2649f01aa681291a5443d0dcab38d17689d331cec0dae2262452ecc1fa",
+    "iso4217_2015_currency_codes.csv": "5ad58d03ed32732969ddfdbcfd520f4af44a711dcee0d6924bf5c7ef7eb88d12",
     "iso5597_2018_housing_bands.csv": "ec9aebdbdcd0a9f7220296f41ceb0f7b4c3a8d90d2e7982c50acbb9c6d28e949",
     "iso6195_2013_wiper_bands.csv": "35e77e66e4b9e539623987df90a8f3555fc0fe4ca582495877433a29b9d42f76",
     "seal_compound_compatibility.csv": "61b4276b692d125c3436a54fab2b7a7fcf16f3f6f711b83be8f6084c05da0a4a",

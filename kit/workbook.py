@@ -30,7 +30,7 @@ from kit.oil import L_PER_M3, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
 from kit.parts import fmt_mm
 from kit.report import seal_json
-from kit.safe_text import TRIGGERS, is_risky
+from kit.safe_text import CONTROL, TRIGGERS, is_risky, visible
 from kit.seal_kit import mm
 
 HEADER_FONT = Font(bold=True)
@@ -73,7 +73,7 @@ class _Sheet:
             self.append([name for name, _, _ in self.columns], header=True)
 
     def _header_cell(self, value: Any) -> WriteOnlyCell:
-        c = WriteOnlyCell(self.ws, value=value)
+        c = WriteOnlyCell(self.ws, value=visible(value))
         if is_risky(value) and not isinstance(value, Formula):
             c.data_type = "s"  # user text: never a formula
         c.font, c.fill = HEADER_FONT, HEADER_FILL
@@ -107,8 +107,11 @@ class _Sheet:
                 if v is not None and (not isinstance(v, str) or isinstance(v, Formula)):
                     row[i] = self._styled(i, "fmt", v)
             for i, v in enumerate(row):
-                if isinstance(v, str) and v.startswith(TRIGGERS) and not isinstance(v, Formula):
-                    row[i] = self._styled(i, "text", v)
+                if isinstance(v, str) and not isinstance(v, Formula):
+                    if CONTROL.search(v):  # stored by another program: openpyxl would refuse the cell
+                        row[i] = v = visible(v)
+                    if v.startswith(TRIGGERS):
+                        row[i] = self._styled(i, "text", v)
         self.ws.append(row)
         self.rows += 1
         return self.rows
@@ -120,6 +123,16 @@ class _Sheet:
 
 class Formula(str):
     """A formula kit itself writes (never user text)."""
+
+
+def _equal_to(text: str) -> str:
+    """A SUMIF criterion, as a formula's string literal, that matches cells holding ``text`` as
+    kit writes it (:func:`kit.safe_text.visible`) and nothing else: ``=`` first, so a stored
+    ``>`` or ``<`` is no comparison, ``~`` before the wildcards ``*`` and ``?``, and ``"`` doubled
+    (string literals: ECMA-376 Part 1, 18.17 Formulas; the criteria's ``=``, ``~`` and wildcards as
+    SUMIF reads them: from memory, checked by recalculating in LibreOffice in the tests)."""
+    escaped = "".join("~" + ch if ch in "~*?" else ch for ch in visible(text))
+    return '"=' + escaped.replace('"', '""') + '"'
 
 
 def _roundup(ratio: str) -> str:
@@ -325,7 +338,7 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     currencies = sorted({line.match.currency for line in order.lines if line.match and line.match.currency})
     for cur in currencies:
         sheet.append([f"Total of priced lines [{cur}]",
-                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},\"{cur}\","
+                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},{_equal_to(cur)},"
                               f"'Order lines'!{COL['Line total']}2:{COL['Line total']}{n})")])
     unpriced = sum(1 for line in order.lines if not (line.match and line.match.price is not None))
     sheet.append(["Lines with no catalogue price", unpriced])

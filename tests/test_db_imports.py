@@ -150,9 +150,9 @@ def test_one_bad_catalogue_row_refuses_the_whole_file(fleet, tmp_path):
 
 
 @pytest.mark.parametrize("cells, message", [
-    (["A", OIL, "EURO"], "line 2: column currency: expected an ISO 4217 code of three letters, e.g. EUR (got 'EURO')"),
+    (["A", OIL, "EURO"], "line 2: column currency: expected an ISO 4217 currency code such as EUR, USD, NOK or JPY (got 'EURO')"),
     (["A", "seal:x", "EUR"], "line 2: column part_key: expected a part key starting with a part kind"),
-    (["A", OIL, "EUR", "²"], "line 2: column pack_qty: expected a whole number of at least 1 (got '²')"),  # isdigit() but not int()
+    (["A", OIL, "EUR", "²"], "line 2: column pack_qty: expected a whole number from 1 to 1,000,000 (got '²')"),  # isdigit() but not int()
 ])
 def test_catalogue_cell_errors_name_line_and_column(fleet, tmp_path, cells, message):
     path = write_csv(tmp_path / "c.csv", ["supplier_ref", "part_key", "currency", "pack_qty"][:len(cells)], [cells])
@@ -247,7 +247,7 @@ def test_stock_import_cli_errors(fleet, tmp_path):
     negative = write_csv(tmp_path / "n.csv", STOCK_HEADER, [[OIL, "", "", -5, ""]])
     result = CliRunner().invoke(main, ["stock", "import", str(negative), "--vessel", "TEST-ONE", "--db", url])
     assert result.exit_code == 2
-    assert result.output.strip() == f"kit: error: {negative}, line 2: column quantity: expected a number of at least 0 (got -5.0)"
+    assert result.output.strip() == f"kit: error: {negative}, line 2: column quantity: expected a number from 0 to 1,000,000,000 (got -5.0)"
     assert dump(fleet) == before
 
 

@@ -134,7 +134,7 @@ def test_show_prints_the_policy_and_the_basis_of_each_item(fleet, tmp_path):
 
 
 @pytest.mark.parametrize("text, message", [
-    ("[policy]\nspare_filter_sets = -1\n", "policy.spare_filter_sets: expected a whole number of 0 or more (got -1)"),
+    ("[policy]\nspare_filter_sets = -1\n", "policy.spare_filter_sets: expected a whole number from 0 to 100 (got -1)"),
     ("[policy\n", "file: expected valid TOML (got "),
     ('[[item]]\nkind = "anchor"\nper = "unit"\nquantity = 1\nbasis = "company policy"\n', "].kind: expected one of seal_set, storage_oil"),
 ], ids=["value", "toml", "item"])

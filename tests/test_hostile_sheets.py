@@ -79,13 +79,15 @@ def test_wrong_columns(fleet, tmp_path):
 
 def test_text_where_a_quantity_belongs(fleet, tmp_path):
     path = book(tmp_path / "s.xlsx", {"stock": [["part_key", "quantity"], [fleet[2], "five"]]})
-    refused(fleet, path, f"{path}, sheet stock, row 2: column quantity: expected a number (got 'five')")
+    refused(fleet, path, f"{path}, sheet stock, row 2: column quantity: expected a plain number with a decimal point, e.g. 12.50, "
+                         "and no grouping separators (decimal point: the default for text in a workbook's cells; "
+                         "--decimal-mark comma reads 12,50) (got 'five')")
 
 
 def test_negative_stock(fleet, tmp_path):
     path = tmp_path / "s.csv"
     path.write_text(HEADER + f"{fleet[2]},store,-3\n")
-    refused(fleet, path, f"{path}, line 2: column quantity: expected a number of at least 0 (got -3.0)")
+    refused(fleet, path, f"{path}, line 2: column quantity: expected a number from 0 to 1,000,000,000 (got -3.0)")
 
 
 BOMB = ('<?xml version="1.0"?><!DOCTYPE lolz [<!ENTITY lol "lol"><!ENTITY lol2 "&lol;&lol;&lol;&lol;&lol;&lol;&lol;">'

@@ -6,12 +6,12 @@ from __future__ import annotations
 import click
 
 from kit.cli import SAFETY
-from kit.commands.common import db_option
+from kit.commands.common import Days, db_option
 
 
 @click.command(epilog=SAFETY)
 @click.option("--vessel", "vessel_ids", multiple=True, metavar="ID", help="A vessel's id (repeatable); default the whole fleet.")
-@click.option("--days", type=click.FloatRange(min=0), default=90, show_default=True, help="Period to cover, in days.")
+@click.option("--days", type=Days(), default=90, show_default=True, help="Period to cover, in days.")
 @click.option("--out", "out", type=click.Path(), default="kit-bom.xlsx", show_default=True,
               help="Workbook to write (.xlsx); never the fleet database, a device, a folder or a read-only file.")
 @click.option("--csv", "csv_out", type=click.Path(), help="Also write the order lines as CSV.")

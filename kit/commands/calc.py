@@ -8,12 +8,12 @@ import json
 import click
 
 from kit.cli import SAFETY
-from kit.commands.common import reports_errors
+from kit.commands.common import Days, reports_errors
 
 
 @click.command(epilog=SAFETY)
 @click.argument("particulars", type=click.Path())
-@click.option("--days", type=click.FloatRange(min=0), default=0, show_default=True,
+@click.option("--days", type=Days(), default=0, show_default=True,
               help="Length of the voyage or period, in days.")
 @click.option("--policy", "policy_file", type=click.Path(), default=None,
               help="Company spares policy (TOML) merged over kit's default policy.")

@@ -8,12 +8,12 @@ import sys
 import click
 
 from kit.cli import SAFETY
-from kit.commands.common import db_option
+from kit.commands.common import Days, db_option
 
 
 @click.command(epilog=SAFETY)
 @click.argument("vessel_id")
-@click.option("--days", type=click.FloatRange(min=0), required=True, help="Length of the voyage, in days.")
+@click.option("--days", type=Days(), required=True, help="Length of the voyage, in days.")
 @click.option("--out", type=click.Path(), help="Also write the shortfall as a workbook (.xlsx).")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML); default the vessel's policy in force in the fleet database.")
@@ -37,6 +37,7 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     from kit.output_targets import check_outputs
     from kit.preflight import preflight_order
     from kit.requirements import assess_vessel
+    from kit.safe_text import shown_on_terminal as shown
 
     check_outputs({"--out": out})
     (vessel,) = load_fleet(engine, [vessel_id])
@@ -51,18 +52,18 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
 
         write_workbook(short, out, days, f"pre-voyage check of {vessel.name}: shortfall for {days:g} days")
     if not short.lines:
-        console.print(f"{vessel.name} ({vessel.id}): everything a {days:g}-day voyage needs is on board")
+        console.print(f"{shown(vessel.name)} ({shown(vessel.id)}): everything a {days:g}-day voyage needs is on board")
         if out:
-            console.print(f"wrote {out}")
+            console.print(f"wrote {shown(out)}")
         return
-    table = Table(title=f"{vessel.name} ({vessel.id}): short for a {days:g}-day voyage", title_justify="left")
+    table = Table(title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage", title_justify="left")
     for col in ("no", "designation", "required", "on board", "short", "uom", "basis"):
         table.add_column(col, justify="right" if col in ("no", "required", "on board", "short") else "left")
     for line in short.lines:
         nd = 1 if line.uom == "L" else 0
-        table.add_row(str(line.number), line.designation, f"{line.required:.{nd}f}", f"{line.on_board:.{nd}f}",
-                      f"{line.to_order:.{nd}f}", line.uom, line.basis)
+        table.add_row(str(line.number), shown(line.designation), f"{line.required:.{nd}f}", f"{line.on_board:.{nd}f}",
+                      f"{line.to_order:.{nd}f}", shown(line.uom), shown(line.basis))
     console.print(table)
     if out:
-        console.print(f"wrote {out}")
+        console.print(f"wrote {shown(out)}")
     sys.exit(1)

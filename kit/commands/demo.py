@@ -6,15 +6,15 @@ from __future__ import annotations
 import click
 
 from kit.cli import SAFETY
-from kit.commands.common import reports_errors
+from kit.commands.common import Days, reports_errors
 
 
 @click.command(epilog=SAFETY)
 @click.option("--out", type=click.Path(), default="kit-demo", show_default=True,
               help="Folder to build the demo in: a new or empty folder, or one an earlier kit demo made "
                    "(only that is replaced); any other folder or file is refused.")
-@click.option("--days", type=click.FloatRange(min=0), default=90, show_default=True, help="Period of the fleet order.")
-@click.option("--check-days", type=click.FloatRange(min=0), default=120, show_default=True,
+@click.option("--days", type=Days(), default=90, show_default=True, help="Period of the fleet order.")
+@click.option("--check-days", type=Days(), default=120, show_default=True,
               help="Length of the voyage for the pre-voyage check.")
 @reports_errors
 def demo(out, days, check_days) -> None:

@@ -50,10 +50,11 @@ def list_(engine, kind: str | None) -> None:
     from sqlalchemy import select
 
     from kit.parts_store import PARTS
+    from kit.safe_text import visible
 
     query = select(PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)
     if kind:
         query = query.where(PARTS.c.kind == kind)
     with engine.connect() as conn:
         for key, designation in conn.execute(query):
-            click.echo(f"{key}\t{designation}")
+            click.echo(f"{visible(key)}\t{visible(designation)}")

@@ -6,7 +6,7 @@ from __future__ import annotations
 import click
 
 from kit.cli import SAFETY
-from kit.commands.common import db_option
+from kit.commands.common import Days, IsoDate, db_option
 
 
 @click.group(epilog=SAFETY)
@@ -21,8 +21,8 @@ def policy() -> None:
 @click.option("--company", help="The company the policy is for.")
 @click.option("--vessel", help="The vessel the policy is for (wins over its company's).")
 @click.option("--name", required=True, help="The policy's name, e.g. its file name.")
-@click.option("--days", "cover_days", type=int, required=True, help="Days of cover on board.")
-@click.option("--from", "in_force_from", type=click.DateTime(["%Y-%m-%d"]), required=True, help="In force from (YYYY-MM-DD).")
+@click.option("--days", "cover_days", type=Days(whole=True), required=True, help="Days of cover on board (0 to 3650).")
+@click.option("--from", "in_force_from", type=IsoDate(), required=True, help="In force from (YYYY-MM-DD, ISO 8601).")
 @click.option("--note", help="Free text, e.g. who approved it.")
 @click.option("--file", "policy_file", type=click.Path(),
               help="The company spares policy file (TOML, as for --policy); without it, kit's default policy.")
@@ -39,15 +39,15 @@ def set_(engine, company, vessel, name, cover_days, in_force_from, note, policy_
     from kit.spares import read_policy_text
 
     content = read_policy_text(policy_file) if policy_file else None
-    write_transaction(engine, lambda conn: set_policy(conn, name=name, cover_days=cover_days, in_force_from=in_force_from.date(),
+    write_transaction(engine, lambda conn: set_policy(conn, name=name, cover_days=cover_days, in_force_from=in_force_from,
                                                       company=company, vessel=vessel, note=note,
                                                       content=content, content_source=str(policy_file)))
-    click.echo(f"policy {name} in force from {in_force_from.date().isoformat()} for {company or vessel}")
+    click.echo(f"policy {name} in force from {in_force_from.isoformat()} for {company or vessel}")
 
 
 @policy.command(epilog=SAFETY)
 @click.option("--vessel", required=True, help="The vessel's id.")
-@click.option("--on", type=click.DateTime(["%Y-%m-%d"]), help="The date (default today).")
+@click.option("--on", type=IsoDate(), help="The date, YYYY-MM-DD (default today).")
 @db_option()
 def show(engine, vessel, on) -> None:
     """Show the spares policy in force for a vessel (its own, else its company's, else kit's
@@ -58,18 +58,19 @@ def show(engine, vessel, on) -> None:
     import datetime as dt
 
     from kit.policy_store import policy_in_force
+    from kit.safe_text import visible
     from kit.spares import load_policy
 
-    day = on.date() if on else dt.date.today()
+    day = on or dt.date.today()
     with engine.connect() as conn:
         found = policy_in_force(conn, vessel, day)
+    rules = load_policy() if found is None else found.policy()  # checked before anything is printed
     if found is None:
-        click.echo(f"{vessel}: no spares policy in force on {day.isoformat()}")
+        click.echo(visible(f"{vessel}: no spares policy in force on {day.isoformat()}"))
     else:
-        click.echo(f"{vessel}: {found.name} ({found.scope} policy from {found.in_force_from.isoformat()}), "
-                   f"{found.cover_days} days of cover" + (f"; {found.note}" if found.note else ""))
-    rules = load_policy() if found is None else found.policy()
-    click.echo(f"  policy: {rules.name} ({rules.source})")
-    click.echo(f"  spare filter element sets: {rules.spare_filter_sets}; housing length: {rules.housing_length}")
+        click.echo(visible(f"{vessel}: {found.name} ({found.scope} policy from {found.in_force_from.isoformat()}), "
+                   f"{found.cover_days} days of cover" + (f"; {found.note}" if found.note else "")))
+    click.echo(visible(f"  policy: {rules.name} ({rules.source})"))
+    click.echo(visible(f"  spare filter element sets: {rules.spare_filter_sets}; housing length: {rules.housing_length}"))
     for item in rules.items:
-        click.echo(f"  {item.kind}: {item.quantity} per {item.per}, {item.text}; basis: {item.basis}")
+        click.echo(visible(f"  {item.kind}: {item.quantity} per {item.per}, {item.text}; basis: {item.basis}"))

@@ -6,7 +6,7 @@ from __future__ import annotations
 import click
 
 from kit.cli import SAFETY
-from kit.commands.common import db_option
+from kit.commands.common import db_option, decimal_mark_option
 
 
 @click.group(epilog=SAFETY)
@@ -22,16 +22,19 @@ def stock() -> None:
 @click.option("--vessel", required=True, help="The vessel's id, as in its particulars.")
 @click.option("--mode", type=click.Choice(["count", "adjust"]), default="count", show_default=True,
               help="count: quantities are what is on board; adjust: + received, - used.")
+@decimal_mark_option
 @db_option()
-def import_(engine, file: str, vessel: str, mode: str) -> None:
+def import_(engine, file: str, vessel: str, mode: str, decimal: str | None) -> None:
     """Write FILE's stock rows (.xlsx sheet "stock", or .csv; see `kit template stock`) for VESSEL.
 
-    Columns: part_key, designation (not read), location, quantity, counted_on (YYYY-MM-DD).
-    The whole file is refused if one row is bad; stock never goes below zero.
+    Columns: part_key, designation (not read), location, quantity, counted_on (YYYY-MM-DD, not
+    after today). Quantities are plain decimals: a semicolon-separated CSV has a decimal comma,
+    a comma- or tab-separated one a decimal point (see --decimal-mark). The whole file is
+    refused if one row is bad; stock never goes below zero.
 
     Example: kit stock import receipts.csv --vessel CORVINA-BAY --mode adjust
     """
     from kit.stock_import import import_stock
 
-    report = import_stock(engine, file, vessel, mode)
+    report = import_stock(engine, file, vessel, mode, decimal)
     click.echo(f"{report.vessel}: {report.rows} stock row(s) written ({report.mode})")
