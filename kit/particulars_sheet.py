@@ -97,17 +97,32 @@ def _cell(value: Any) -> Any:
 
 
 def _records(source: str, sheet: str, lines: list, columns: tuple[str, ...]) -> list[tuple[int, dict[str, Any]]]:
-    """Rows under a header that must be exactly ``columns`` (in any order)."""
+    """Rows under a header that names each column once, from ``columns`` (in any order). A value
+    under a blank header cell would be dropped, and a second column of a name would hide the
+    first, so both are refused."""
+    from openpyxl.utils import get_column_letter
+
     where = f"{source}, sheet {sheet}"
     if not lines:
         return []
-    header = [c for c in lines[0][1] if c is not None]
-    for name in header:
+    top, header = lines[0][0], [None if c is None else str(c) for c in lines[0][1]]
+    first: dict[str, int] = {}
+    for i, name in enumerate(header):
+        if name is None:
+            continue
         if name not in columns:
             raise InputError(where, f"column {name}", "one of " + ", ".join(columns), got="an unknown column")
+        if name in first:
+            raise InputError(f"{where}, row {top}", f"column {name}", f"each column named once (first in column {get_column_letter(first[name] + 1)})",
+                             got=f"a second one in column {get_column_letter(i + 1)}")
+        first[name] = i
     out = []
     for line, cells in lines[1:]:
-        values = {h: _cell(v) for h, v in zip(lines[0][1], cells) if h is not None and v is not None}
+        for i, value in enumerate(cells):
+            if value is not None and (i >= len(header) or header[i] is None):
+                raise InputError(f"{where}, row {line}", f"cell {get_column_letter(i + 1)}{line}",
+                                 f"a value only under a column named in row {top}", got=repr(value))
+        values = {h: _cell(v) for h, v in zip(header, cells) if h is not None and v is not None}
         if values:
             out.append((line, values))
     return out
@@ -122,10 +137,15 @@ def load_particulars_sheet(path: str | Path) -> Vessel:
             raise InputError(source, "sheet", f"a sheet named {name!r} (kit template particulars writes them)", got="none")
     places: dict[str, tuple[str, int]] = {}  # path in the document -> (sheet, row)
     vessel: dict[str, Any] = {}
+    given: dict[str, int] = {}  # field -> its row
     for line, values in _records(source, "vessel", sheets["vessel"], ("field", "value")):
         field = values.get("field")
         if field not in VESSEL_FIELDS:
             raise InputError(f"{source}, sheet vessel, row {line}", "column field", "one of " + ", ".join(VESSEL_FIELDS), got=repr(field))
+        if field in given:
+            raise InputError(f"{source}, sheet vessel, row {line}", "column field", f"each field on one row (row {given[field]} gives {field})",
+                             got=repr(field))
+        given[field] = line
         if "value" in values:
             vessel[field] = values["value"]
             places[f"vessel.{field}" if field != "company" else "company.name"] = ("vessel", line)

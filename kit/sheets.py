@@ -14,7 +14,6 @@ from __future__ import annotations
 
 import csv
 import itertools
-import re
 import zipfile
 from dataclasses import dataclass, replace
 from pathlib import Path
@@ -24,14 +23,18 @@ from kit.atomic import replace_atomically
 from kit.errors import InputError
 from kit.input_files import PARTICULARS_XLSX, SHEET_CSV, SHEET_XLSX, check_input, open_text
 from kit.safe_text import csv_field, from_csv_field, is_risky, visible
+from kit.xlsx_limits import Limits, measure_workbook
 
 # Data rows read from one sheet. Sheets are streamed (openpyxl read-only mode, csv line by line)
 # and refused at the first row past the limit, so a huge sheet is never held whole in memory.
 MAX_ROWS = 100_000
 MAX_UNPACKED_BYTES = 512 * 1024 * 1024
-# openpyxl's read-only reader passes once over a sheet that lacks a dimension record and keeps a
-# small element per row, so the row elements of every sheet are counted (streamed) first.
-ROW_TAG = re.compile(rb"<(?:\w+:)?row[\s/>]")
+# Every XML part is streamed before openpyxl reads it (kit.xlsx_limits), and a workbook that
+# declares or holds more than these is refused: openpyxl's reader would hand out every cell a
+# reference, a row number or a used range implies, and keeps the shared strings in a list.
+MAX_COLUMNS = 256  # A to IV; also the cells of one row
+MAX_CELLS = 5_000_000  # in a workbook, each row counted to its last cell; also a used range's area
+MAX_SHARED_STRINGS = 1_000_000
 # openpyxl holds a workbook's shared-string table (the text of its cells) whole while the rows
 # stream past, so that one part has a tighter limit of its own.
 MAX_SHARED_STRINGS_BYTES = 64 * 1024 * 1024
@@ -127,6 +130,7 @@ def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any
 
 def _open_workbook(path: Path):
     import openpyxl
+    from defusedxml import DefusedXmlException
     from openpyxl.utils.exceptions import InvalidFileException
     from openpyxl.xml import DEFUSEDXML
 
@@ -146,9 +150,10 @@ def _open_workbook(path: Path):
             if strings > MAX_SHARED_STRINGS_BYTES:
                 raise InputError(source, "file", f"cell text (shared strings) of at most {MAX_SHARED_STRINGS_BYTES >> 20} MiB unpacked",
                                  got=f"{strings / 2**20:.1f} MiB")
-            for info in archive.infolist():
-                if info.filename.startswith("xl/worksheets/") and info.filename.endswith(".xml"):
-                    _count_rows(source, archive, info.filename)
+            measure_workbook(source, archive, Limits(rows=_row_scan_limit(), data_rows=MAX_ROWS, columns=MAX_COLUMNS,
+                                                     cells=MAX_CELLS, strings=MAX_SHARED_STRINGS))
+    except DefusedXmlException as exc:
+        raise _refusal(source, exc) from None
     except (zipfile.BadZipFile, OSError) as exc:
         raise InputError(source, "file", WORKBOOK, got=str(exc)) from None
     try:
@@ -159,20 +164,6 @@ def _open_workbook(path: Path):
 
 def _row_scan_limit() -> int:
     return 2 * MAX_ROWS + 100  # the data rows, the header and room for blank rows
-
-
-def _count_rows(source: str, archive: zipfile.ZipFile, part: str) -> None:
-    """Refuse a sheet with far more rows than :data:`MAX_ROWS`, reading its XML in chunks."""
-    limit = _row_scan_limit()
-    count, tail = 0, b""
-    with archive.open(part) as stream:
-        while chunk := stream.read(1 << 16):
-            data = tail + chunk
-            count += sum(1 for _ in ROW_TAG.finditer(data)) - sum(1 for _ in ROW_TAG.finditer(tail))
-            if count > limit:
-                raise InputError(f"{source}, {part}", "rows", f"at most {MAX_ROWS:,} data rows (and a few blank ones)",
-                                 got=f"more than {limit:,} rows")
-            tail = data[-16:]
 
 
 def _refusal(source: str, exc: BaseException) -> InputError:
@@ -189,6 +180,7 @@ def _refusal(source: str, exc: BaseException) -> InputError:
 
 
 def _xlsx_lines(ws) -> Iterable[tuple[int, Sequence[Any]]]:
+    ws.reset_dimensions()  # a used range (<dimension>) smaller than the data would hide rows and columns
     for line, cells in enumerate(ws.iter_rows(values_only=True), start=1):
         yield line, cells
 

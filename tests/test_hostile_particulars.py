@@ -101,3 +101,60 @@ def test_a_folder_with_one_bad_file_loads_nothing(db, tmp_path):
     done = CliRunner().invoke(main, ["load", str(folder), "--db", url])
     assert (done.exit_code, done.stderr) == (2, f"kit: error: {folder / 'b.toml'}: unit[0].pumps: expected a whole number of at least 1 (got 0)\n")
     assert dump(engine) == before
+
+
+# --- the particulars workbook (kit template particulars, read by kit load) ---------------------
+
+def _book_cases():
+    from kit.particulars_sheet import UNIT_COLUMNS
+    from openpyxl.utils import get_column_letter as letter
+
+    width = len(UNIT_COLUMNS)
+    bore, past = letter(UNIT_COLUMNS.index("bore") + 1), letter(width + 1)
+    return [
+        ("duplicated column", lambda wb: wb["units"].cell(1, width + 1, "bore") and wb["units"].cell(2, width + 1, "200 mm"),
+         f", sheet units, row 1: column bore: expected each column named once (first in column {bore}) "
+         f"(got a second one in column {past})"),
+        ("value under a blank header", lambda wb: wb["units"].cell(2, width + 2, "200 mm"),
+         f", sheet units, row 2: cell {letter(width + 2)}2: expected a value only under a column named in row 1 (got '200 mm')"),
+        ("blank header over a vessel value", lambda wb: wb["vessel"].cell(3, 3, "Other Name"),
+         ", sheet vessel, row 3: cell C3: expected a value only under a column named in row 1 (got 'Other Name')"),
+        ("header moved down a row", lambda wb: wb["filters"].insert_rows(1),
+         ", sheet filters, row 2: cell A2: expected a value only under a column named in row 1 (got 'unit')"),
+        ("vessel field given twice", lambda wb: wb["vessel"].append(["name", "Other Name"]),
+         ", sheet vessel, row 7: column field: expected each field on one row (row 3 gives name) (got 'name')"),
+    ]
+
+
+@pytest.mark.parametrize(("case", "edit", "line"), _book_cases(), ids=[c[0] for c in _book_cases()])
+def test_bad_particulars_workbook_one_line_exit_2_nothing_written(db, tmp_path, case, edit, line):
+    """Each of these was read before: the second column or row silently won, a value under no
+    header was dropped. Now the one line names the file, sheet, row or cell, and the field."""
+    import openpyxl
+
+    from kit.particulars_sheet import write_particulars_template
+
+    url, engine = db
+    toml = tmp_path / "v.toml"
+    toml.write_text(TOML_CYLINDER.replace("TEST-ONE", "TEST-BOOK"))
+    book = tmp_path / "v.xlsx"
+    write_particulars_template(book, toml)
+    wb = openpyxl.load_workbook(book)
+    edit(wb)
+    wb.save(book)
+    before = dump(engine)
+    done = CliRunner().invoke(main, ["load", str(book), "--db", url])
+    assert (done.exit_code, done.stderr, done.stdout) == (2, f"kit: error: {book}{line}\n", "")
+    assert dump(engine) == before
+
+
+def test_the_untouched_particulars_workbook_still_loads(db, tmp_path):
+    from kit.particulars_sheet import write_particulars_template
+
+    url, _ = db
+    toml = tmp_path / "v.toml"
+    toml.write_text(TOML_CYLINDER.replace("TEST-ONE", "TEST-BOOK"))
+    book = tmp_path / "v.xlsx"
+    write_particulars_template(book, toml)
+    done = CliRunner().invoke(main, ["load", str(book), "--db", url])
+    assert (done.exit_code, done.stdout) == (0, "loaded 1 vessel(s): TEST-BOOK\n")
