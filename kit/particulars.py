@@ -19,7 +19,7 @@ from typing import Any
 
 from kit.errors import InputError
 from kit.rudder import POSITION_K3, PROFILE_K2, Rudder
-from kit.units import to_si
+from kit.units import a_kind, to_si
 
 # "chemical_tanker" and "gas_carrier" are cargo ships that SOLAS II-1/29.16 names beside tankers.
 SHIP_TYPES = ("cargo", "passenger", "tanker", "chemical_tanker", "gas_carrier")
@@ -250,11 +250,11 @@ class _Reader:
         if positive and si <= 0:
             raise InputError(self.source, self._name(key), f"a positive {kind}", got=repr(value))
         if not positive and si < 0:
-            raise InputError(self.source, self._name(key), f"a {kind} of zero or more", got=repr(value))
+            raise InputError(self.source, self._name(key), f"{a_kind(kind)} of zero or more", got=repr(value))
         if maximum is not None and si > maximum:
-            raise InputError(self.source, self._name(key), f"a {kind} of at most {max_text}", got=repr(value))
+            raise InputError(self.source, self._name(key), f"{a_kind(kind)} of at most {max_text}", got=repr(value))
         if minimum is not None and si < minimum:
-            raise InputError(self.source, self._name(key), f"a {kind} of at least {min_text}", got=repr(value))
+            raise InputError(self.source, self._name(key), f"{a_kind(kind)} of at least {min_text}", got=repr(value))
         return si
 
     def boolean(self, key: str, default: bool) -> bool:
