@@ -144,12 +144,14 @@ UNITS = Table(
     Column("fluid_grade", Integer, nullable=False),
     Column("max_rudder_angle", Float, nullable=True),
     Column("isolation_valves", Boolean, nullable=False, default=False),
+    Column("rudder_carrier", String, nullable=True),
     PrimaryKeyConstraint("id", name=conv("pk_units")),
     ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_units_vessel_id_vessels")),
     UniqueConstraint("vessel_id", "ref", name=conv("uq_units_vessel_id_ref")),
     CheckConstraint("actuator IN ('ram', 'rotary_vane', 'cylinder')", name=conv("ck_units_actuator")),
     CheckConstraint("count >= 1", name=conv("ck_units_count")),
     CheckConstraint("fluid_grade > 0", name=conv("ck_units_fluid_grade")),
+    CheckConstraint("rudder_carrier IS NULL OR rudder_carrier = 'separate' OR (rudder_carrier = 'in_actuator' AND actuator = 'rotary_vane')", name=conv("ck_units_rudder_carrier")),
     CheckConstraint("working_pressure > 0", name=conv("ck_units_working_pressure")),
 )
 
@@ -168,9 +170,13 @@ ACTUATORS = Table(
     Column("hub_diameter", Float, nullable=True),
     Column("stock_diameter", Float, nullable=True),
     Column("vane_angle", Float, nullable=True),
+    Column("trunnion_distance", Float, nullable=True),
+    Column("gland_spigot_bore", Float, nullable=True),
     PrimaryKeyConstraint("unit_id", name=conv("pk_actuators")),
     ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_actuators_unit_id_units")),
+    CheckConstraint("gland_spigot_bore IS NULL OR gland_spigot_bore > 0", name=conv("ck_actuators_gland_spigot_bore")),
     CheckConstraint("stroke IS NULL OR stroke > 0", name=conv("ck_actuators_stroke")),
+    CheckConstraint("trunnion_distance IS NULL OR trunnion_distance > 0", name=conv("ck_actuators_trunnion_distance")),
     CheckConstraint("vanes IS NULL OR vanes >= 1", name=conv("ck_actuators_vanes")),
 )
 
@@ -237,6 +243,26 @@ POWER_UNITS = Table(
     CheckConstraint("reservoir > 0", name=conv("ck_power_units_reservoir")),
     CheckConstraint("system_oil IS NULL OR system_oil > 0", name=conv("ck_power_units_system_oil")),
     CheckConstraint("valve_blocks >= 0", name=conv("ck_power_units_valve_blocks")),
+)
+
+RUDDERS = Table(
+    "rudders",
+    metadata,
+    Column("unit_id", Integer, nullable=False),
+    Column("area", Float, nullable=False),
+    Column("mean_height", Float, nullable=False),
+    Column("area_forward", Float, nullable=False),
+    Column("ahead_speed", Float, nullable=False),
+    Column("profile", String, nullable=False),
+    Column("position", String, nullable=False),
+    Column("astern_speed", Float, nullable=True),
+    PrimaryKeyConstraint("unit_id", name=conv("pk_rudders")),
+    ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_rudders_unit_id_units")),
+    CheckConstraint("area_forward >= 0 AND area_forward < area / 2", name=conv("ck_rudders_area_forward")),
+    CheckConstraint("position IN ('outside_jet', 'propeller_jet', 'behind_nozzle')", name=conv("ck_rudders_position")),
+    CheckConstraint("profile IN ('naca', 'flat_side', 'mixed', 'hollow', 'high_lift', 'fish_tail', 'single_plate')", name=conv("ck_rudders_profile")),
+    CheckConstraint("area > 0 AND mean_height > 0", name=conv("ck_rudders_sizes")),
+    CheckConstraint("ahead_speed > 0 AND (astern_speed IS NULL OR astern_speed > 0)", name=conv("ck_rudders_speeds")),
 )
 
 SOLENOID_COILS = Table(

@@ -57,6 +57,9 @@ class UnitRow(SQLModel, table=True):
         CheckConstraint("count >= 1", name="count"),
         CheckConstraint("working_pressure > 0", name="working_pressure"),
         CheckConstraint("fluid_grade > 0", name="fluid_grade"),
+        # Only a rotary vane actuator can carry the rudder in its housing (revision 0005).
+        CheckConstraint("rudder_carrier IS NULL OR rudder_carrier = 'separate' "
+                        "OR (rudder_carrier = 'in_actuator' AND actuator = 'rotary_vane')", name="rudder_carrier"),
     )
 
     id: Optional[int] = Field(default=None, primary_key=True)
@@ -71,6 +74,7 @@ class UnitRow(SQLModel, table=True):
     fluid_grade: int
     max_rudder_angle: Optional[float] = None
     isolation_valves: bool = False
+    rudder_carrier: Optional[str] = None  # where the rudder carrier bearing is; null when not said
 
 
 class ActuatorRow(SQLModel, table=True):
@@ -80,6 +84,8 @@ class ActuatorRow(SQLModel, table=True):
     __table_args__ = (
         CheckConstraint("stroke IS NULL OR stroke > 0", name="stroke"),
         CheckConstraint("vanes IS NULL OR vanes >= 1", name="vanes"),
+        CheckConstraint("trunnion_distance IS NULL OR trunnion_distance > 0", name="trunnion_distance"),
+        CheckConstraint("gland_spigot_bore IS NULL OR gland_spigot_bore > 0", name="gland_spigot_bore"),
     )
 
     unit_id: int = Field(sa_column=_unit_fk())
@@ -94,6 +100,34 @@ class ActuatorRow(SQLModel, table=True):
     hub_diameter: Optional[float] = None
     stock_diameter: Optional[float] = None
     vane_angle: Optional[float] = None
+    trunnion_distance: Optional[float] = None  # a cylinder gear's trunnion axis to tiller pin at midships
+    gland_spigot_bore: Optional[float] = None  # a ram gland's spigot bore, as the maker's drawing gives it
+
+
+class RudderRow(SQLModel, table=True):
+    """The rudder a steering unit turns, for its torque by the classification-rule formula
+    (:mod:`kit.rudder`): area [m^2], mean height [m], area forward of the stock axis [m^2],
+    ahead and astern speeds [m/s], profile and position. One row per unit, none when not given.
+    (Added in revision 0005.)"""
+
+    __tablename__ = "rudders"
+    __table_args__ = (
+        CheckConstraint("area > 0 AND mean_height > 0", name="sizes"),
+        CheckConstraint("area_forward >= 0 AND area_forward < area / 2", name="area_forward"),
+        CheckConstraint("ahead_speed > 0 AND (astern_speed IS NULL OR astern_speed > 0)", name="speeds"),
+        CheckConstraint("profile IN ('naca', 'flat_side', 'mixed', 'hollow', 'high_lift', 'fish_tail', 'single_plate')",
+                        name="profile"),
+        CheckConstraint("position IN ('outside_jet', 'propeller_jet', 'behind_nozzle')", name="position"),
+    )
+
+    unit_id: int = Field(sa_column=_unit_fk())
+    area: float
+    mean_height: float
+    area_forward: float
+    ahead_speed: float
+    profile: str
+    position: str
+    astern_speed: Optional[float] = None
 
 
 class PowerUnitRow(SQLModel, table=True):

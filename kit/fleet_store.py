@@ -21,6 +21,7 @@ from catalog_schema.core_tables import (
     HOSES,
     PIPES,
     POWER_UNITS,
+    RUDDERS,
     SOLENOID_COILS,
     STATED_HOUSINGS,
     UNITS,
@@ -28,7 +29,6 @@ from catalog_schema.core_tables import (
 )
 from catalog_schema.refusals import located
 from catalog_schema.sql import in_batches, upsert
-from kit.errors import InputError
 from kit.particulars import (
     CylinderGeometry,
     FilterPosition,
@@ -42,6 +42,7 @@ from kit.particulars import (
     VaneGeometry,
     Vessel,
 )
+from kit.rudder import Rudder
 
 # Child tables of a unit: table -> (rows of a unit as dicts, a row back to its dataclass).
 _CHILDREN = {
@@ -59,7 +60,9 @@ _CHILDREN = {
 }
 
 _GEOMETRY_COLUMNS = ("ram_diameter", "bore", "rod", "stroke", "tiller_radius", "vanes", "vane_height",
-                     "housing_bore", "hub_diameter", "stock_diameter", "vane_angle")
+                     "housing_bore", "hub_diameter", "stock_diameter", "vane_angle", "trunnion_distance",
+                     "gland_spigot_bore")
+_RUDDER_COLUMNS = ("area", "mean_height", "area_forward", "ahead_speed", "profile", "position", "astern_speed")
 
 
 def company_id(conn: Connection, name: str | None) -> int | None:
@@ -74,7 +77,7 @@ def _unit_row(u: Unit, seq: int) -> dict:
     return {
         "ref": u.id, "seq": seq, "service": u.service, "actuator": u.actuator, "count": u.count,
         "working_pressure": u.working_pressure, "fluid_category": u.fluid.category, "fluid_grade": u.fluid.grade,
-        "max_rudder_angle": u.max_rudder_angle, "isolation_valves": u.isolation_valves,
+        "max_rudder_angle": u.max_rudder_angle, "isolation_valves": u.isolation_valves, "rudder_carrier": u.rudder_carrier,
     }
 
 
@@ -82,9 +85,11 @@ def _geometry_row(u: Unit) -> dict:
     g = u.geometry
     row = dict.fromkeys(_GEOMETRY_COLUMNS)
     if isinstance(g, RamGeometry):
-        row.update(ram_diameter=g.ram_diameter, stroke=g.stroke, tiller_radius=g.tiller_radius)
+        row.update(ram_diameter=g.ram_diameter, stroke=g.stroke, tiller_radius=g.tiller_radius,
+                   gland_spigot_bore=g.gland_spigot_bore)
     elif isinstance(g, CylinderGeometry):
-        row.update(bore=g.bore, rod=g.rod, stroke=g.stroke, tiller_radius=g.tiller_radius)
+        row.update(bore=g.bore, rod=g.rod, stroke=g.stroke, tiller_radius=g.tiller_radius,
+                   trunnion_distance=g.trunnion_distance)
     else:
         row.update(vanes=g.vanes, vane_height=g.vane_height, housing_bore=g.housing_bore,
                    hub_diameter=g.hub_diameter, vane_angle=g.vane_angle)
@@ -96,19 +101,6 @@ def _power_row(u: Unit) -> dict:
     return {"pumps": u.pumps, "pump_flow": u.pump_flow, "reservoir": u.reservoir, "system_oil": u.system_oil,
             "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks,
             "max_working_pressure": u.max_working_pressure, "design_pressure": u.design_pressure}
-
-
-def _refuse_unstored(v: Vessel) -> None:
-    """Particulars the database has no column for yet (issue 11 fields) are refused with one line
-    rather than dropped: a rudder or trunnion check must not vanish between the file and the fleet."""
-    for i, u in enumerate(v.units):
-        g = u.geometry
-        unstored = [name for name, value in (
-            ("trunnion_distance", getattr(g, "trunnion_distance", None)), ("gland_spigot_bore", getattr(g, "gland_spigot_bore", None)),
-            ("rudder", u.rudder), ("rudder_carrier", u.rudder_carrier if u.actuator == "rotary_vane" else None)) if value is not None]
-        if unstored:
-            raise InputError(v.source, f"unit[{i}].{unstored[0]}", "particulars the fleet database can store (this field is "
-                             "used by kit calc on the file but not yet stored in the database)", got="a value")
 
 
 def save_vessel(conn: Connection, vessel: Vessel) -> None:
@@ -124,8 +116,6 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     given twice is saved as its last occurrence, as saving them one after the other would.
     """
     given = list(vessels)
-    for v in given:
-        _refuse_unstored(v)
     ids = [v.id for v in given]
     latest = list({v.id: v for v in given}.values())
     if not latest:
@@ -166,12 +156,14 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     unit_id = unit_ids_of(vessel_ids_)
     units = [(unit_id[(v.id, u.id)], u, f"{v.source or 'vessel ' + v.id}, unit {u.id}") for v in latest for u in v.units]
 
-    tables = [ACTUATORS, POWER_UNITS] + [t for t, _, _ in _CHILDREN.values()]
+    tables = [ACTUATORS, POWER_UNITS, RUDDERS] + [t for t, _, _ in _CHILDREN.values()]
     for chunk in in_batches(conn, [uid for uid, _, _ in units]):
         for table in tables:
             conn.execute(delete(table).where(table.c.unit_id.in_(chunk)))
     _located(conn, ACTUATORS, [(w, {"unit_id": uid, **_geometry_row(u)}) for uid, u, w in units], insert(ACTUATORS))
     _located(conn, POWER_UNITS, [(w, {"unit_id": uid, **_power_row(u)}) for uid, u, w in units], insert(POWER_UNITS))
+    rudders = [(w, {"unit_id": uid, **{c: getattr(u.rudder, c) for c in _RUDDER_COLUMNS}}) for uid, u, w in units if u.rudder]
+    _located(conn, RUDDERS, rudders, insert(RUDDERS))
     for table, rows_of, _ in _CHILDREN.values():
         child_rows = [(w, {"unit_id": uid, "seq": i, **r}) for uid, u, w in units for i, r in enumerate(rows_of(u))]
         _located(conn, table, child_rows, insert(table))
@@ -191,10 +183,14 @@ def vessel_ids(conn: Connection) -> list[str]:
 
 def _geometry(actuator: str, g) -> RamGeometry | CylinderGeometry | VaneGeometry:
     if actuator == "ram":
-        return RamGeometry(g.ram_diameter, g.stroke, g.tiller_radius)
+        return RamGeometry(g.ram_diameter, g.stroke, g.tiller_radius, g.gland_spigot_bore)
     if actuator == "cylinder":
-        return CylinderGeometry(g.bore, g.rod, g.stroke, g.tiller_radius)
+        return CylinderGeometry(g.bore, g.rod, g.stroke, g.tiller_radius, g.trunnion_distance)
     return VaneGeometry(g.vanes, g.vane_height, g.housing_bore, g.hub_diameter, g.stock_diameter, g.vane_angle)
+
+
+def _rudder(rows: list | None) -> Rudder | None:
+    return Rudder(**{c: getattr(rows[0], c) for c in _RUDDER_COLUMNS}) if rows else None
 
 
 def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Vessel]:
@@ -218,7 +214,7 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
             found.setdefault(r.unit_id, []).append(r)
         return found
 
-    geometry, power = by_unit(ACTUATORS), by_unit(POWER_UNITS)
+    geometry, power, rudders = by_unit(ACTUATORS), by_unit(POWER_UNITS), by_unit(RUDDERS)
     children = {name: (by_unit(table), back) for name, (table, _, back) in _CHILDREN.items()}
     units_of: dict[str, list[Unit]] = {}
     for u in unit_rows:
@@ -228,7 +224,7 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
             fluid=Fluid(u.fluid_category, u.fluid_grade), pumps=p.pumps, pump_flow=p.pump_flow, reservoir=p.reservoir,
             geometry=_geometry(u.actuator, geometry[u.id][0]), max_rudder_angle=u.max_rudder_angle,
             system_oil=p.system_oil, oil_leakage=p.oil_leakage, isolation_valves=bool(u.isolation_valves),
-            rudder_carrier="separate" if u.service == "steering" and u.actuator != "rotary_vane" else None,
+            rudder=_rudder(rudders.get(u.id)), rudder_carrier=u.rudder_carrier,
             pump_model=p.pump_model, valve_blocks=p.valve_blocks, stock_diameter=geometry[u.id][0].stock_diameter,
             max_working_pressure=p.max_working_pressure, design_pressure=p.design_pressure,
             **{name: tuple(back(r) for r in rows.get(u.id, [])) for name, (rows, back) in children.items()},

@@ -18,9 +18,9 @@ from typing import Any
 from kit.errors import InputError
 from kit.input_files import TOML_PARTICULARS, read_text
 from kit.rudder import POSITION_K3, PROFILE_K2, Rudder
-from kit.toml_text import parse_toml
 from kit.safe_text import CONTROL
-from kit.units import to_si
+from kit.toml_text import parse_toml
+from kit.units import a_kind, to_si
 
 # "chemical_tanker" and "gas_carrier" are cargo ships that SOLAS II-1/29.16 names beside tankers.
 SHIP_TYPES = ("cargo", "passenger", "tanker", "chemical_tanker", "gas_carrier")
@@ -251,11 +251,11 @@ class _Reader:
         if positive and si <= 0:
             raise InputError(self.source, self._name(key), f"a positive {kind}", got=repr(value))
         if not positive and si < 0:
-            raise InputError(self.source, self._name(key), f"a {kind} of zero or more", got=repr(value))
+            raise InputError(self.source, self._name(key), f"{a_kind(kind)} of zero or more", got=repr(value))
         if maximum is not None and si > maximum:
-            raise InputError(self.source, self._name(key), f"a {kind} of at most {max_text}", got=repr(value))
+            raise InputError(self.source, self._name(key), f"{a_kind(kind)} of at most {max_text}", got=repr(value))
         if minimum is not None and si < minimum:
-            raise InputError(self.source, self._name(key), f"a {kind} of at least {min_text}", got=repr(value))
+            raise InputError(self.source, self._name(key), f"{a_kind(kind)} of at least {min_text}", got=repr(value))
         return si
 
     def boolean(self, key: str, default: bool) -> bool:

@@ -7,7 +7,9 @@ bare number could be read in more than one unit. Sheets:
 
 - ``vessel``: two columns, ``field`` and ``value``; fields ``id``, ``name``, ``ship_type``,
   ``gross_tonnage``, ``company``.
-- ``units``: one row per unit; columns as the ``[[unit]]`` fields (:data:`UNIT_COLUMNS`).
+- ``units``: one row per unit; columns as the ``[[unit]]`` fields (:data:`UNIT_COLUMNS`), and the
+  unit's ``[unit.rudder]`` table in columns ``rudder_area``, ``rudder_mean_height`` and so on
+  (:data:`RUDDER_COLUMNS`; all empty for a unit without one).
 - ``filters``, ``pipes``, ``housings``, ``solenoids``, ``hoses``: one row per item, the column
   ``unit`` naming the unit's id, then the fields of ``[[unit.filter]]`` and so on.
 
@@ -25,6 +27,7 @@ from typing import Any
 from kit.errors import InputError
 from kit.input_files import TOML_PARTICULARS, read_text
 from kit.particulars import Vessel, vessel_from_dict
+from kit.rudder import POSITION_K3, PROFILE_K2
 from kit.sheets import Sheet, read_sheets, write_workbook
 from kit.toml_text import parse_toml
 
@@ -34,8 +37,12 @@ UNIT_COLUMNS = (
     "max_rudder_angle", "system_oil", "oil_leakage", "isolation_valves", "pump_model", "valve_blocks",
     "ram_diameter", "bore", "rod", "stroke", "tiller_radius",
     "vanes", "vane_height", "housing_bore", "hub_diameter", "stock_diameter",
-    "vane_angle", "max_working_pressure", "design_pressure",
+    "vane_angle", "max_working_pressure", "design_pressure", "trunnion_distance", "gland_spigot_bore", "rudder_carrier",
 )
+# The ``[unit.rudder]`` table, one column per field on the units sheet: column -> field.
+RUDDER_COLUMNS = {f"rudder_{name}": name for name in
+                  ("area", "mean_height", "area_forward", "ahead_speed", "astern_speed", "profile", "position")}
+UNIT_SHEET_COLUMNS = UNIT_COLUMNS + tuple(RUDDER_COLUMNS)
 # sheet -> (the unit's array of tables in TOML, columns after ``unit``)
 CHILD_SHEETS = {
     "filters": ("filter", ("position", "elements", "change_interval", "duty", "element")),
@@ -58,6 +65,10 @@ NOTES = {
     "unit": "the id of the unit on the units sheet",
     "change_interval": 'e.g. "2000 h"',
     "duty": 'hours a day the filter sees flow, 0 to 24, e.g. "12 h/day" or 12',
+    "rudder_carrier": "separate, or in_actuator (a rotary vane actuator carrying the rudder)",
+    "rudder_area": 'the rudder\'s [unit.rudder] table, e.g. "12.5 m^2"; leave the rudder_ columns empty for none',
+    "rudder_profile": ", ".join(PROFILE_K2),
+    "rudder_position": ", ".join(POSITION_K3),
 }
 _BOOLEANS = {"true": True, "yes": True, "false": False, "no": False}
 
@@ -71,12 +82,18 @@ def particulars_sheets(document: dict[str, Any] | None = None) -> list[Sheet]:
     units = doc.get("unit", [])
     sheets = [
         Sheet("vessel", ("field", "value"), [(f, vessel.get(f)) for f in VESSEL_FIELDS], NOTES),
-        Sheet("units", UNIT_COLUMNS, [[u.get(c) for c in UNIT_COLUMNS] for u in units], NOTES),
+        Sheet("units", UNIT_SHEET_COLUMNS,
+              [[row.get(c) for c in UNIT_SHEET_COLUMNS] for row in ({**u, **_rudder_cells(u)} for u in units)], NOTES),
     ]
     for name, (array, columns) in CHILD_SHEETS.items():
         rows = [[u.get("id"), *[item.get(c) for c in columns]] for u in units for item in u.get(array, [])]
         sheets.append(Sheet(name, ("unit", *columns), rows, NOTES))
     return sheets
+
+
+def _rudder_cells(unit: dict[str, Any]) -> dict[str, Any]:
+    rudder = unit.get("rudder", {})
+    return {column: rudder.get(name) for column, name in RUDDER_COLUMNS.items()}
 
 
 def write_particulars_template(path: str | Path, from_toml: str | Path | None = None) -> None:
@@ -154,8 +171,11 @@ def load_particulars_sheet(path: str | Path) -> Vessel:
         document["company"] = {"name": vessel.pop("company")}
     units: list[dict[str, Any]] = []
     by_id: dict[Any, int] = {}
-    for line, values in _records(source, "units", sheets["units"], UNIT_COLUMNS):
+    for line, values in _records(source, "units", sheets["units"], UNIT_SHEET_COLUMNS):
         places[f"unit[{len(units)}]"] = ("units", line)
+        rudder = {name: values.pop(column) for column, name in RUDDER_COLUMNS.items() if column in values}
+        if rudder:
+            values["rudder"] = rudder
         by_id.setdefault(values.get("id"), len(units))
         units.append(values)
     document["unit"] = units
@@ -173,6 +193,13 @@ def load_particulars_sheet(path: str | Path) -> Vessel:
         raise _located(exc, source, places) from None
 
 
+def _column(field: str) -> str:
+    """The units sheet's column of a unit's field: ``rudder.area`` is in ``rudder_area``."""
+    if field == "rudder":
+        return "rudder_*"
+    return field.replace("rudder.", "rudder_", 1) if field.startswith("rudder.") else field
+
+
 def _located(exc: InputError, source: str, places: dict[str, tuple[str, int]]) -> InputError:
     """Turn ``unit[0].filter[1].elements`` into ``sheet filters, row 3``, ``column elements``."""
     field = exc.field
@@ -183,7 +210,8 @@ def _located(exc: InputError, source: str, places: dict[str, tuple[str, int]]) -
         prefix = field[:cut]
         if prefix in places:
             sheet, line = places[prefix]
-            return InputError(f"{source}, sheet {sheet}, row {line}", f"column {field[cut:].lstrip('.')}", exc.expected, exc.got)
+            return InputError(f"{source}, sheet {sheet}, row {line}", f"column {_column(field[cut:].lstrip('.'))}",
+                              exc.expected, exc.got)
     sheet = {"vessel": "vessel", "company": "vessel", "unit": "units"}.get(re.split(r"[.\[]", field)[0], "")
     where = f"{source}, sheet {sheet}" if sheet else source
     return InputError(where, field, exc.expected, exc.got)

@@ -127,6 +127,11 @@ def _pint_si(text: str, kind: str) -> float:
         raise _NotOfKind from None
 
 
+def a_kind(kind: str) -> str:
+    """``kind`` with its article, for messages: "a length", "an area"."""
+    return f"{'an' if kind[0] in 'aeiou' else 'a'} {kind}"
+
+
 def to_si(value: object, kind: str, *, source: str, field: str) -> float:
     """Parse ``value`` (a string with a unit) as a quantity of ``kind`` and return it in SI.
 
@@ -135,7 +140,7 @@ def to_si(value: object, kind: str, *, source: str, field: str) -> float:
     Raises :class:`~kit.errors.InputError` naming ``source`` and ``field`` when the value is not a
     string, carries no unit, has a unit of another kind, or is not a finite number.
     """
-    want = f"a {kind} with a unit, e.g. {EXAMPLES[kind]}"
+    want = f"{a_kind(kind)} with a unit, e.g. {EXAMPLES[kind]}"
     if isinstance(value, bool) or not isinstance(value, str) or not looks_like_quantity(value.strip()):
         raise InputError(source, field, want, got=repr(value if len(str(value)) <= MAX_TEXT else str(value)[:MAX_TEXT] + "..."))
     text = value.strip()

@@ -106,7 +106,7 @@ def test_a_folder_with_one_bad_file_loads_nothing(db, tmp_path):
 # --- the particulars workbook (kit template particulars, read by kit load) ---------------------
 
 def _book_cases():
-    from kit.particulars_sheet import UNIT_COLUMNS
+    from kit.particulars_sheet import UNIT_SHEET_COLUMNS as UNIT_COLUMNS
     from openpyxl.utils import get_column_letter as letter
 
     width = len(UNIT_COLUMNS)

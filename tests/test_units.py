@@ -48,7 +48,8 @@ def test_to_si_refuses(value, kind, got):
     with pytest.raises(InputError) as info:
         to_si(value, kind, source="f.toml", field="unit[0].x")
     assert info.value.got == got
-    assert str(info.value).startswith(f"f.toml: unit[0].x: expected a {kind} with a unit")
+    article = "an" if kind == "angle" else "a"  # English: "an angle", "a length"
+    assert str(info.value).startswith(f"f.toml: unit[0].x: expected {article} {kind} with a unit")
 
 
 def test_convert_against_pint():
