@@ -126,11 +126,15 @@ def check_outputs(targets: Mapping[str, str | os.PathLike | None]) -> None:
     """Refuse the outputs a command was given (option -> path; None when not given) before any
     work, and remember each option so a refusal at the rename names it too."""
     guard = _guard()
+    given: dict[str, str] = {}  # resolved path -> the option that named it first
     for option, path in targets.items():
         if path is None:
             continue
         refuse_bad_target(path, option)
-        guard.options[os.path.realpath(path)] = option
+        name = os.path.realpath(path)
+        if name in given:  # the later write would replace the earlier one
+            raise OutputError(str(path), f"a file other than {given[name]}'s", option, got=f"the file {given[name]} writes")
+        given[name] = guard.options[name] = option
 
 
 # --- the demo folder ------------------------------------------------------------------------

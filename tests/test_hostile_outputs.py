@@ -212,6 +212,24 @@ def test_refused_before_any_work(fleet, tmp_path, monkeypatch):
             f"{fifo}: --csv: expected {NOT_SPECIAL} (got a FIFO)")
 
 
+@pytest.mark.parametrize("given, option, first", [
+    (lambda t: ["--out", t / "order.xlsx", "--csv", t / "order.xlsx"], "--csv", "--out"),
+    (lambda t: ["--out", t / "order.xlsx", "--json", t / "sub" / ".." / "order.xlsx"], "--json", "--out"),
+    (lambda t: ["--out", t / "order.xlsx", "--csv", t / "lines.csv", "--json", t / "lines.csv"], "--json", "--csv"),
+])
+def test_two_outputs_of_one_command_are_two_files(fleet, tmp_path, given, option, first):
+    """--out and --csv naming one file: before, the CSV silently replaced the workbook (exit 0)."""
+    db, _ = fleet
+    (tmp_path / "sub").mkdir()
+    args = given(tmp_path)
+    target = args[args.index(option) + 1]
+    old = tmp_path / "order.xlsx"
+    old.write_bytes(b"last week's order")
+    refused(fleet, ["bom", *args, "--db", db], tmp_path,
+            f"{target}: {option}: expected a file other than {first}'s (got the file {first} writes)")
+    assert old.read_bytes() == b"last week's order"
+
+
 def test_a_writable_file_is_still_replaced(fleet, tmp_path):
     db, _ = fleet
     old = tmp_path / "order.xlsx"
