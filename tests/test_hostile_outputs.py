@@ -325,7 +325,27 @@ def test_demo_uses_an_empty_folder_and_replaces_only_its_own(tmp_path):
     out.mkdir()
     assert demo(out).exit_code == 0
     assert {DEMO_MARKER, "fleet.sqlite", "fleet-bom.xlsx", "imports"} <= set(os.listdir(out))
-    (out / "leftover.txt").write_text("from the first run")
-    done = demo(out)  # kit made it: replaced whole
+    (out / "fleet-bom.xlsx").write_bytes(b"edited")
+    done = demo(out)  # kit made it and holds only what kit wrote: replaced whole
     assert done.exit_code == 0, done.output
-    assert not (out / "leftover.txt").exists() and (out / DEMO_MARKER).is_file()
+    assert (out / "fleet-bom.xlsx").read_bytes()[:2] == b"PK" and (out / DEMO_MARKER).is_file()
+
+
+def test_demo_keeps_what_it_did_not_make_in_a_marked_folder(tmp_path, monkeypatch):
+    """Before, a marker was enough: a home folder holding one, or a demo folder the user had saved
+    notes into, was deleted whole (exit 0)."""
+    made = tmp_path / "kit-demo"
+    assert demo(made).exit_code == 0
+    (made / "notes.txt").write_text("the chief's notes")
+    home = tmp_path / "home"
+    home.mkdir()
+    (home / "thesis.txt").write_text("mine")
+    (home / DEMO_MARKER).write_text("")
+    monkeypatch.setenv("HOME", str(home))
+    for folder, name in ((made, "notes.txt"), (Path(os.path.expanduser("~")), "thesis.txt")):
+        before = sorted(os.listdir(folder))
+        done = demo(folder)
+        assert (done.exit_code, done.stderr, done.stdout) == (2, f"kit: error: {folder}: --out: expected {DEMO_OUT} "
+                                                              f"(got a folder kit demo made that now also holds 1 entry "
+                                                              f"it did not make (e.g. {name!r}))\n", "")
+        assert sorted(os.listdir(folder)) == before and (folder / name).read_text() in ("the chief's notes", "mine")
