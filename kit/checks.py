@@ -154,13 +154,15 @@ def _check_rudder(unit: Unit, act: physics.Actuation, out: UnitChecks) -> None:
                             "the maker and the class society")
 
 
-def reduced_mode(unit: Unit) -> solas.ReducedMode:
+def reduced_mode(unit: Unit) -> solas.ReducedMode | None:
     """The gear with one power actuating system lost (see ``kit.solas``): one power unit fewer while
     two or more are fitted, and half the rams or cylinders of a gear of four or more. The torque
     and the oil swept scale with the rams or cylinders working (``kit.physics``); a 4-ram gear on
     2 rams gives half the torque and, on half the flow, the same swing time.
     """
     split = unit.actuator in ("ram", "cylinder") and unit.count >= 4
+    if unit.pumps < 2 and not split:
+        return None  # its one power actuating system lost, nothing is left to steer with
     actuators = unit.count // 2 if split else unit.count
     pumps = unit.pumps - 1 if unit.pumps >= 2 else 1
     act = physics.actuation(replace(unit, count=actuators))

@@ -79,7 +79,7 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     from kit.catalogue_import import import_catalogue
     from kit.fleet_store import read_vessels, save_vessels
     from kit.order_sources import catalogue_offers, stock_on_board
-    from kit.output_targets import check_demo_folder, make_demo_folder
+    from kit.output_targets import check_demo_folder, make_demo_folder, record_demo_folder
     from kit.particulars import load_folder
     from kit.parts_store import register_parts
     from kit.preflight import preflight_order
@@ -122,4 +122,5 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
                                         f"pre-voyage check of {check_vessel.name}: shortfall for {check_days:g} days")
     finally:
         engine.dispose()
+        record_demo_folder(out)  # even after a failure: all it holds is kit's, as it was new or emptied
     return DemoOutput(out, database, workbook, check_workbook, len(vessels), len(order.lines), len(check.lines))

@@ -126,11 +126,15 @@ def check_outputs(targets: Mapping[str, str | os.PathLike | None]) -> None:
     """Refuse the outputs a command was given (option -> path; None when not given) before any
     work, and remember each option so a refusal at the rename names it too."""
     guard = _guard()
+    given: dict[str, str] = {}  # resolved path -> the option that named it first
     for option, path in targets.items():
         if path is None:
             continue
         refuse_bad_target(path, option)
-        guard.options[os.path.realpath(path)] = option
+        name = os.path.realpath(path)
+        if name in given:  # the later write would replace the earlier one
+            raise OutputError(str(path), f"a file other than {given[name]}'s", option, got=f"the file {given[name]} writes")
+        given[name] = guard.options[name] = option
 
 
 # --- the demo folder ------------------------------------------------------------------------
@@ -153,6 +157,13 @@ def check_demo_folder(folder: Path, option: str = "--out") -> None:
     if entries and not _marked(folder):
         raise OutputError(str(folder), expected, option, got=f"a folder kit demo did not make, holding {len(entries)} "
                           f"{'entry' if len(entries) == 1 else 'entries'} (e.g. {sorted(entries)[0]!r})")
+    # a marker alone is not enough: a marker left in a home folder, or a file the user saved into
+    # the demo folder afterwards, must not be deleted with it
+    foreign = sorted(set(entries) - _made_names(folder)) if entries else []
+    if foreign:
+        raise OutputError(str(folder), expected, option, got=f"a folder kit demo made that now also holds "
+                          f"{len(foreign)} {'entry' if len(foreign) == 1 else 'entries'} it did not make "
+                          f"(e.g. {foreign[0]!r})")
 
 
 def _marked(folder: Path) -> bool:
@@ -161,6 +172,23 @@ def _marked(folder: Path) -> bool:
         return stat.S_ISREG(os.lstat(folder / DEMO_MARKER).st_mode)
     except OSError:
         return False
+
+
+def _made_names(folder: Path) -> set[str]:
+    """The names the marker lists (what kit demo wrote, one a line after the first), the marker and
+    the database's companions."""
+    try:
+        listed = (folder / DEMO_MARKER).read_text(encoding="utf-8").splitlines()[1:]
+    except (OSError, UnicodeDecodeError):
+        listed = []
+    return {DEMO_MARKER, *listed, *(f"fleet.sqlite{suffix}" for suffix in COMPANIONS)}
+
+
+def record_demo_folder(folder: Path) -> None:
+    """List in the marker what kit demo wrote in ``folder``, so only that is replaced next time."""
+    names = sorted(set(os.listdir(folder)) - {DEMO_MARKER})
+    with open(folder / DEMO_MARKER, "a", encoding="utf-8") as marker:
+        marker.writelines(f"{name}\n" for name in names)
 
 
 def make_demo_folder(folder: Path, option: str = "--out") -> None:

@@ -45,7 +45,8 @@ Our reading, stated so it can be checked:
 * 29.6.1.3 is shown by ``isolation_valves = true``; without it the particulars do not show it.
 * The reduced mode after a single failure, for gears with isolation valves, is one power actuating
   system lost: one power unit fewer (while two or more remain) and, for a gear of four or more rams
-  or cylinders, half of them isolated. SOLAS sets no figure for it; kit reports its torque and
+  or cylinders, half of them isolated. A single power unit driving fewer than four rams or cylinders
+  has no reduced mode: the failure leaves nothing to steer with. SOLAS sets no figure for it; kit reports its torque and
   swing time.
 """
 
@@ -256,6 +257,9 @@ def rule_29_16_1(f: GearFigures, case: RuleResult, isolable: RuleResult) -> Rule
 def rule_reduced_mode(f: GearFigures) -> RuleResult:
     clause = "SOLAS II-1/29.6.1.3 reduced mode"
     r = f.reduced
+    if r is None and f.isolation_valves:
+        return RuleResult(clause, "not applicable", "a single power unit driving all the actuators: a single failure "
+                          "leaves no power actuating system to steer with")
     if r is None:
         return RuleResult(clause, "not applicable", "no isolation valves stated")
     return RuleResult(clause, "info",

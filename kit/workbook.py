@@ -36,6 +36,7 @@ from kit.seal_kit import mm
 HEADER_FONT = Font(bold=True)
 HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
 WRAP = Alignment(wrap_text=True, vertical="top")
+HEADER_LINE_PT = 13.0  # one line of the bold heading font, with its leading
 
 # Number formats only on money, which a purchaser reads to the cent; quantities kit rounds itself
 # (and the formulas over them) read as they are in General. A styled cell costs several times a
@@ -53,7 +54,8 @@ COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS
 class _Sheet:
     """A write-only sheet with a styled, frozen, filtered header row and print set-up."""
 
-    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True):
+    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True,
+                 fit_width: bool = True):
         self.ws = wb.create_sheet(title)
         self.table = header_row
         self._reused: dict[tuple[int, str], WriteOnlyCell] = {}
@@ -64,12 +66,15 @@ class _Sheet:
             self.ws.column_dimensions[get_column_letter(i)].width = width
         ps = self.ws.page_setup
         ps.orientation = "landscape"
-        ps.fitToWidth, ps.fitToHeight = 1, 0
-        self.ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=True)
+        ps.fitToWidth, ps.fitToHeight = (1 if fit_width else 0), 0
+        self.ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=fit_width)
         self.rows = 0
         if header_row:
             self.ws.freeze_panes = "A2"
             self.ws.print_title_rows = "1:1"
+            # a wrapped heading's row does not grow by itself in every program: lines drawn over row 2
+            lines = max(math.ceil(len(name) / max(width - 2, 1)) for name, width, _ in self.columns)
+            self.ws.row_dimensions[1].height = HEADER_LINE_PT * lines
             self.append([name for name, _, _ in self.columns], header=True)
 
     def _header_cell(self, value: Any) -> WriteOnlyCell:
@@ -260,7 +265,10 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
             ("Margin over rudder torque [%]", 11, None),
             ("Rudder angle reachable [deg]", 10, None), ("Pump flow needed each [L/min]", 11, None),
             ("Auxiliary steering gear required", 12, None), *((clause, 14, None) for clause in RULE_COLUMNS))
-    sheet = _Sheet(wb, "Gear checks", cols)
+    # some 40 columns: fitted to one page wide they print at a fifth of their size; print them
+    # across pages instead, each with the vessel and unit
+    sheet = _Sheet(wb, "Gear checks", cols, fit_width=False)
+    sheet.ws.print_title_cols = "A:C"
     yes = {True: "yes", False: "NO", None: None}
     for r in order.results:
         for u in r.units:

@@ -212,6 +212,24 @@ def test_refused_before_any_work(fleet, tmp_path, monkeypatch):
             f"{fifo}: --csv: expected {NOT_SPECIAL} (got a FIFO)")
 
 
+@pytest.mark.parametrize("given, option, first", [
+    (lambda t: ["--out", t / "order.xlsx", "--csv", t / "order.xlsx"], "--csv", "--out"),
+    (lambda t: ["--out", t / "order.xlsx", "--json", t / "sub" / ".." / "order.xlsx"], "--json", "--out"),
+    (lambda t: ["--out", t / "order.xlsx", "--csv", t / "lines.csv", "--json", t / "lines.csv"], "--json", "--csv"),
+])
+def test_two_outputs_of_one_command_are_two_files(fleet, tmp_path, given, option, first):
+    """--out and --csv naming one file: before, the CSV silently replaced the workbook (exit 0)."""
+    db, _ = fleet
+    (tmp_path / "sub").mkdir()
+    args = given(tmp_path)
+    target = args[args.index(option) + 1]
+    old = tmp_path / "order.xlsx"
+    old.write_bytes(b"last week's order")
+    refused(fleet, ["bom", *args, "--db", db], tmp_path,
+            f"{target}: {option}: expected a file other than {first}'s (got the file {first} writes)")
+    assert old.read_bytes() == b"last week's order"
+
+
 def test_a_writable_file_is_still_replaced(fleet, tmp_path):
     db, _ = fleet
     old = tmp_path / "order.xlsx"
@@ -307,7 +325,27 @@ def test_demo_uses_an_empty_folder_and_replaces_only_its_own(tmp_path):
     out.mkdir()
     assert demo(out).exit_code == 0
     assert {DEMO_MARKER, "fleet.sqlite", "fleet-bom.xlsx", "imports"} <= set(os.listdir(out))
-    (out / "leftover.txt").write_text("from the first run")
-    done = demo(out)  # kit made it: replaced whole
+    (out / "fleet-bom.xlsx").write_bytes(b"edited")
+    done = demo(out)  # kit made it and holds only what kit wrote: replaced whole
     assert done.exit_code == 0, done.output
-    assert not (out / "leftover.txt").exists() and (out / DEMO_MARKER).is_file()
+    assert (out / "fleet-bom.xlsx").read_bytes()[:2] == b"PK" and (out / DEMO_MARKER).is_file()
+
+
+def test_demo_keeps_what_it_did_not_make_in_a_marked_folder(tmp_path, monkeypatch):
+    """Before, a marker was enough: a home folder holding one, or a demo folder the user had saved
+    notes into, was deleted whole (exit 0)."""
+    made = tmp_path / "kit-demo"
+    assert demo(made).exit_code == 0
+    (made / "notes.txt").write_text("the chief's notes")
+    home = tmp_path / "home"
+    home.mkdir()
+    (home / "thesis.txt").write_text("mine")
+    (home / DEMO_MARKER).write_text("")
+    monkeypatch.setenv("HOME", str(home))
+    for folder, name in ((made, "notes.txt"), (Path(os.path.expanduser("~")), "thesis.txt")):
+        before = sorted(os.listdir(folder))
+        done = demo(folder)
+        assert (done.exit_code, done.stderr, done.stdout) == (2, f"kit: error: {folder}: --out: expected {DEMO_OUT} "
+                                                              f"(got a folder kit demo made that now also holds 1 entry "
+                                                              f"it did not make (e.g. {name!r}))\n", "")
+        assert sorted(os.listdir(folder)) == before and (folder / name).read_text() in ("the chief's notes", "mine")

@@ -207,6 +207,22 @@ def test_reduced_mode_of_a_four_ram_gear_is_half_the_torque():
     assert judged("tanker", 2, 120, gt=42_300, count=4).reduced is None
 
 
+def test_no_reduced_mode_with_one_power_unit_and_one_ram_pair():
+    # SOLAS II-1/29.6.1.3 isolates a failure so that steering capability is kept; with one power
+    # unit driving one ram pair the one power actuating system is the whole gear, and losing it
+    # leaves none (before, kit showed the intact gear as the reduced mode: 2 of 2 rams on 1 unit).
+    c = judged("cargo", 1, 120, isolation_valves=True)
+    assert c.reduced is None
+    assert (rule(c, "29.6.1.3 reduced mode").verdict, rule(c, "29.6.1.3 reduced mode").text) == (
+        "not applicable", "a single power unit driving all the actuators: a single failure leaves no power actuating "
+        "system to steer with")
+    # Four rams on one power unit: a piping failure isolates one pair and the other works on: k = 1.
+    four = judged("cargo", 1, 120, count=4, isolation_valves=True)
+    assert (four.reduced.actuators, four.reduced.pumps) == (2, 1)
+    a, th = math.pi / 4 * 0.280**2, math.radians(35)
+    assert four.reduced.torque_max_angle == pytest.approx(160e5 * a * 0.600 / math.cos(th) ** 2, rel=1e-9)
+
+
 @pytest.mark.parametrize(("stock", "main", "auxiliary"), [
     ("100 mm", "120 mm or less", "may be hand operated"),
     ("200 mm", "over 120 mm", "may be hand operated"),

@@ -60,6 +60,20 @@ def test_sheets_and_layout(case):
     assert ws.column_dimensions["B"].width >= 40
 
 
+def test_headings_have_room_and_gear_checks_print_readably(case):
+    # Rendered with LibreOffice, a one-line header row drew the wrapped headings over row 2, and the
+    # 39 Gear checks columns fitted to one page wide printed at about a fifth of their size.
+    _, path, _, _ = case
+    wb = openpyxl.load_workbook(path)
+    ws = wb["Gear checks"]
+    headings = [c.value for c in ws[1]]
+    widths = [ws.column_dimensions[openpyxl.utils.get_column_letter(i)].width for i in range(1, len(headings) + 1)]
+    lines = max(-(-len(h) // int(w - 2)) for h, w in zip(headings, widths))  # "Margin over rudder torque [%]" in 11
+    assert lines >= 3 and ws.row_dimensions[1].height >= 13 * lines
+    assert not ws.sheet_properties.pageSetUpPr.fitToPage and ws.print_title_cols == "$A:$C"
+    assert wb["Order lines"].row_dimensions[1].height >= 26  # "Lead time [days]" in 10 wraps to two lines
+
+
 def test_every_order_line_matches_the_engine(case):
     order, path, lo, _ = case
     ws = openpyxl.load_workbook(path)["Order lines"]
