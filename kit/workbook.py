@@ -24,7 +24,7 @@ from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.properties import PageSetupProperties
 
 from kit.bom import Order
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.atomic import replace_atomically
 from kit.oil import L_PER_M3, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
