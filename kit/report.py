@@ -9,13 +9,11 @@ from __future__ import annotations
 import math
 from typing import Any
 
-from kit.oil import US_GAL_PER_M3
+from kit.display_units import KN_PER_N as KNM, L_PER_M3, PA_PER_BAR, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
 from kit.requirements import UnitResult, VesselResult
 from kit.seal_kit import SealLine, SealKit, mm
 
-KNM = 1e-3
-L_PER_M3 = 1000.0
 
 
 def _r(x: float | None, nd: int = 1) -> float | None:
@@ -94,7 +92,7 @@ def rudder_json(c) -> dict[str, Any]:
         "rudder_torque_knm": None if load is None else {"ahead": _r(load.torque_ahead * KNM), "astern": _r(load.torque_astern * KNM)},
         "rudder_force_kn": None if load is None else {"ahead": _r(load.force_ahead * KNM), "astern": _r(load.force_astern * KNM)},
         "gear_torque_35_knm": _r(c.gear_torque_35 and c.gear_torque_35 * KNM),
-        "gear_torque_pressure_bar": _r(c.gear_torque_pressure and c.gear_torque_pressure / 1e5),
+        "gear_torque_pressure_bar": _r(c.gear_torque_pressure and c.gear_torque_pressure / PA_PER_BAR),
         "rudder_torque_margin_pct": None if c.rudder_margin is None else round(100 * c.rudder_margin, 1),
     }
 
