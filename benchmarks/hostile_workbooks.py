@@ -60,7 +60,7 @@ CASES = [
          ", row 3: cell XFD1048576: expected a column from A to IV (at most 256) (got column 16,384)",
          lambda key: {SHEET: sheet_xml(key, '<row r="3"><c r="XFD1048576"/></row>')}),
     Case("used range of the whole sheet", SHEET,
-         f": dimension: expected a used range within A1:IV200100 of at most 5,000,000 cells (got 'A1:XFD1048576')",
+         ": dimension: expected a used range within A1:IV200100 of at most 5,000,000 cells (got 'A1:XFD1048576')",
          lambda key: {SHEET: sheet_xml(key, "", dimension="A1:XFD1048576")}),
     Case("row 999999999", SHEET,
          f": row number: expected 1 to {LIMIT_ROWS} (kit reads at most 100,000 data rows) (got row 999,999,999)",

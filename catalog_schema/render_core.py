@@ -18,7 +18,7 @@ from __future__ import annotations
 import sys
 from pathlib import Path
 
-from sqlalchemy import Boolean, CheckConstraint, Date, Float, ForeignKeyConstraint, Integer, MetaData, String, Table, Text
+from sqlalchemy import Boolean, CheckConstraint, Date, Float, ForeignKeyConstraint, Integer, MetaData, String, Text
 from sqlalchemy import PrimaryKeyConstraint, TypeDecorator, UniqueConstraint
 
 TARGET = Path(__file__).with_name("core_tables.py")

@@ -17,11 +17,11 @@ from collections import defaultdict
 from dataclasses import dataclass, field
 from typing import Mapping
 
+from kit.display_units import L_PER_M3
 from kit.oil import Package, PackagePlan, plan_packages
 from kit.parts import LineItem
 from kit.requirements import VesselResult
 
-L_PER_M3 = 1000.0
 
 
 @dataclass(frozen=True)

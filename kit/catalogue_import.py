@@ -28,10 +28,9 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from sqlalchemy import delete, select
-from sqlalchemy.engine import Engine
+from sqlalchemy.engine import Connection
 
 from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
-from catalog_schema.engine import write_transaction
 from catalog_schema.locks import hold
 from catalog_schema.refusals import located
 from catalog_schema.sql import insert_rows, upsert
@@ -109,33 +108,44 @@ def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
     return out
 
 
-def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueReport:
-    """Replace ``supplier``'s catalogue by the rows of ``path``; report what matched nothing.
-    ``decimal`` is the decimal mark of the file's numbers ("point" or "comma"; None: by the
-    file's kind, see :mod:`kit.numbers`)."""
+@dataclass(frozen=True)
+class CatalogueFile:
+    """A catalogue file read and checked, ready to write."""
+
+    path: str
+    supplier: str
+    table: Table
+    entries: list[Entry]
+
+
+def read_catalogue(path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueFile:
+    """``supplier``'s catalogue rows in ``path``, every cell checked. ``decimal`` is the decimal
+    mark of the file's numbers ("point" or "comma"; None: by the file's kind, see :mod:`kit.numbers`)."""
     supplier = checked_text(supplier, source=str(path), field="--supplier").strip()
     if not supplier:
         raise InputError(str(path), "--supplier", "a supplier name", got="an empty name")
     table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
-    entries = _entries(table, decimal)
+    return CatalogueFile(str(path), supplier, table, _entries(table, decimal))
 
-    def write(conn) -> CatalogueReport:
-        hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)
-        located(conn, SUPPLIERS, ["name"], [{"name": supplier}], lambda c, one: c.execute(upsert(c, SUPPLIERS, ["name"]), one),
-                lambda _: str(path), {"name": "--supplier"})
-        sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
-        known = part_ids(conn)
-        report = CatalogueReport(supplier, len(entries), 0)
-        rows = []
-        for line, ref, key, *rest in entries:
-            pid = known.get(key)
-            if pid is None:
-                report.unmatched.append((table.where(line), ref, key))
-            rows.append((sid, pid, ref, key, *rest))
-        report.matched = len(rows) - len(report.unmatched)
-        conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
-        located(conn, ENTRIES, ENTRY_COLUMNS, rows, lambda c, some: insert_rows(c, ENTRIES, ENTRY_COLUMNS, some),
-                lambda i: table.where(entries[i][0]), {"supplier_id": "--supplier", "part_id": "part_key"})
-        return report
 
-    return write_transaction(engine, write)
+def write_catalogue(conn: Connection, catalogue: CatalogueFile) -> CatalogueReport:
+    """Replace the supplier's catalogue by the checked rows, in the caller's transaction; report
+    what matched no generic part."""
+    path, supplier, table, entries = catalogue.path, catalogue.supplier, catalogue.table, catalogue.entries
+    hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)
+    located(conn, SUPPLIERS, ["name"], [{"name": supplier}], lambda c, one: c.execute(upsert(c, SUPPLIERS, ["name"]), one),
+            lambda _: path, {"name": "--supplier"})
+    sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
+    known = part_ids(conn)
+    report = CatalogueReport(supplier, len(entries), 0)
+    rows = []
+    for line, ref, key, *rest in entries:
+        pid = known.get(key)
+        if pid is None:
+            report.unmatched.append((table.where(line), ref, key))
+        rows.append((sid, pid, ref, key, *rest))
+    report.matched = len(rows) - len(report.unmatched)
+    conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
+    located(conn, ENTRIES, ENTRY_COLUMNS, rows, lambda c, some: insert_rows(c, ENTRIES, ENTRY_COLUMNS, some),
+            lambda i: table.where(entries[i][0]), {"supplier_id": "--supplier", "part_id": "part_key"})
+    return report

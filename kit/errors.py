@@ -84,3 +84,14 @@ class OutputError(KitError, OSError):
     def __str__(self) -> str:
         found = f" (got {self.got})" if self.got is not None else ""
         return f"{self.target}: {self.field}: expected {self.expected}{found}"
+
+
+@dataclass
+class UnknownVesselError(KitError, LookupError):
+    """No vessel with this id in the fleet database. The library names only the id; a face adds
+    how the id was given (the command line names its option, see ``kit/commands/common.py``)."""
+
+    vessel_id: str
+
+    def __str__(self) -> str:
+        return f"no vessel {self.vessel_id!r} in the fleet database (kit load adds vessels)"

@@ -29,6 +29,7 @@ from catalog_schema.core_tables import (
 )
 from catalog_schema.refusals import located
 from catalog_schema.sql import in_batches, upsert
+from kit.errors import UnknownVesselError
 from kit.particulars import (
     CylinderGeometry,
     FilterPosition,
@@ -73,6 +74,15 @@ def company_id(conn: Connection, name: str | None) -> int | None:
     return conn.execute(select(COMPANIES.c.id).where(COMPANIES.c.name == name)).scalar_one()
 
 
+def vessel_company(conn: Connection, vessel_id: str) -> int | None:
+    """The id of the vessel's company (None: it has none); :class:`UnknownVesselError` when the
+    database holds no such vessel. The one place that asks whether a vessel exists."""
+    row = conn.execute(select(VESSELS.c.company_id).where(VESSELS.c.id == vessel_id)).first()
+    if row is None:
+        raise UnknownVesselError(vessel_id)
+    return row.company_id
+
+
 def _unit_row(u: Unit, seq: int) -> dict:
     return {
         "ref": u.id, "seq": seq, "service": u.service, "actuator": u.actuator, "count": u.count,
@@ -101,11 +111,6 @@ def _power_row(u: Unit) -> dict:
     return {"pumps": u.pumps, "pump_flow": u.pump_flow, "reservoir": u.reservoir, "system_oil": u.system_oil,
             "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks,
             "max_working_pressure": u.max_working_pressure, "design_pressure": u.design_pressure}
-
-
-def save_vessel(conn: Connection, vessel: Vessel) -> None:
-    """Insert or update one vessel and its units, inside the caller's transaction."""
-    save_vessels(conn, [vessel])
 
 
 def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
@@ -175,10 +180,6 @@ def _located(conn: Connection, table, rows: list[tuple[str, dict]], statement, f
     the database refuses (:func:`catalog_schema.refusals.located`)."""
     located(conn, table, (), [r for _, r in rows], lambda c, some: c.execute(statement, list(some)),
             lambda i: rows[i][0], fields)
-
-
-def vessel_ids(conn: Connection) -> list[str]:
-    return list(conn.execute(select(VESSELS.c.id).order_by(VESSELS.c.id)).scalars())
 
 
 def _geometry(actuator: str, g) -> RamGeometry | CylinderGeometry | VaneGeometry:

@@ -17,11 +17,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from kit.display_units import L_PER_M3
 from kit.particulars import Pipe, Unit
 from kit.physics import actuator_oil_volume
 
-L_PER_M3 = 1000.0
-US_GAL_PER_M3 = 1 / 0.003785411784  # NIST SP 811: 1 US gal = 3.785411784 L
 
 
 @dataclass(frozen=True)

@@ -11,7 +11,7 @@ All values in the dataclasses are SI floats: m, Pa, m^3/s, m^3, s, rad.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import Any
 

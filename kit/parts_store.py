@@ -139,3 +139,11 @@ class KeyReader:
         if not names and spec is None:
             raise self.table.error(row, "spec", f"the part's grade or reference (a {kind} has no dimensions)", "an empty cell")
         return part_key(kind, dims, "" if spec is None else str(spec))
+
+
+def list_parts(conn: Connection, kind: str | None = None) -> list[tuple[str, str]]:
+    """Every generic part (or those of ``kind``) as (key, designation), by kind then key."""
+    query = select(PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)
+    if kind:
+        query = query.where(PARTS.c.kind == kind)
+    return [tuple(row) for row in conn.execute(query)]

@@ -19,7 +19,7 @@ from catalog_schema.core_tables import SPARES_POLICIES
 from catalog_schema.sql import upsert
 from kit.errors import InputError
 from kit.numbers import MAX_DAYS
-from kit.fleet_store import COMPANIES, VESSELS, company_id
+from kit.fleet_store import VESSELS, company_id, vessel_company
 from kit.safe_text import checked_text
 from kit.spares import Policy, policy_from_text
 
@@ -59,8 +59,8 @@ def set_policy(conn: Connection, *, name: str, cover_days: int, in_force_from: d
             checked_text(text, source="kit policy set", field=option)
     if content is not None:
         policy_from_text(content, content_source)
-    if vessel is not None and conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel)).first() is None:
-        raise InputError("kit policy set", "--vessel", "the id of a vessel in the database (kit load adds them)", got=repr(vessel))
+    if vessel is not None:
+        vessel_company(conn, vessel)  # the vessel must exist
     row = {"company_id": company_id(conn, company), "vessel_id": vessel, "name": name, "cover_days": cover_days,
            "in_force_from": in_force_from, "note": note, "content": content}
     scope = ["vessel_id" if vessel is not None else "company_id", "in_force_from"]
@@ -68,11 +68,10 @@ def set_policy(conn: Connection, *, name: str, cover_days: int, in_force_from: d
 
 
 def policy_in_force(conn: Connection, vessel_id: str, on: dt.date) -> PolicyInForce | None:
-    """The vessel's policy on date ``on``, else its company's, else None."""
-    vessel = conn.execute(select(VESSELS.c.company_id).where(VESSELS.c.id == vessel_id)).first()
-    if vessel is None:
-        raise InputError("kit policy show", "--vessel", "the id of a vessel in the database", got=repr(vessel_id))
-    for scope, column, value in (("vessel", POLICIES.c.vessel_id, vessel_id), ("company", POLICIES.c.company_id, vessel.company_id)):
+    """The vessel's policy on date ``on``, else its company's, else None (:class:`kit.errors.UnknownVesselError`
+    for a vessel not in the database)."""
+    company = vessel_company(conn, vessel_id)
+    for scope, column, value in (("vessel", POLICIES.c.vessel_id, vessel_id), ("company", POLICIES.c.company_id, company)):
         if value is None:
             continue
         row = conn.execute(select(POLICIES).where(column == value, POLICIES.c.in_force_from <= on)

@@ -13,6 +13,7 @@ from collections import defaultdict
 from dataclasses import dataclass, field
 
 from kit import filters, oil, solas
+from kit.display_units import L_PER_M3 as M3_TO_L, PA_PER_BAR
 from kit.checks import CARRIER_PLACE, UnitChecks, check_unit
 from kit.oil import PackagePlan
 from kit.parts import PART_KINDS, LineItem, fmt_mm, part_key
@@ -22,7 +23,6 @@ from kit.spares import Policy, PolicyItem
 
 CARRIER_KINDS = ("carrier_seal_set", "carrier_bearing_parts")
 SERIES_NOTE = "series housing: check against the maker's drawing before ordering"
-M3_TO_L = 1000.0
 
 
 @dataclass(frozen=True)
@@ -124,10 +124,10 @@ def spare_lines(unit: Unit, policy: Policy, vessel_id: str) -> list[LineItem]:
         elif item.kind == "valve_seal_kit" and unit.valve_blocks:
             lines.append(_spare(unit, item, f"{unit.service} unit {unit.id}", item.quantity * unit.valve_blocks, f"{vessel_id}:{unit.id}"))
         elif item.kind == "relief_cartridge":
-            lines.append(_spare(unit, item, f"{unit.working_pressure / 1e5:g} bar", item.quantity, f"{vessel_id}:{unit.id}"))
+            lines.append(_spare(unit, item, f"{unit.working_pressure / PA_PER_BAR:g} bar", item.quantity, f"{vessel_id}:{unit.id}"))
         elif item.kind == "hose":
             for bore in sorted({h.bore for h in unit.hoses}):
-                lines.append(_spare(unit, item, f"bore {fmt_mm(bore * 1000)} mm, {unit.working_pressure / 1e5:g} bar working",
+                lines.append(_spare(unit, item, f"bore {fmt_mm(bore * 1000)} mm, {unit.working_pressure / PA_PER_BAR:g} bar working",
                                     item.quantity, f"{fmt_mm(bore * 1000)}mm"))
         elif item.kind == "pump_shaft_seal":
             model = unit.pump_model or f"pump of unit {unit.id} (model not stated)"

@@ -58,14 +58,6 @@ def each_text(value: Any, change: Callable[[str], Any]) -> Any:
     return change(value) if isinstance(value, str) else value
 
 
-def shown_on_terminal(value: Any) -> str:
-    """``value`` as text for a rich console: control characters replaced and markup escaped, so
-    stored text like ``[/b]`` is printed as it is rather than read as a style (or refused)."""
-    from rich.markup import escape
-
-    return escape(str(visible(value)))
-
-
 def is_risky(value: object) -> bool:
     return isinstance(value, str) and value.startswith(TRIGGERS)
 

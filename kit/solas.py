@@ -55,6 +55,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from kit.display_units import PA_PER_BAR
+
 SWING_FROM_RAD = math.radians(35.0)  # SOLAS II-1/29.3.2
 SWING_TO_RAD = math.radians(30.0)  # SOLAS II-1/29.3.2
 SWING_LIMIT_S = 28.0  # SOLAS II-1/29.3.2
@@ -158,7 +160,7 @@ def _deg(rad: float) -> str:
 
 
 def _bar(pa: float) -> str:
-    return f"{pa / 1e5:g} bar"
+    return f"{pa / PA_PER_BAR:g} bar"
 
 
 def _mm(m: float) -> str:

@@ -27,15 +27,15 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from sqlalchemy import and_, bindparam, or_, select, update
-from sqlalchemy.engine import Connection, Engine
+from sqlalchemy.engine import Connection
 
 from catalog_schema.conventions import DEFAULT_LOCATION
-from catalog_schema.core_tables import PARTS, STOCK, VESSELS
-from catalog_schema.engine import write_transaction
+from catalog_schema.core_tables import PARTS, STOCK
 from catalog_schema.refusals import located
 from catalog_schema.sql import upsert
 from kit.dates import iso_date
 from kit.errors import InputError
+from kit.fleet_store import vessel_company
 from kit.numbers import MAX_QUANTITY, DecimalMark, decimal_mark, number
 from kit.safe_text import CONTROL, NO_CONTROL
 from kit.sheets import Row, Sheet, Table, read_table
@@ -97,51 +97,60 @@ def _rows(table: Table, mode: str, mark: DecimalMark) -> list[tuple[Row, str, st
     return out
 
 
-def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count",
-                 decimal: str | None = None) -> StockReport:
-    """Write the stock rows of ``path`` for ``vessel_id`` in one transaction. ``decimal`` is the
-    decimal mark of the file's numbers ("point" or "comma"; None: by the file's kind)."""
+@dataclass(frozen=True)
+class StockFile:
+    """A stock file read and checked, ready to write: its table and each row's (row, part key,
+    location, quantity, counted_on)."""
+
+    table: Table
+    mode: str
+    rows: list[tuple[Row, str, str, float, dt.date | None]]
+
+
+def read_stock(path: str | Path, mode: str = "count", decimal: str | None = None) -> StockFile:
+    """The stock rows of ``path``, every cell checked. ``decimal`` is the decimal mark of the
+    file's numbers ("point" or "comma"; None: by the file's kind)."""
     if mode not in MODES:
         raise InputError(str(path), "--mode", "one of " + ", ".join(MODES), got=repr(mode))
     table = read_table(path, SHEET, known=COLUMNS, required=("part_key", "quantity"))
-    rows = _rows(table, mode, decimal_mark(table, decimal))
+    return StockFile(table, mode, _rows(table, mode, decimal_mark(table, decimal)))
 
-    def write(conn: Connection) -> StockReport:
-        if conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel_id)).first() is None:
-            raise InputError(str(path), "--vessel", "the id of a vessel in the database (kit load adds them)", got=repr(vessel_id))
-        keys = sorted({key for _, key, _, _, _ in rows})
-        known = dict(conn.execute(select(PARTS.c.key, PARTS.c.id).where(PARTS.c.key.in_(keys))).all()) if keys else {}
-        entries = []
-        for row, key, location, quantity, counted in rows:
-            if key not in known:
-                raise table.error(row, "part_key", "the key of a generic part in the database (see kit template stock)", key)
-            entries.append((row, {"vessel_id": vessel_id, "part_id": known[key], "location": location,
-                                  "quantity": quantity, "counted_on": counted}))
-        # One lock order for every writer, so two imports cannot deadlock each other.
-        entries.sort(key=lambda e: (e[1]["part_id"], e[1]["location"]))
-        values = [v for _, v in entries]
-        natural_key = ["vessel_id", "part_id", "location"]
 
-        def upsert_located(chosen: list[tuple[Row, dict]], statement) -> None:
-            """Run ``statement`` for the rows' values, naming the line of one the database refuses."""
-            located(conn, STOCK, (), [v for _, v in chosen], lambda c, some: c.execute(statement, list(some)),
-                    lambda i: table.where(chosen[i][0].line), {"vessel_id": "--vessel", "part_id": "part_key"})
+def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockReport:
+    """Write the checked rows for ``vessel_id`` in the caller's transaction."""
+    table, mode, rows = stock.table, stock.mode, stock.rows
+    vessel_company(conn, vessel_id)  # the vessel must exist
+    keys = sorted({key for _, key, _, _, _ in rows})
+    known = dict(conn.execute(select(PARTS.c.key, PARTS.c.id).where(PARTS.c.key.in_(keys))).all()) if keys else {}
+    entries = []
+    for row, key, location, quantity, counted in rows:
+        if key not in known:
+            raise table.error(row, "part_key", "the key of a generic part in the database (see kit template stock)", key)
+        entries.append((row, {"vessel_id": vessel_id, "part_id": known[key], "location": location,
+                              "quantity": quantity, "counted_on": counted}))
+    # One lock order for every writer, so two imports cannot deadlock each other.
+    entries.sort(key=lambda e: (e[1]["part_id"], e[1]["location"]))
+    values = [v for _, v in entries]
+    natural_key = ["vessel_id", "part_id", "location"]
 
-        if mode == "count":
-            upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
-            return StockReport(vessel_id, mode, len(values))
-        _refuse_negative(conn, table, vessel_id, entries)
-        # An issue only changes a row that exists (checked above). It cannot go through
-        # INSERT ... ON CONFLICT: both engines check the CHECK on the row proposed for insertion.
-        issues = [{"d": v["quantity"], "v": v["vessel_id"], "p": v["part_id"], "l": v["location"]} for v in values if v["quantity"] < 0]
-        upsert_located([(row, v) for row, v in entries if v["quantity"] >= 0], upsert(conn, STOCK, natural_key, add=["quantity"]))
-        if issues:
-            conn.execute(update(STOCK).where(STOCK.c.vessel_id == bindparam("v"), STOCK.c.part_id == bindparam("p"),
-                                             STOCK.c.location == bindparam("l"))
-                         .values(quantity=STOCK.c.quantity + bindparam("d")), issues)
+    def upsert_located(chosen: list[tuple[Row, dict]], statement) -> None:
+        """Run ``statement`` for the rows' values, naming the line of one the database refuses."""
+        located(conn, STOCK, (), [v for _, v in chosen], lambda c, some: c.execute(statement, list(some)),
+                lambda i: table.where(chosen[i][0].line), {"vessel_id": "--vessel", "part_id": "part_key"})
+
+    if mode == "count":
+        upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
         return StockReport(vessel_id, mode, len(values))
-
-    return write_transaction(engine, write)
+    _refuse_negative(conn, table, vessel_id, entries)
+    # An issue only changes a row that exists (checked above). It cannot go through
+    # INSERT ... ON CONFLICT: both engines check the CHECK on the row proposed for insertion.
+    issues = [{"d": v["quantity"], "v": v["vessel_id"], "p": v["part_id"], "l": v["location"]} for v in values if v["quantity"] < 0]
+    upsert_located([(row, v) for row, v in entries if v["quantity"] >= 0], upsert(conn, STOCK, natural_key, add=["quantity"]))
+    if issues:
+        conn.execute(update(STOCK).where(STOCK.c.vessel_id == bindparam("v"), STOCK.c.part_id == bindparam("p"),
+                                         STOCK.c.location == bindparam("l"))
+                     .values(quantity=STOCK.c.quantity + bindparam("d")), issues)
+    return StockReport(vessel_id, mode, len(values))
 
 
 def _refuse_negative(conn: Connection, table: Table, vessel_id: str, entries: list[tuple[Row, dict]]) -> None:
@@ -165,8 +174,7 @@ def stock_template(conn: Connection, vessel_id: str | None) -> Sheet:
     parts = conn.execute(select(PARTS.c.id, PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)).all()
     held: dict[int, list] = {}
     if vessel_id is not None:
-        if conn.execute(select(VESSELS.c.id).where(VESSELS.c.id == vessel_id)).first() is None:
-            raise InputError("--vessel", "vessel", "the id of a vessel in the database (kit load adds them)", got=repr(vessel_id))
+        vessel_company(conn, vessel_id)  # the vessel must exist
         for r in conn.execute(select(STOCK).where(STOCK.c.vessel_id == vessel_id).order_by(STOCK.c.location)):
             held.setdefault(r.part_id, []).append(r)
     rows = []

@@ -23,12 +23,11 @@ from openpyxl.styles import Alignment, Font, PatternFill
 from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.properties import PageSetupProperties
 
+from kit.display_units import L_MIN_PER_M3_S, L_PER_M3, PA_PER_BAR, US_GAL_PER_M3
 from kit.bom import Order
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.atomic import replace_atomically
-from kit.oil import L_PER_M3, US_GAL_PER_M3
 from kit.oil_grades import density_kg_per_l
-from kit.parts import fmt_mm
 from kit.report import seal_json
 from kit.safe_text import CONTROL, TRIGGERS, is_risky, visible
 from kit.seal_kit import mm
@@ -280,10 +279,10 @@ def _checks_sheet(wb: Workbook, order: Order) -> None:
                           s(c.swing_time_judged), c.judging_case, 28 if u.unit.is_steering else None,
                           yes[c.swing_rule_met], None if c.travel is None else round(c.travel * 1000),
                           None if c.stroke is None else round(c.stroke * 1000), yes[c.travel_ok],
-                          round(u.unit.working_pressure / 1e5, 1), yes[c.pressure_ok], " | ".join(u.warnings),
+                          round(u.unit.working_pressure / PA_PER_BAR, 1), yes[c.pressure_ok], " | ".join(u.warnings),
                           *_rudder_cells(c),
                           s(c.reachable_angle and math.degrees(c.reachable_angle)),
-                          s(c.pump_flow_needed and c.pump_flow_needed * 60000),
+                          s(c.pump_flow_needed and c.pump_flow_needed * L_MIN_PER_M3_S),
                           None if not u.unit.is_steering else {True: "yes", False: "no", None: "unless 29.6.1.3 shown"}[c.auxiliary_gear_required],
                           *rule_cells(c.rules)])
     sheet.finish()
@@ -294,7 +293,7 @@ def _rudder_cells(c) -> list:
     load = c.rudder_load
     k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
     return [c.torque_basis, k(load and load.torque_ahead), k(load and load.torque_astern), k(c.gear_torque_35),
-            None if c.gear_torque_pressure is None else round(c.gear_torque_pressure / 1e5, 1),
+            None if c.gear_torque_pressure is None else round(c.gear_torque_pressure / PA_PER_BAR, 1),
             None if c.rudder_margin is None else round(100 * c.rudder_margin, 1)]
 
 

@@ -14,7 +14,7 @@ import time
 
 from catalog_schema.engine import make_engine
 from kit.errors import KitError
-from kit.stock_import import import_stock
+from kit.services.imports import import_stock
 
 
 def main(url: str, file: str, vessel: str, mode: str, times: str, start_at: str) -> int:

@@ -6,7 +6,6 @@ from __future__ import annotations
 import subprocess
 import sys
 
-import click
 import pytest
 from click.testing import CliRunner
 

@@ -14,7 +14,8 @@ from sqlalchemy import select
 
 from catalog_schema.engine import write_transaction
 from db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtures)
-from kit.catalogue_import import COLUMNS, ENTRIES, import_catalogue
+from kit.catalogue_import import COLUMNS, ENTRIES
+from kit.services.imports import import_catalogue, import_stock
 from kit.cli import main
 from kit.errors import InputError
 from kit.fleet_store import save_vessels
@@ -22,7 +23,7 @@ from kit.parts import LineItem, part_key
 from kit.parts_store import register_parts
 from kit.particulars import load_vessel
 from kit.sheets import read_table
-from kit.stock_import import STOCK, import_stock
+from kit.stock_import import STOCK
 
 ROD_SEAL = part_key("rod_seal", {"d": 279.4, "D": 304.8, "L": 25.0}, "AU")
 O_RING = part_key("o_ring", {"id": 236.0, "cs": 5.3}, "NBR")

@@ -15,7 +15,7 @@ from sqlalchemy import inspect, text
 
 from catalog_schema.engine import make_engine
 from catalog_schema.errors import SchemaVersionError
-from catalog_schema.migrate import HEAD, current, require_current, upgrade
+from catalog_schema.migrate import HEAD, current, require_current
 from db_support import db_url, dump, engine  # noqa: F401  (fixtures)
 from kit.cli import main
 
@@ -82,7 +82,7 @@ def test_first_use_by_several_processes_at_once_builds_the_schema_once(db_url):
     procs = [subprocess.Popen([sys.executable, "-c", FIRST_USE, start_at, *args, "--db", db_url],
                               stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True) for args in PROCESSES]
     results = [(args, *p.communicate(timeout=120), p.returncode) for args, p in zip(PROCESSES, procs)]
-    for args, out, err, code in results:
+    for args, _out, err, code in results:
         assert (code, err) == (0, ""), f"kit {' '.join(args)}: {err}"
     upgrades = sorted(out for args, out, _, _ in results if args[1] == "upgrade")
     # one of them may have built it, or a "parts list" before them: each says where it is

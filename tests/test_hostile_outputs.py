@@ -205,7 +205,7 @@ def test_refused_before_any_work(fleet, tmp_path, monkeypatch):
     def no_work(*args, **kwargs):
         raise AssertionError("the order was built before the outputs were checked")
 
-    monkeypatch.setattr("kit.fleet_orders.build_order", no_work)
+    monkeypatch.setattr("kit.services.orders.build_order", no_work)
     fifo = tmp_path / "order.csv"
     os.mkfifo(fifo)
     refused(fleet, ["bom", "--out", tmp_path / "order.xlsx", "--csv", fifo, "--db", db], tmp_path,

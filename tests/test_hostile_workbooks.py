@@ -10,7 +10,6 @@ from __future__ import annotations
 import resource
 import subprocess
 import sys
-import zipfile
 from pathlib import Path
 
 import pytest

@@ -10,7 +10,7 @@ import pytest
 from fluids.piping import nearest_pipe
 
 from engine_helpers import ram_unit, unit
-from kit import oil, solas
+from kit import display_units, oil, solas
 from kit.oil import Package, plan_packages
 from kit.oil_grades import ISO_3448_GRADES, density_kg_per_l, viscosity_limits
 from kit.particulars import Pipe
@@ -90,7 +90,7 @@ def test_negative_need_is_refused():
 def test_us_gallon_is_nist():
     # NIST SP 811, appendix B: 1 US gallon = 3.785411784 L, checked with pint.
     assert UREG.Quantity(1, "gallon").to("liter").magnitude == pytest.approx(3.785411784, rel=1e-12)
-    assert oil.US_GAL_PER_M3 == pytest.approx(UREG.Quantity(1, "m**3").to("gallon").magnitude, rel=1e-12)
+    assert display_units.US_GAL_PER_M3 == pytest.approx(UREG.Quantity(1, "m**3").to("gallon").magnitude, rel=1e-12)
 
 
 def test_kilograms_via_density():

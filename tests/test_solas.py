@@ -178,7 +178,7 @@ def test_single_failure_isolable_only_with_isolation_valves():
 def test_two_identical_power_units_clause(ship_type, gt, pumps, valves, verdict):
     c = judged(ship_type, pumps, 120, gt=gt, isolation_valves=valves)
     assert rule(c, "29.16.1").verdict == verdict
-    assert (f"SOLAS II-1/29.16.1 not met:" in " ".join(c.warnings)) is (verdict == "not met")
+    assert ("SOLAS II-1/29.16.1 not met:" in " ".join(c.warnings)) is (verdict == "not met")
 
 
 def test_unreachable_35_deg_fails_29_3_2_however_fast():

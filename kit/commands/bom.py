@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import Days, db_option
 
 
@@ -33,12 +33,13 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
 
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
-    from kit.fleet_orders import build_order
+    from kit.commands.terminal import progress_bar
     from kit.output_targets import check_outputs
+    from kit.services.orders import build_order
     from kit.workbook import write_workbook
 
     check_outputs({"--out": out, "--csv": csv_out, "--json": json_out})
-    order, scope = build_order(engine, vessel_ids, days, particulars, policy_file)
+    order, scope = build_order(engine, vessel_ids, days, particulars, policy_file, progress_bar)
     path = write_workbook(order, out, days, scope)
     written = [str(path)]
     if csv_out:

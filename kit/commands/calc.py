@@ -7,7 +7,7 @@ import json
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import Days, reports_errors
 
 
@@ -27,16 +27,16 @@ def calc(particulars: str, days: float, policy_file: str | None, as_json: bool) 
 
     Example: kit calc demo_fleet/corvina_bay.toml --days 90 --json
     """
-    from kit.particulars import load_vessel
-    from kit.report import render, vessel_json
-    from kit.requirements import assess_vessel
-    from kit.spares import load_policy
+    from kit.services.fleet import work_out
 
-    vessel = load_vessel(particulars)
-    result = assess_vessel(vessel, days, load_policy(policy_file))
+    result = work_out(particulars, days, policy_file)
     if as_json:
+        from kit.report import vessel_json
+
         click.echo(json.dumps(vessel_json(result), indent=2))
         return
     from rich.console import Console
+
+    from kit.commands.terminal import render
 
     render(result, Console())

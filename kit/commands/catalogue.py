@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import db_option, decimal_mark_option
 
 
@@ -36,7 +36,7 @@ def import_(engine, file: str, supplier: str, show_unmatched: int, decimal: str 
 
     Example: kit catalogue import northwind_seals.csv --supplier "Northwind Seals"
     """
-    from kit.catalogue_import import import_catalogue
+    from kit.services.imports import import_catalogue
 
     report = import_catalogue(engine, file, supplier, decimal)
     click.echo(f"{report.supplier}: {report.rows} row(s), {report.matched} matched a generic part, "

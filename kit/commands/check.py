@@ -7,7 +7,7 @@ import sys
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import Days, db_option
 
 
@@ -30,22 +30,14 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     Example: kit check CORVINA-BAY --days 120 --out corvina-shortfall.xlsx
     """
     from rich.console import Console
-    from rich.table import Table
 
-    from kit.fleet_orders import load_fleet, vessel_policies
-    from kit.order_sources import catalogue_offers, stock_on_board
+    from kit.commands.terminal import shortfall_table, shown
     from kit.output_targets import check_outputs
-    from kit.preflight import preflight_order
-    from kit.requirements import assess_vessel
-    from kit.safe_text import shown_on_terminal as shown
+    from kit.services.orders import check_voyage
 
     check_outputs({"--out": out})
-    (vessel,) = load_fleet(engine, [vessel_id])
-    result = assess_vessel(vessel, days, vessel_policies(engine, [vessel.id], policy_file)[vessel.id])
-    with engine.connect() as conn:
-        on_board = stock_on_board(conn, [vessel.id])
-        offers = catalogue_offers(conn, {li.key for li in result.lines})
-    short = preflight_order(result, on_board, offers)
+    check = check_voyage(engine, vessel_id, days, policy_file)
+    vessel, short = check.vessel, check.short
     console = Console()
     if out:
         from kit.workbook import write_workbook
@@ -56,14 +48,7 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
         if out:
             console.print(f"wrote {shown(out)}")
         return
-    table = Table(title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage", title_justify="left")
-    for col in ("no", "designation", "required", "on board", "short", "uom", "basis"):
-        table.add_column(col, justify="right" if col in ("no", "required", "on board", "short") else "left")
-    for line in short.lines:
-        nd = 1 if line.uom == "L" else 0
-        table.add_row(str(line.number), shown(line.designation), f"{line.required:.{nd}f}", f"{line.on_board:.{nd}f}",
-                      f"{line.to_order:.{nd}f}", shown(line.uom), shown(line.basis))
-    console.print(table)
+    console.print(shortfall_table(check))
     if out:
         console.print(f"wrote {shown(out)}")
     sys.exit(1)

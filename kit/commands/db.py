@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import db_option
 
 
@@ -28,9 +28,9 @@ def upgrade(engine, revision: str) -> None:
 
     Example: kit db upgrade --db postgresql+psycopg://kit@db.office/fleet
     """
-    from catalog_schema.migrate import upgrade as run
+    from kit.services.database import upgrade_database
 
-    before, after = run(engine, revision)
+    before, after = upgrade_database(engine, revision)
     click.echo(f"schema at revision {after}" + ("" if before == after else f" (was {before or 'empty'})"))
 
 
@@ -41,18 +41,12 @@ def status(engine) -> None:
 
     Example: kit db status
     """
-    from sqlalchemy import func, inspect, select
-
     from catalog_schema.engine import shown
-    from catalog_schema.migrate import current, head, is_newer
-    from catalog_schema.core_tables import metadata
+    from kit.services.database import database_status
 
-    found = current(engine)
+    found = database_status(engine)
     click.echo(f"database: {shown(str(engine.url))}")
-    newer = " (newer than this kit)" if is_newer(found) else ""
-    click.echo(f"revision: {found or 'none (empty database)'}{newer}; this kit's newest: {head()}")
-    present = set(inspect(engine).get_table_names())
-    with engine.connect() as conn:
-        for table in metadata.sorted_tables:
-            if table.name in present:
-                click.echo(f"  {table.name:<18} {conn.execute(select(func.count()).select_from(table)).scalar_one():>8}")
+    newer = " (newer than this kit)" if found.newer else ""
+    click.echo(f"revision: {found.revision or 'none (empty database)'}{newer}; this kit's newest: {found.head}")
+    for name, rows in found.tables:
+        click.echo(f"  {name:<18} {rows:>8}")

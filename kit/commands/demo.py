@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import Days, reports_errors
 
 
@@ -26,7 +26,7 @@ def demo(out, days, check_days) -> None:
     """
     from pathlib import Path
 
-    from kit.demo import build_demo
+    from kit.services.demo import build_demo
 
     result = build_demo(Path(out), days, check_days)
     click.echo(f"demo fleet: {result.vessels} vessels, {result.order_lines} order lines")

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import db_option
 
 
@@ -22,20 +22,7 @@ def load(engine, path: str) -> None:
 
     Example: kit load demo_fleet/
     """
-    from pathlib import Path
+    from kit.services.fleet import load_particulars
 
-    from catalog_schema.engine import write_transaction
-    from kit.fleet_store import save_vessels
-    from kit.particulars import load_folder, load_vessel
-
-    target = Path(path)
-    if target.is_dir():
-        vessels = load_folder(target)
-    elif target.suffix.lower() == ".xlsx":
-        from kit.particulars_sheet import load_particulars_sheet
-
-        vessels = [load_particulars_sheet(target)]
-    else:
-        vessels = [load_vessel(target)]
-    ids = write_transaction(engine, lambda conn: save_vessels(conn, vessels))
+    ids = load_particulars(engine, path)
     click.echo(f"loaded {len(ids)} vessel(s): {', '.join(ids)}")

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import db_option
 
 
@@ -27,15 +27,11 @@ def register(engine, vessel_ids: tuple[str, ...], policy_file: str | None) -> No
 
     Example: kit parts register --vessel CORVINA-BAY
     """
-    from catalog_schema.engine import write_transaction
-    from kit.fleet_orders import assess_all, load_fleet, vessel_policies
-    from kit.parts_store import register_parts
+    from kit.commands.terminal import progress_bar
+    from kit.services.fleet import register_parts
 
-    vessels = load_fleet(engine, vessel_ids)
-    policies = vessel_policies(engine, [v.id for v in vessels], policy_file)
-    items = [line for r in assess_all(vessels, 0.0, policies) for line in r.lines]
-    done = write_transaction(engine, lambda conn: register_parts(conn, items))
-    click.echo(f"{done.parts} generic part(s) for {len(vessels)} vessel(s) are in the database; "
+    done = register_parts(engine, vessel_ids, policy_file, progress_bar)
+    click.echo(f"{done.parts} generic part(s) for {done.vessels} vessel(s) are in the database; "
                f"{done.entries_matched} catalogue entr{'y' if done.entries_matched == 1 else 'ies'} matched one of them only now")
 
 
@@ -47,14 +43,8 @@ def list_(engine, kind: str | None) -> None:
 
     Example: kit parts list --kind o_ring
     """
-    from sqlalchemy import select
-
-    from kit.parts_store import PARTS
     from kit.safe_text import visible
+    from kit.services.fleet import list_parts
 
-    query = select(PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)
-    if kind:
-        query = query.where(PARTS.c.kind == kind)
-    with engine.connect() as conn:
-        for key, designation in conn.execute(query):
-            click.echo(f"{visible(key)}\t{visible(designation)}")
+    for key, designation in list_parts(engine, kind):
+        click.echo(f"{visible(key)}\t{visible(designation)}")

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import Days, IsoDate, db_option
 
 
@@ -34,14 +34,10 @@ def set_(engine, company, vessel, name, cover_days, in_force_from, note, policy_
 
     Example: kit policy set --company "Marrowgate Ship Management Ltd" --name fleet-2025 --days 90 --from 2025-01-01 --file company-policy.toml
     """
-    from catalog_schema.engine import write_transaction
-    from kit.policy_store import set_policy
-    from kit.spares import read_policy_text
+    from kit.services.policies import set_policy
 
-    content = read_policy_text(policy_file) if policy_file else None
-    write_transaction(engine, lambda conn: set_policy(conn, name=name, cover_days=cover_days, in_force_from=in_force_from,
-                                                      company=company, vessel=vessel, note=note,
-                                                      content=content, content_source=str(policy_file)))
+    set_policy(engine, name=name, cover_days=cover_days, in_force_from=in_force_from, company=company, vessel=vessel,
+               note=note, policy_file=policy_file)
     click.echo(f"policy {name} in force from {in_force_from.isoformat()} for {company or vessel}")
 
 
@@ -55,16 +51,11 @@ def show(engine, vessel, on) -> None:
 
     Example: kit policy show --vessel CORVINA-BAY --on 2025-06-30
     """
-    import datetime as dt
-
-    from kit.policy_store import policy_in_force
     from kit.safe_text import visible
-    from kit.spares import load_policy
+    from kit.services.policies import show_policy
 
-    day = on or dt.date.today()
-    with engine.connect() as conn:
-        found = policy_in_force(conn, vessel, day)
-    rules = load_policy() if found is None else found.policy()  # checked before anything is printed
+    shown = show_policy(engine, vessel, on)  # the policy checked before anything is printed
+    found, rules, day = shown.record, shown.rules, shown.on
     if found is None:
         click.echo(visible(f"{vessel}: no spares policy in force on {day.isoformat()}"))
     else:

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import db_option, decimal_mark_option
 
 
@@ -34,7 +34,7 @@ def import_(engine, file: str, vessel: str, mode: str, decimal: str | None) -> N
 
     Example: kit stock import receipts.csv --vessel CORVINA-BAY --mode adjust
     """
-    from kit.stock_import import import_stock
+    from kit.services.imports import import_stock
 
     report = import_stock(engine, file, vessel, mode, decimal)
     click.echo(f"{report.vessel}: {report.rows} stock row(s) written ({report.mode})")

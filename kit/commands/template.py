@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import click
 
-from kit.cli import SAFETY
+from kit.safety import SAFETY
 from kit.commands.common import db_option, reports_errors
 
 
@@ -27,7 +27,7 @@ def particulars(out: str, from_toml: str | None) -> None:
     Example: kit template particulars corvina.xlsx --from demo_fleet/corvina_bay.toml
     """
     from kit.output_targets import check_outputs
-    from kit.particulars_sheet import write_particulars_template
+    from kit.services.templates import write_particulars_template
 
     check_outputs({"OUT": out})
     if not out.lower().endswith(".xlsx"):
@@ -48,14 +48,11 @@ def stock_(engine, out: str, vessel: str | None) -> None:
     Example: kit template stock corvina_count.xlsx --vessel CORVINA-BAY
     """
     from kit.output_targets import check_outputs
-    from kit.sheets import write_sheet
-    from kit.stock_import import stock_template
+    from kit.services.templates import write_stock_template
 
     check_outputs({"OUT": out})
-    with engine.connect() as conn:
-        sheet = stock_template(conn, vessel)
-    write_sheet(out, sheet)
-    click.echo(f"wrote {out} ({len(sheet.rows)} part row(s))")
+    rows = write_stock_template(engine, out, vessel)
+    click.echo(f"wrote {out} ({rows} part row(s))")
 
 
 @template.command("catalogue", epilog=SAFETY)
@@ -66,10 +63,9 @@ def catalogue_(out: str) -> None:
 
     Example: kit template catalogue northwind.xlsx
     """
-    from kit.catalogue_import import COLUMNS, NOTES, SHEET
     from kit.output_targets import check_outputs
-    from kit.sheets import Sheet, write_sheet
+    from kit.services.templates import write_catalogue_template
 
     check_outputs({"OUT": out})
-    write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES))
+    write_catalogue_template(out)
     click.echo(f"wrote {out}")

@@ -2,8 +2,8 @@
 """The demo: a throwaway fleet database built from ``demo_fleet/``, with invented stock and an
 invented supplier catalogue, then the fleet's bill of materials and one vessel's pre-voyage check.
 
-Everything goes through the same imports a user runs (particulars, parts, catalogue CSV, stock
-CSV), so the demo exercises the real paths. The stock and the catalogue are invented here by a
+Everything goes through the services a user's commands call (particulars, parts, catalogue CSV,
+stock CSV, the order, the check), so the demo exercises the real paths. The stock and the catalogue are invented here by a
 fixed rule so the demo is the same every run: most parts fully on board, some short, filter
 elements and oil below what a long voyage needs.
 """
@@ -31,7 +31,7 @@ class DemoOutput:
 
 def demo_fleet_folder() -> Path:
     """``demo_fleet/`` beside the package (a source checkout, as the README installs it)."""
-    return Path(__file__).resolve().parents[1] / "demo_fleet"
+    return Path(__file__).resolve().parents[2] / "demo_fleet"
 
 
 def _invented_stock(lines, index_seed: int) -> list[dict]:
@@ -72,36 +72,32 @@ def _write_csv(path: Path, rows: list[dict]) -> None:
 
 def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
     """Build the demo in ``out`` and return where everything is. ``out`` must be new, empty, or a
-    folder an earlier demo made (:func:`kit.output_targets.make_demo_folder`), which is replaced."""
-    from catalog_schema.engine import make_engine, write_transaction
-    from catalog_schema.migrate import upgrade
-    from kit.bom import consolidate
-    from kit.catalogue_import import import_catalogue
-    from kit.fleet_store import read_vessels, save_vessels
-    from kit.order_sources import catalogue_offers, stock_on_board
+    folder an earlier demo made (:func:`kit.output_targets.make_demo_folder`), which is replaced.
+    Every step is the service a user's command calls."""
+    from catalog_schema.engine import make_engine
     from kit.output_targets import check_demo_folder, make_demo_folder, record_demo_folder
-    from kit.particulars import load_folder
-    from kit.parts_store import register_parts
-    from kit.preflight import preflight_order
     from kit.requirements import assess_vessel
+    from kit.services.database import upgrade_database
+    from kit.services.fleet import load_particulars, read_particulars, register_parts
+    from kit.services.imports import import_catalogue, import_stock
+    from kit.services.orders import build_order, check_voyage
     from kit.spares import load_policy
-    from kit.stock_import import import_stock
     from kit.workbook import write_workbook
 
     check_demo_folder(out)  # before any work
     fleet = fleet or demo_fleet_folder()
-    vessels = load_folder(fleet)
+    vessels = read_particulars(fleet)  # every file checked before the folder is made
     make_demo_folder(out)
     (out / "imports").mkdir()
     database = out / "fleet.sqlite"
     engine = make_engine(f"sqlite:///{database}")
     try:
-        upgrade(engine)
-        write_transaction(engine, lambda conn: save_vessels(conn, vessels))
+        upgrade_database(engine)
+        load_particulars(engine, fleet)
         policy = load_policy()
-        results = {v.id: assess_vessel(v, days, policy) for v in vessels}
+        results = {v.id: assess_vessel(v, days, policy) for v in vessels}  # what the invented files are made from
         all_lines = [li for r in results.values() for li in r.lines]
-        write_transaction(engine, lambda conn: register_parts(conn, all_lines))
+        register_parts(engine, days=days)
         catalogue_csv = out / "imports" / "catalogue.csv"
         _write_csv(catalogue_csv, _invented_catalogue(all_lines))
         import_catalogue(engine, catalogue_csv, DEMO_SUPPLIER)
@@ -109,18 +105,13 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
             stock_csv = out / "imports" / f"stock-{v.id.lower()}.csv"
             _write_csv(stock_csv, _invented_stock(results[v.id].lines, i))
             import_stock(engine, stock_csv, v.id)
-        with engine.connect() as conn:
-            stored = read_vessels(conn)
-            ids = [v.id for v in stored]
-            on_board = stock_on_board(conn, ids)
-            offers = catalogue_offers(conn)
-        order = consolidate([assess_vessel(v, days, policy) for v in stored], on_board, offers)
-        workbook = write_workbook(order, out / "fleet-bom.xlsx", days, f"whole fleet, {len(stored)} vessels")
-        check_vessel = next(v for v in stored if v.id == CHECK_VESSEL) if CHECK_VESSEL in ids else stored[0]
-        check = preflight_order(assess_vessel(check_vessel, check_days, policy), on_board, offers)
-        check_workbook = write_workbook(check, out / f"{check_vessel.id.lower()}-voyage-check.xlsx", check_days,
-                                        f"pre-voyage check of {check_vessel.name}: shortfall for {check_days:g} days")
+        order, _ = build_order(engine, (), days)
+        ids = order.vessel_ids
+        workbook = write_workbook(order, out / "fleet-bom.xlsx", days, f"whole fleet, {len(ids)} vessels")
+        check = check_voyage(engine, CHECK_VESSEL if CHECK_VESSEL in ids else ids[0], check_days)
+        check_workbook = write_workbook(check.short, out / f"{check.vessel.id.lower()}-voyage-check.xlsx", check_days,
+                                        f"pre-voyage check of {check.vessel.name}: shortfall for {check_days:g} days")
     finally:
         engine.dispose()
         record_demo_folder(out)  # even after a failure: all it holds is kit's, as it was new or emptied
-    return DemoOutput(out, database, workbook, check_workbook, len(vessels), len(order.lines), len(check.lines))
+    return DemoOutput(out, database, workbook, check_workbook, len(vessels), len(order.lines), len(check.short.lines))

@@ -1,0 +1,128 @@
+# SPDX-License-Identifier: MIT
+"""What the command line draws on a terminal (rich): the readable report of ``kit calc``, the
+shortfall table of ``kit check``, progress bars; and stored text made safe to print there.
+The library below knows nothing of terminals; only the commands import this."""
+
+from __future__ import annotations
+
+import math
+import sys
+from typing import Any, Iterable
+
+VERDICT_STYLE = {"met": "[green]{}[/green]", "not met": "[red]NOT MET[/red]", "not shown": "[yellow]{}[/yellow]"}
+
+
+def shown(value: Any) -> str:
+    """``value`` as text for a rich console: control characters replaced and markup escaped, so
+    stored text like ``[/b]`` is printed as it is rather than read as a style (or refused)."""
+    from rich.markup import escape
+
+    from kit.safe_text import visible
+
+    return escape(str(visible(value)))
+
+
+def progress_bar(items: list, label: str) -> Iterable:
+    """Yield ``items``, with a progress bar on stderr when it is a terminal and the work is long
+    (the ``progress`` wrapper the services take, see :mod:`kit.services`)."""
+    if len(items) < 5 or not sys.stderr.isatty():
+        yield from items
+        return
+    from rich.console import Console
+    from rich.progress import track
+
+    yield from track(items, description=label, console=Console(stderr=True), transient=True)
+
+
+def shortfall_table(check) -> Any:
+    """The rich table of a :class:`kit.services.orders.VoyageCheck` with lines short."""
+    from rich.table import Table
+
+    vessel, days = check.vessel, check.days
+    table = Table(title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage", title_justify="left")
+    for col in ("no", "designation", "required", "on board", "short", "uom", "basis"):
+        table.add_column(col, justify="right" if col in ("no", "required", "on board", "short") else "left")
+    for line in check.short.lines:
+        nd = 1 if line.uom == "L" else 0
+        table.add_row(str(line.number), shown(line.designation), f"{line.required:.{nd}f}", f"{line.on_board:.{nd}f}",
+                      f"{line.to_order:.{nd}f}", shown(line.uom), shown(line.basis))
+    return table
+
+
+def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:
+    if x is None or (isinstance(x, float) and math.isnan(x)):
+        return "-"
+    return f"{x:,.{nd}f}{unit}"
+
+
+def render(r, console) -> None:
+    """Print the readable report of ``r`` on a rich ``console``."""
+    from rich.table import Table
+
+    from kit.report import vessel_json
+    from kit.safe_text import each_text
+
+    data = each_text(vessel_json(r), shown)  # text from files as it is: no markup, no control characters
+    v = data["vessel"]
+    console.print(f"[bold]{v['name']}[/bold] ({v['id']}), {v['ship_type']}, {v['gross_tonnage']:,.0f} GT"
+                  f" -- period {r.days:g} days -- spares policy: {data['policy']}")
+    for u in data["units"]:
+        t = Table(title=f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}", title_justify="left")
+        t.add_column("check")
+        t.add_column("value", justify="right")
+        t.add_column("against")
+        if u["torque_knm"]["midships"] is not None:
+            t.add_row("torque at relief setting, midships", _fmt(u["torque_knm"]["midships"], " kNm"), "")
+            t.add_row("torque at relief setting, max angle (least of both directions)", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
+            s = u["swing_time_s"]
+            t.add_row("swing 35 deg to 30 deg, one pump", _fmt(s["one_pump"], " s"), "")
+            t.add_row("swing 35 deg to 30 deg, all pumps", _fmt(s["all_pumps"], " s"), "")
+            verdict = "[green]met[/green]" if u["swing_rule_met"] else "[red]NOT MET[/red]"
+            t.add_row("swing time judged", _fmt(s["judged"], " s"), f"28 s, {u['swing_rule_case']}: {verdict}")
+            t.add_row("torque basis", "", u["torque_basis"] or "")
+        if u["rudder_torque_knm"] is not None:
+            q = u["rudder_torque_knm"]
+            t.add_row("rudder torque ahead / astern", f"{_fmt(q['ahead'])} / {_fmt(q['astern'])} kNm", "classification-rule formula")
+            short = u["rudder_torque_margin_pct"] < 0
+            t.add_row(f"gear torque at 35 deg, {u['gear_torque_pressure_bar']:g} bar", _fmt(u["gear_torque_35_knm"], " kNm"),
+                      f"margin {u['rudder_torque_margin_pct']:+.1f} %: " + ("[red]SHORT[/red]" if short else "[green]enough[/green]"))
+            t.add_row("rudder angle reachable each side", _fmt(u["reachable_angle_deg"], " deg"), "35 deg (SOLAS II-1/29.3.2)")
+            t.add_row("pump flow needed each, judged case", _fmt(u["pump_flow_needed_l_min"], " L/min"), "for 28 s")
+        if u["travel_mm"] is not None:
+            t.add_row("travel between hard-over angles", _fmt(u["travel_mm"], " mm", 0), f"stroke {_fmt(u['stroke_mm'], ' mm', 0)}")
+        t.add_row("system charge", _fmt(u["system_oil_l"], " L"), u["system_oil_basis"])
+        if u["storage_tank_min_l"] is not None:
+            t.add_row("storage tank minimum", _fmt(u["storage_tank_min_l"], " L"), "SOLAS II-1/29.12.3")
+        t.add_row("top-up for the period", _fmt(u["top_up_l"], " L", 2), "leakage rate x period")
+        console.print(t)
+        if u["rules"]:
+            rules = Table(title=f"SOLAS II-1/29 verdicts of unit {u['id']}", title_justify="left")
+            for col in ("clause", "verdict", "judged on"):
+                rules.add_column(col)
+            for rule in u["rules"]:
+                rules.add_row(rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"])
+            console.print(rules)
+        seals = Table(title=f"Seal kit of unit {u['id']} (per unit)", title_justify="left")
+        for col in ("role", "part", "d mm", "D mm", "L mm", "qty", "compound", "from"):
+            seals.add_column(col, justify="right" if col.endswith("mm") or col == "qty" else "left")
+        for s in u["seals"]:
+            seals.add_row(s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
+                          str(s["qty"]), s["compound"], s["origin"])
+        console.print(seals)
+        for line in u["inspections"]:
+            console.print(f"inspect {u['id']}: {line}")
+        for w in u["warnings"]:
+            console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
+    lines = Table(title="Requirement list (to keep on board)", title_justify="left")
+    for col in ("unit", "designation", "standard", "compound", "qty", "uom", "basis"):
+        lines.add_column(col, justify="right" if col == "qty" else "left")
+    for li in data["lines"]:
+        lines.add_row(li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
+                      li["uom"], li["basis"])
+    console.print(lines)
+    for o in data["oil"]:
+        packs = ", ".join(f"{p['count']} x {p['name']} ({p['volume_l']:g} L)" for p in o["packages"]) or "none"
+        console.print(f"oil {o['fluid']}: need {o['need_l']:,.1f} L = {o['need_kg']:,.1f} kg = {o['need_us_gal']:,.1f} US gal;"
+                      f" buy {packs} = {o['supply_l']:,.1f} L")
+    console.print("[dim]Series housings and O-rings are to be checked against the maker's drawing before ordering. "
+                  "Table rows marked 'from memory' in kit/data are not confirmed from the standard's text.[/dim]")

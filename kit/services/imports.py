@@ -1,0 +1,30 @@
+# SPDX-License-Identifier: MIT
+"""Imports into the fleet database: a supplier's catalogue, a vessel's stock. Each file is read
+and checked whole before the transaction opens, then written all or nothing."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from sqlalchemy.engine import Engine
+
+
+def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None):
+    """Replace ``supplier``'s catalogue by the rows of ``path``: a
+    :class:`kit.catalogue_import.CatalogueReport` listing what matched no generic part.
+    ``decimal`` is the decimal mark of the file's numbers ("point", "comma"; None: by the file's kind)."""
+    from catalog_schema.engine import write_transaction
+    from kit.catalogue_import import read_catalogue, write_catalogue
+
+    catalogue = read_catalogue(path, supplier, decimal)
+    return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
+
+
+def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count", decimal: str | None = None):
+    """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
+    :class:`kit.stock_import.StockReport`."""
+    from catalog_schema.engine import write_transaction
+    from kit.stock_import import read_stock, write_stock
+
+    stock = read_stock(path, mode, decimal)
+    return write_transaction(engine, lambda conn: write_stock(conn, stock, vessel_id))
