@@ -14,7 +14,7 @@ from click.testing import CliRunner
 
 from db_support import TOML_CYLINDER
 from kit.engine.bom import CatalogueMatch, consolidate
-from kit.files.bom_export import write_csv as write_order_csv
+from kit.files.bom_export import write_order_csv
 from kit.cli import main
 from kit.engine.particulars import load_vessel
 from kit.engine.requirements import assess_vessel

@@ -43,9 +43,9 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     path = write_workbook(order, out, days, scope)
     written = [str(path)]
     if csv_out:
-        from kit.files.bom_export import write_csv
+        from kit.files.bom_export import write_order_csv
 
-        written.append(str(write_csv(order, csv_out)))
+        written.append(str(write_order_csv(order, csv_out)))
     if json_out:
         from kit.files.bom_export import write_json
 

@@ -7,15 +7,14 @@ file is written to a temporary name and renamed into place.
 
 from __future__ import annotations
 
-import csv
-import io
 import json
 from pathlib import Path
 from typing import Any
 
 from kit.files.atomic import replace_atomically
 from kit.engine.bom import Order
-from kit.files.safe_text import csv_field, each_text, visible
+from kit.files.safe_text import each_text, visible
+from kit.files.sheets import write_csv
 
 FIELDS = ("number", "designation", "standard", "compound", "required", "on_board", "to_order", "uom", "pack_size",
           "packs", "supplier", "supplier_part_number", "price_per_pack", "currency", "line_total", "lead_time_days",
@@ -38,14 +37,13 @@ def order_records(order: Order) -> list[dict[str, Any]]:
     return out
 
 
-def write_csv(order: Order, path: str | Path) -> Path:
-    buf = io.StringIO()
-    writer = csv.writer(buf)
-    writer.writerow(FIELDS)
+def write_order_csv(order: Order, path: str | Path) -> Path:
+    """The order's lines as CSV, one row per line, the vessels' split in one cell."""
+    rows = []
     for rec in order_records(order):
         rec["vessels"] = "; ".join(f"{v}: {q:g}" for v, q in rec["vessels"].items())
-        writer.writerow([csv_field(rec[f]) for f in FIELDS])
-    return replace_atomically(Path(path), lambda tmp: tmp.write_text(buf.getvalue(), encoding="utf-8"))
+        rows.append([rec[f] for f in FIELDS])
+    return write_csv(path, FIELDS, rows)
 
 
 def write_json(order: Order, path: str | Path, days: float) -> Path:

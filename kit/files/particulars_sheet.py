@@ -28,7 +28,7 @@ from kit.errors import InputError
 from kit.files.input_files import TOML_PARTICULARS, read_text
 from kit.engine.particulars import Vessel, vessel_from_dict
 from kit.engine.rudder import POSITION_K3, PROFILE_K2
-from kit.files.sheets import Sheet, read_sheets, write_workbook
+from kit.files.sheets import Sheet, read_sheets, write_sheets
 from kit.files.toml_text import parse_toml
 
 VESSEL_FIELDS = ("id", "name", "ship_type", "gross_tonnage", "company")
@@ -102,7 +102,7 @@ def write_particulars_template(path: str | Path, from_toml: str | Path | None = 
     if from_toml is not None:
         document = parse_toml(read_text(from_toml, TOML_PARTICULARS), str(from_toml))
         vessel_from_dict(document, str(from_toml))  # refuse a bad file before writing anything
-    write_workbook(path, particulars_sheets(document))
+    write_sheets(path, particulars_sheets(document))
 
 
 def _cell(value: Any) -> Any:

@@ -310,7 +310,7 @@ class Sheet:
     notes: dict[str, str] | None = None
 
 
-def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
+def write_sheets(path: str | Path, sheets: Sequence[Sheet]) -> None:
     """Write an .xlsx with one sheet per :class:`Sheet` plus a ``notes`` sheet explaining columns."""
     from openpyxl import Workbook
     from openpyxl.styles import Font
@@ -348,14 +348,15 @@ def write_workbook(path: str | Path, sheets: Sequence[Sheet]) -> None:
     replace_atomically(Path(path), write)
 
 
-def write_csv(path: str | Path, columns: Sequence[str], rows: Sequence[Sequence[Any]] = ()) -> None:
+def write_csv(path: str | Path, columns: Sequence[str], rows: Iterable[Sequence[Any]] = ()) -> Path:
+    """A CSV file: a header row, then the rows, each value made formula-safe; written whole or not at all."""
     def write(tmp: Path) -> None:
         with tmp.open("w", newline="", encoding="utf-8") as f:
             out = csv.writer(f)
             out.writerow(columns)
             out.writerows([csv_field(v) for v in row] for row in rows)
 
-    replace_atomically(Path(path), write)
+    return replace_atomically(Path(path), write)
 
 
 def write_sheet(path: str | Path, sheet: Sheet) -> None:
@@ -365,6 +366,6 @@ def write_sheet(path: str | Path, sheet: Sheet) -> None:
     if suffix == ".csv":
         write_csv(path, sheet.columns, sheet.rows)
     elif suffix == ".xlsx":
-        write_workbook(path, [sheet])
+        write_sheets(path, [sheet])
     else:
         raise InputError(str(path), "output file", "a name ending in .xlsx or .csv", got=repr(path.suffix or "no suffix"))

@@ -310,7 +310,7 @@ def _long(sheet: _Sheet, item: str, text: str, header: bool = False) -> None:
         sheet.append([item if i == 0 else None, part], header=header and i == 0)
 
 
-def policies_in_force(order: Order) -> list[tuple[str, list[str]]]:
+def policy_groups(order: Order) -> list[tuple[str, list[str]]]:
     """One entry per distinct spares policy of the order, first vessel's first: "name (source)"
     and the ids of the vessels worked out under it."""
     found: dict[str, list[str]] = {}
@@ -321,7 +321,7 @@ def policies_in_force(order: Order) -> list[tuple[str, list[str]]]:
 
 def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False)
-    policies = policies_in_force(order)
+    policies = policy_groups(order)
     sheet.append(["Bill of materials: steering gear and hydraulic spares"], header=True)
     sheet.append(["Scope", scope])
     if len(order.results) <= MAX_VESSELS_LISTED:

@@ -10,7 +10,6 @@ elements and oil below what a long voyage needs.
 
 from __future__ import annotations
 
-import csv
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -64,10 +63,9 @@ def _invented_catalogue(lines) -> list[dict]:
 
 
 def _write_csv(path: Path, rows: list[dict]) -> None:
-    with path.open("w", newline="", encoding="utf-8") as f:
-        writer = csv.DictWriter(f, fieldnames=list(rows[0]))
-        writer.writeheader()
-        writer.writerows(rows)
+    from kit.files.sheets import write_csv
+
+    write_csv(path, list(rows[0]), [list(r.values()) for r in rows])
 
 
 def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
