@@ -13,7 +13,7 @@ Everything is invented and seeded, so the same arguments write the same bytes on
   are in it (so they match), the rest are other sizes of the same kinds.
 
 The stock and the matching catalogue rows need the fleet's part keys, which the engine works
-out (:func:`kit.requirements.assess_vessel`); the particulars themselves need only this module.
+out (:func:`kit.engine.requirements.assess_vessel`); the particulars themselves need only this module.
 
 Run ``python -m benchmarks.fleet OUT --vessels 1000`` to write a fleet by itself.
 """
@@ -185,9 +185,9 @@ def write_particulars(folder: Path, vessels: int, seed: int = SEED) -> list[Path
 
 def _fleet_lines(folder: Path):
     """(vessel id, line item) for every requirement of the fleet, from kit's own engine."""
-    from kit.particulars import load_folder
-    from kit.requirements import assess_vessel
-    from kit.spares import load_policy
+    from kit.engine.particulars import load_folder
+    from kit.engine.requirements import assess_vessel
+    from kit.engine.spares import load_policy
 
     policy = load_policy(None)
     for v in load_folder(folder):
@@ -220,7 +220,7 @@ def _dims_text(rnd: random.Random, dims: dict[str, float]) -> dict[str, str]:
 
 def catalogue_rows(lines: list, rows: int, seed: int = SEED) -> list[tuple]:
     """``rows`` catalogue rows: the fleet's parts first (they match), then other sizes."""
-    from kit.parts import PART_KINDS
+    from kit.engine.parts import PART_KINDS
 
     rnd = random.Random(seed + 2)
     seen: dict[str, object] = {}

@@ -7,7 +7,7 @@ Each case is a good stock workbook (written by openpyxl) whose sheet or shared-s
 replaced by one that implies billions of rows or millions of cells. The suite checks the refusal
 (tests/test_hostile_workbooks.py); this prints its wall time and peak resident memory, measured
 through ``benchmarks/launch.py`` so the figure is kit's own process (Python and its libraries
-included), and the time :func:`kit.sheets.read_table` takes to refuse it in this process.
+included), and the time :func:`kit.files.sheets.read_table` takes to refuse it in this process.
 """
 
 from __future__ import annotations
@@ -111,9 +111,9 @@ def hostile(folder: Path, case: Case | None, key: str, sheet: str | None = None)
 
 
 def reading(path: Path) -> float:
-    """Seconds kit.sheets takes to read (or refuse) the stock sheet of ``path``, in this process."""
+    """Seconds kit.files.sheets takes to read (or refuse) the stock sheet of ``path``, in this process."""
     from kit.errors import InputError
-    from kit.sheets import read_table
+    from kit.files.sheets import read_table
 
     start = time.perf_counter()
     try:

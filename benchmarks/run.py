@@ -137,7 +137,7 @@ def pg_drop(base: str) -> None:
 def import_all_stock(db: str, stock: Path) -> None:
     """Every vessel's stock count, in this process (one command per vessel would take minutes)."""
     from catalog_schema.engine import make_engine, resolve_url
-    from kit.stock_import import import_stock
+    from kit.store.stock_import import import_stock
 
     engine = make_engine(resolve_url(db))
     try:
@@ -206,8 +206,8 @@ def checked_catalogue(db: str, path: Path, supplier: str, out: Path) -> None:
 
     from catalog_schema.core_tables import CATALOGUE_ENTRIES
     from catalog_schema.sql import insert_statement
-    from kit.catalogue_import import COLUMNS, ENTRY_COLUMNS, SHEET, _entries
-    from kit.sheets import read_table
+    from kit.store.catalogue_import import COLUMNS, ENTRY_COLUMNS, SHEET, _entries
+    from kit.files.sheets import read_table
 
     table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
     with sqlite3.connect(db) as conn:

@@ -2,7 +2,7 @@
 """The fleet database's tables (SQLModel), at the head revision of ``migrations/``.
 
 Lengths, pressures, flows, volumes and times are SI floats (m, Pa, m^3/s, m^3, s, rad), as in
-:mod:`kit.particulars`. Child rows of a unit (filters, pipes, housings, coils, hoses) are keyed
+:mod:`kit.engine.particulars`. Child rows of a unit (filters, pipes, housings, coils, hoses) are keyed
 by the unit and their order in the particulars file, so loading the same file again writes the
 same rows. Every constraint that guards the data is declared here and in the migrations, so the
 database refuses bad rows whichever program writes them.
@@ -106,7 +106,7 @@ class ActuatorRow(SQLModel, table=True):
 
 class RudderRow(SQLModel, table=True):
     """The rudder a steering unit turns, for its torque by the classification-rule formula
-    (:mod:`kit.rudder`): area [m^2], mean height [m], area forward of the stock axis [m^2],
+    (:mod:`kit.engine.rudder`): area [m^2], mean height [m], area forward of the stock axis [m^2],
     ahead and astern speeds [m/s], profile and position. One row per unit, none when not given.
     (Added in revision 0005.)"""
 
@@ -218,7 +218,7 @@ class HoseRow(SQLModel, table=True):
 
 
 class PartRow(SQLModel, table=True):
-    """A generic part: one row per normalised key (:func:`kit.parts.part_key`)."""
+    """A generic part: one row per normalised key (:func:`kit.engine.parts.part_key`)."""
 
     __tablename__ = "parts"
 
@@ -281,7 +281,7 @@ class SparesPolicyRow(SQLModel, table=True):
     """The spares policy in force for a whole company or for one vessel, from a date.
 
     Exactly one of ``company_id`` and ``vessel_id`` is set; a vessel's own policy wins over its
-    company's. ``content`` is the company policy file's TOML text, validated by :mod:`kit.spares`
+    company's. ``content`` is the company policy file's TOML text, validated by :mod:`kit.engine.spares`
     before it is stored; null means kit's default policy. (Added in revision 0002; content in 0003.)
     """
 

@@ -2,14 +2,14 @@
 """Particulars dicts for the engine tests: one invented steering unit of each actuator kind.
 
 Every value is a string with a unit, as in a particulars file; ``vessel`` wraps units into a
-vessel dict that :func:`kit.particulars.vessel_from_dict` reads.
+vessel dict that :func:`kit.engine.particulars.vessel_from_dict` reads.
 """
 
 from __future__ import annotations
 
 from typing import Any
 
-from kit.particulars import Vessel, vessel_from_dict
+from kit.engine.particulars import Vessel, vessel_from_dict
 
 
 def ram_unit(**over: Any) -> dict[str, Any]:

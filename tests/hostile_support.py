@@ -12,7 +12,7 @@ from sqlalchemy import select
 from catalog_schema.engine import make_engine
 from db_support import TOML_CYLINDER, dump
 from kit.cli import main
-from kit.parts_store import PARTS
+from kit.store.parts_store import PARTS
 
 
 class Fleet:

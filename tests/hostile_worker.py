@@ -48,8 +48,8 @@ def pause_save(marker: Path, go: Path) -> None:
 
 def pause_import(marker: Path, go: Path) -> None:
     import catalog_schema.engine as engine_module
-    import kit.catalogue_import
-    import kit.stock_import
+    import kit.store.catalogue_import
+    import kit.store.stock_import
 
     real = engine_module.write_transaction
 
@@ -63,7 +63,7 @@ def pause_import(marker: Path, go: Path) -> None:
 
         return real(engine, work_then_wait, attempts)
 
-    for module in (engine_module, kit.stock_import, kit.catalogue_import):
+    for module in (engine_module, kit.store.stock_import, kit.store.catalogue_import):
         module.write_transaction = paused
 
 

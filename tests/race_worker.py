@@ -18,12 +18,12 @@ import sys
 import time
 from pathlib import Path
 
-import kit.catalogue_import
+import kit.store.catalogue_import
 import kit.services.imports
 from catalog_schema.engine import make_engine, write_transaction
 from kit.errors import KitError
-from kit.parts import LineItem
-from kit.parts_store import register_parts
+from kit.engine.parts import LineItem
+from kit.store.parts_store import register_parts
 
 HOLD_S = 0.3
 WAIT_S = 60.0
@@ -42,7 +42,7 @@ def _wait_for(path: Path, seconds: float) -> bool:
 
 
 def importer(engine, work: Path, rounds: int) -> None:
-    real = kit.catalogue_import.part_ids
+    real = kit.store.catalogue_import.part_ids
     state = {}
 
     def part_ids_then_wait(conn):
@@ -51,7 +51,7 @@ def importer(engine, work: Path, rounds: int) -> None:
         _wait_for(work / f"registered-{state['r']}", HOLD_S)
         return found
 
-    kit.catalogue_import.part_ids = part_ids_then_wait
+    kit.store.catalogue_import.part_ids = part_ids_then_wait
     for r in range(rounds):
         state["r"] = r
         kit.services.imports.import_catalogue(engine, work / f"cat-{r}.csv", f"race-{r}")

@@ -8,11 +8,11 @@ import math
 
 import pytest
 
-from kit.bom import CatalogueMatch, consolidate
-from kit.preflight import preflight_order
-from kit.particulars import vessel_from_dict
-from kit.requirements import assess_vessel
-from kit.spares import load_policy
+from kit.engine.bom import CatalogueMatch, consolidate
+from kit.engine.preflight import preflight_order
+from kit.engine.particulars import vessel_from_dict
+from kit.engine.requirements import assess_vessel
+from kit.engine.spares import load_policy
 
 UNIT = {
     "id": "SG1", "service": "steering", "actuator": "ram", "count": 2,

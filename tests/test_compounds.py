@@ -5,8 +5,8 @@ from __future__ import annotations
 
 import pytest
 
-import kit.compounds
-from kit import compounds
+import kit.engine.compounds
+from kit.engine import compounds
 from kit.errors import IncompatibleFluidError
 
 
@@ -56,7 +56,7 @@ def test_unknown_pair_rates_no():
 
 
 def test_only_limited_compounds_give_a_warning(monkeypatch):
-    monkeypatch.setattr(kit.compounds, "rating", lambda cat, c: "limited" if c == "NBR" else "no")
+    monkeypatch.setattr(kit.engine.compounds, "rating", lambda cat, c: "limited" if c == "NBR" else "no")
     choice = compounds.choose("HM", "dynamic")
     assert (choice.compound, choice.rating) == ("NBR", "limited")
     assert choice.warning == ("no compound fully compatible with HM for dynamic seals; NBR chosen, "
@@ -64,7 +64,7 @@ def test_only_limited_compounds_give_a_warning(monkeypatch):
 
 
 def test_no_compatible_compound_raises(monkeypatch):
-    monkeypatch.setattr(kit.compounds, "rating", lambda cat, c: "no")
+    monkeypatch.setattr(kit.engine.compounds, "rating", lambda cat, c: "no")
     with pytest.raises(IncompatibleFluidError, match=r"^no seal compound in the table is compatible with HFC for static seals$"):
         compounds.choose("HFC", "static")
 

@@ -16,10 +16,10 @@ from sqlalchemy import text
 from catalog_schema.engine import make_engine, write_transaction
 from catalog_schema.errors import BusyError
 from db_support import TOML_CYLINDER, db_url, engine  # noqa: F401  (fixtures)
-from kit.fleet_store import save_vessels
-from kit.parts import LineItem
-from kit.parts_store import register_parts
-from kit.particulars import load_vessel
+from kit.store.fleet_store import save_vessels
+from kit.engine.parts import LineItem
+from kit.store.parts_store import register_parts
+from kit.engine.particulars import load_vessel
 from test_db_imports import STOCK_HEADER, stock_rows, write_csv
 
 WORKER = Path(__file__).with_name("db_worker.py")

@@ -17,9 +17,9 @@ from catalog_schema.engine import write_transaction
 from db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtures)
 from kit.cli import main
 from kit.errors import InputError
-from kit.fleet_store import read_vessels, save_vessels
-from kit.particulars import load_folder, load_vessel
-from kit.particulars_sheet import load_particulars_sheet, write_particulars_template
+from kit.store.fleet_store import read_vessels, save_vessels
+from kit.engine.particulars import load_folder, load_vessel
+from kit.files.particulars_sheet import load_particulars_sheet, write_particulars_template
 
 DEMO = Path(__file__).resolve().parents[1] / "demo_fleet"
 

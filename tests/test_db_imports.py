@@ -14,16 +14,16 @@ from sqlalchemy import select
 
 from catalog_schema.engine import write_transaction
 from db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtures)
-from kit.catalogue_import import COLUMNS, ENTRIES
+from kit.store.catalogue_import import COLUMNS, ENTRIES
 from kit.services.imports import import_catalogue, import_stock
 from kit.cli import main
 from kit.errors import InputError
-from kit.fleet_store import save_vessels
-from kit.parts import LineItem, part_key
-from kit.parts_store import register_parts
-from kit.particulars import load_vessel
-from kit.sheets import read_table
-from kit.stock_import import STOCK
+from kit.store.fleet_store import save_vessels
+from kit.engine.parts import LineItem, part_key
+from kit.store.parts_store import register_parts
+from kit.engine.particulars import load_vessel
+from kit.files.sheets import read_table
+from kit.store.stock_import import STOCK
 
 ROD_SEAL = part_key("rod_seal", {"d": 279.4, "D": 304.8, "L": 25.0}, "AU")
 O_RING = part_key("o_ring", {"id": 236.0, "cs": 5.3}, "NBR")
@@ -91,7 +91,7 @@ def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path
     import_catalogue(fleet, path, "Other Seals")
     registered = write_transaction(fleet, lambda conn: register_parts(conn, [item(later, "rod_seal"), item(OIL, "oil")]))
     assert (registered.parts, registered.entries_matched) == (2, 2)  # RS-99 of both suppliers; OIL has no entry
-    from kit.order_sources import catalogue_offers
+    from kit.store.order_sources import catalogue_offers
 
     with fleet.connect() as conn:
         offers = catalogue_offers(conn, [later, ROD_SEAL])
@@ -103,7 +103,7 @@ def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path
 
 def test_offers_for_more_parts_than_one_statement_takes(fleet, tmp_path):
     from catalog_schema.sql import VALUES_PER_STATEMENT
-    from kit.order_sources import catalogue_offers
+    from kit.store.order_sources import catalogue_offers
 
     n = VALUES_PER_STATEMENT["sqlite"] * 2 + 7
     keys = [part_key("spare", {}, f"relief cartridge:{i}") for i in range(n)]
@@ -122,7 +122,7 @@ def test_reimport_replaces_the_suppliers_catalogue(fleet, tmp_path):
     import_catalogue(fleet, first, "Test Seals")
     import_catalogue(fleet, first, "Other Seals")
     import_catalogue(fleet, second, "Test Seals")
-    from kit.catalogue_import import SUPPLIERS
+    from kit.store.catalogue_import import SUPPLIERS
 
     with fleet.connect() as conn:
         found = conn.execute(select(SUPPLIERS.c.name, ENTRIES.c.supplier_ref, ENTRIES.c.currency)
@@ -208,7 +208,7 @@ STOCK_HEADER = ["part_key", "designation", "location", "quantity", "counted_on"]
 
 
 def stock_rows(engine, vessel: str) -> dict[tuple[str, str], float]:
-    from kit.parts_store import PARTS
+    from kit.store.parts_store import PARTS
 
     with engine.connect() as conn:
         q = select(PARTS.c.key, STOCK.c.location, STOCK.c.quantity).join(PARTS, PARTS.c.id == STOCK.c.part_id).where(STOCK.c.vessel_id == vessel)

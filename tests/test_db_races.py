@@ -15,8 +15,8 @@ from pathlib import Path
 from sqlalchemy import and_, func, or_, select
 
 from db_support import db_url, engine  # noqa: F401  (fixtures)
-from kit.catalogue_import import ENTRIES
-from kit.parts_store import PARTS
+from kit.store.catalogue_import import ENTRIES
+from kit.store.parts_store import PARTS
 from race_worker import ROWS, key
 
 WORKER = Path(__file__).with_name("race_worker.py")

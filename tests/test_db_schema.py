@@ -20,7 +20,7 @@ from catalog_schema.render_core import TARGET, render
 from catalog_schema.tables import (DEFAULT_LOCATION, ActuatorRow, PartRow, RudderRow, SQLModel, StockRow, UnitRow,
                                    VesselRow)
 from db_support import db_url, engine  # noqa: F401  (fixtures)
-from kit.policy_store import policy_in_force
+from kit.store.policy_store import policy_in_force
 
 
 def test_fresh_database_reaches_the_tables_schema(db_url):
@@ -219,11 +219,11 @@ def _steering_units(conn) -> dict[str, int]:
     {"area": 0.0},                          # CHECK area > 0
     {"mean_height": -4.0},                  # CHECK mean_height > 0
     {"area_forward": -0.1},                 # CHECK area_forward >= 0
-    {"area_forward": 6.0},                  # CHECK area_forward < area / 2 (as kit.particulars refuses it)
+    {"area_forward": 6.0},                  # CHECK area_forward < area / 2 (as kit.engine.particulars refuses it)
     {"ahead_speed": 0.0},                   # CHECK ahead_speed > 0
     {"astern_speed": 0.0},                  # CHECK astern_speed > 0 when given
-    {"profile": "wedge"},                   # CHECK profile in the set kit.rudder knows
-    {"position": "in_front"},               # CHECK position in the set kit.rudder knows
+    {"profile": "wedge"},                   # CHECK profile in the set kit.engine.rudder knows
+    {"position": "in_front"},               # CHECK position in the set kit.engine.rudder knows
     {"unit_id": 10_000},                    # foreign key: no such unit
 ], ids=["area", "height", "forward-negative", "forward-half", "ahead", "astern", "profile", "position", "foreign-key"])
 def test_database_refuses_bad_rudder_rows(engine, bad):
@@ -235,7 +235,7 @@ def test_database_refuses_bad_rudder_rows(engine, bad):
 
 
 def test_database_keeps_every_profile_and_position_kit_knows_and_one_rudder_a_unit(engine):
-    from kit.rudder import POSITION_K3, PROFILE_K2
+    from kit.engine.rudder import POSITION_K3, PROFILE_K2
 
     with engine.begin() as conn:
         ids = _steering_units(conn)

@@ -7,7 +7,7 @@ import math
 
 import pytest
 
-from kit.filters import changes_due, elements_needed
+from kit.engine.filters import changes_due, elements_needed
 
 H = 3600.0
 

@@ -15,10 +15,10 @@ from sqlalchemy import func, select
 
 from catalog_schema.engine import make_engine
 from db_support import db_url  # noqa: F401  (fixture)
-from kit.catalogue_import import ENTRIES, SUPPLIERS
+from kit.store.catalogue_import import ENTRIES, SUPPLIERS
 from kit.cli import main
-from kit.parts_store import PARTS
-from kit.stock_import import STOCK
+from kit.store.parts_store import PARTS
+from kit.store.stock_import import STOCK
 
 LOOP = Path(__file__).with_name("hostile_loop.py")
 WORKERS = ("alpha", "bravo", "charlie")

@@ -26,7 +26,7 @@ from sqlalchemy import create_engine, select, text
 from catalog_schema.engine import make_engine
 from db_support import PG_ENV, db_url, dump  # noqa: F401  (fixtures)
 from kit.cli import main
-from kit.parts_store import PARTS
+from kit.store.parts_store import PARTS
 
 TESTS = Path(__file__).resolve().parent
 WORKER = TESTS / "hostile_worker.py"
@@ -210,7 +210,7 @@ def test_no_room_simulated(tmp_path, monkeypatch):
     def no_room(src, dst):
         raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
 
-    monkeypatch.setattr("kit.atomic.os.replace", no_room)
+    monkeypatch.setattr("kit.files.atomic.os.replace", no_room)
     out = tmp_path / "out"
     out.mkdir()
     db = str(tmp_path / "fleet.sqlite")

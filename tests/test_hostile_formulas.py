@@ -13,14 +13,14 @@ import pytest
 from click.testing import CliRunner
 
 from db_support import TOML_CYLINDER
-from kit.bom import CatalogueMatch, consolidate
-from kit.bom_export import write_csv as write_order_csv
+from kit.engine.bom import CatalogueMatch, consolidate
+from kit.files.bom_export import write_order_csv
 from kit.cli import main
-from kit.particulars import load_vessel
-from kit.requirements import assess_vessel
-from kit.safe_text import TRIGGERS
-from kit.sheets import Sheet, write_sheet
-from kit.spares import load_policy
+from kit.engine.particulars import load_vessel
+from kit.engine.requirements import assess_vessel
+from kit.files.safe_text import TRIGGERS
+from kit.files.sheets import Sheet, write_sheet
+from kit.engine.spares import load_policy
 
 TRIGGERS_OWASP = ("=", "+", "-", "@", "\t", "\r")  # OWASP, "CSV Injection"
 HOSTILE = {
@@ -119,7 +119,7 @@ def test_csv_keeps_the_text_behind_a_quote(written):
 def test_tab_and_carriage_return_too(tmp_path):
     """kit strips leading white space from what it reads, so a tab or CR can only come from
     within kit or from a row another program stored; the writers guard them anyway (a control
-    character from the database becomes U+FFFD, see kit.safe_text)."""
+    character from the database becomes U+FFFD, see kit.files.safe_text)."""
     rows = [["\t=1+1", "\r=2+2", "@SUM(1)", "-3", "+4", "=5"]]
     write_sheet(tmp_path / "s.csv", Sheet("s", ["a", "b", "c", "d", "e", "f"], rows))
     write_sheet(tmp_path / "s.xlsx", Sheet("s", ["a", "b", "c", "d", "e", "f"], rows))

@@ -28,9 +28,9 @@ from catalog_schema.engine import make_engine
 from db_support import TOML_CYLINDER, dump
 from kit.cli import main
 from kit.errors import InputError
-from kit.input_files import MAX_CSV_BYTES, MAX_TOML_BYTES, MAX_XLSX_BYTES, Kind, open_text
-from kit.spares import policy_from_text
-from kit.toml_text import MAX_DEPTH, nesting_depth
+from kit.files.input_files import MAX_CSV_BYTES, MAX_TOML_BYTES, MAX_XLSX_BYTES, Kind, open_text
+from kit.engine.spares import policy_from_text
+from kit.files.toml_text import MAX_DEPTH, nesting_depth
 
 NULL_DEVICE = os.makedev(1, 3)  # the numbers of /dev/null (Linux devices.txt: char 1, minor 3)
 DEEP = f"TOML nested at most {MAX_DEPTH} deep (arrays, inline tables, dotted keys)"

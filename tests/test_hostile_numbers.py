@@ -201,7 +201,7 @@ def test_three_letters_that_are_no_currency_are_refused(fleet, code, why):
 
 
 def test_the_currency_table_names_its_source():
-    from kit.tables import load_table
+    from kit.engine.standard_tables import load_table
 
     rows = load_table("iso4217_2015_currency_codes.csv")
     assert {r["source"] for r in rows} == {"Debian iso-codes iso_4217.json (pycountry 26.2.16)"}
@@ -215,7 +215,9 @@ def test_the_bounds_are_documented():
     """SECURITY.md states every bound kit enforces on a number, and the README the decimal-mark rule."""
     from pathlib import Path
 
-    from kit import numbers, spares
+    from kit.files import numbers
+
+    from kit.engine import spares
 
     root = Path(__file__).resolve().parents[1]
     security = (root / "SECURITY.md").read_text()

@@ -20,13 +20,13 @@ from pathlib import Path
 import pytest
 from click.testing import CliRunner
 
-import kit.atomic
+import kit.files.atomic
 from catalog_schema.engine import make_engine
 from db_support import dump
-from kit.atomic import replace_atomically
+from kit.files.atomic import replace_atomically
 from kit.cli import main
 from kit.errors import OutputError
-from kit.output_targets import DEMO_MARKER, database_file, protecting
+from kit.files.output_targets import DEMO_MARKER, database_file, protecting
 
 DEMO = Path(__file__).resolve().parents[1] / "demo_fleet"
 CORVINA = DEMO / "corvina_bay.toml"
@@ -244,9 +244,9 @@ def test_a_writable_file_is_still_replaced(fleet, tmp_path):
 
 @pytest.fixture(params=["unnamed", "named"])
 def temporary_files(request, monkeypatch):
-    """Both ways kit.atomic writes: an O_TMPFILE file, and a named temporary file."""
+    """Both ways kit.files.atomic writes: an O_TMPFILE file, and a named temporary file."""
     if request.param == "named":
-        monkeypatch.delattr(kit.atomic.os, "O_TMPFILE", raising=False)
+        monkeypatch.delattr(kit.files.atomic.os, "O_TMPFILE", raising=False)
     return request.param
 
 

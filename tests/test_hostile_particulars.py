@@ -106,7 +106,7 @@ def test_a_folder_with_one_bad_file_loads_nothing(db, tmp_path):
 # --- the particulars workbook (kit template particulars, read by kit load) ---------------------
 
 def _book_cases():
-    from kit.particulars_sheet import UNIT_SHEET_COLUMNS as UNIT_COLUMNS
+    from kit.files.particulars_sheet import UNIT_SHEET_COLUMNS as UNIT_COLUMNS
     from openpyxl.utils import get_column_letter as letter
 
     width = len(UNIT_COLUMNS)
@@ -132,7 +132,7 @@ def test_bad_particulars_workbook_one_line_exit_2_nothing_written(db, tmp_path, 
     header was dropped. Now the one line names the file, sheet, row or cell, and the field."""
     import openpyxl
 
-    from kit.particulars_sheet import write_particulars_template
+    from kit.files.particulars_sheet import write_particulars_template
 
     url, engine = db
     toml = tmp_path / "v.toml"
@@ -149,7 +149,7 @@ def test_bad_particulars_workbook_one_line_exit_2_nothing_written(db, tmp_path, 
 
 
 def test_the_untouched_particulars_workbook_still_loads(db, tmp_path):
-    from kit.particulars_sheet import write_particulars_template
+    from kit.files.particulars_sheet import write_particulars_template
 
     url, _ = db
     toml = tmp_path / "v.toml"

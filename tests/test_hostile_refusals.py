@@ -14,8 +14,8 @@ from __future__ import annotations
 import pytest
 from click.testing import CliRunner
 
-import kit.catalogue_import
-import kit.stock_import
+import kit.store.catalogue_import
+import kit.store.stock_import
 from db_support import db_url, dump, engine  # noqa: F401  (fixtures)
 from kit.cli import main
 from test_db_imports import CATALOGUE_HEADER, O_RING, OIL, ROD_SEAL, STOCK_HEADER, fleet, write_csv  # noqa: F401  (fixture)
@@ -32,7 +32,7 @@ def _catalogue(tmp_path, rows: int = 5):
 
 def _entries_with(monkeypatch, index: int, field: str, value) -> None:
     """Make the catalogue's parsing hand on row ``index`` with ``field`` set to ``value``."""
-    real = kit.catalogue_import._entries
+    real = kit.store.catalogue_import._entries
 
     def altered(table, *args, **kwargs):
         out = real(table, *args, **kwargs)
@@ -41,7 +41,7 @@ def _entries_with(monkeypatch, index: int, field: str, value) -> None:
         out[index] = tuple(row)
         return out
 
-    monkeypatch.setattr(kit.catalogue_import, "_entries", altered)
+    monkeypatch.setattr(kit.store.catalogue_import, "_entries", altered)
 
 
 def _refused(fleet, args) -> str:
@@ -120,7 +120,7 @@ def test_a_nul_in_text_names_the_line_and_column_on_postgresql(fleet, tmp_path, 
 
 
 def _stock_with(monkeypatch, index: int, position: int, value) -> None:
-    real = kit.stock_import._rows
+    real = kit.store.stock_import._rows
 
     def altered(table, *args, **kwargs):
         out = real(table, *args, **kwargs)
@@ -129,7 +129,7 @@ def _stock_with(monkeypatch, index: int, position: int, value) -> None:
         out[index] = tuple(row)
         return out
 
-    monkeypatch.setattr(kit.stock_import, "_rows", altered)
+    monkeypatch.setattr(kit.store.stock_import, "_rows", altered)
 
 
 def test_stock_below_zero_the_database_refuses_names_the_line(fleet, tmp_path, monkeypatch):
@@ -156,7 +156,7 @@ def test_a_refusal_that_does_not_come_again_is_one_line_about_the_database(engin
     from catalog_schema.engine import write_transaction
     from catalog_schema.errors import DatabaseError
     from catalog_schema.refusals import located
-    from kit.catalogue_import import SUPPLIERS
+    from kit.store.catalogue_import import SUPPLIERS
 
     tries = []
 
@@ -175,13 +175,13 @@ def test_a_refusal_that_does_not_come_again_is_one_line_about_the_database(engin
 def test_a_particulars_row_the_database_refuses_names_the_file_and_unit(engine, tmp_path, monkeypatch):
     # kit load: the particulars' own checks refuse a unit count below 1 first; past them, the
     # database's CHECK (units.count >= 1) is traced to the file and unit.
-    import kit.fleet_store
+    import kit.store.fleet_store
     from db_support import TOML_CYLINDER
 
     toml = tmp_path / "v.toml"
     toml.write_text(TOML_CYLINDER)
-    real = kit.fleet_store._unit_row
-    monkeypatch.setattr(kit.fleet_store, "_unit_row", lambda u, seq: {**real(u, seq), "count": 0})
+    real = kit.store.fleet_store._unit_row
+    monkeypatch.setattr(kit.store.fleet_store, "_unit_row", lambda u, seq: {**real(u, seq), "count": 0})
     out = _refused(engine, ["load", str(toml)])
     assert out.startswith(f"kit: error: {toml}, unit SG1: column count: {EXPECTED} (got 0, refused: ")
     assert "ck_units_count" in out
@@ -193,8 +193,8 @@ def test_a_vessel_row_the_database_refuses_names_the_file(engine, tmp_path):
     from catalog_schema.engine import write_transaction
     from catalog_schema.refusals import RefusedRowError
     from db_support import TOML_CYLINDER
-    from kit.fleet_store import save_vessels
-    from kit.particulars import load_vessel
+    from kit.store.fleet_store import save_vessels
+    from kit.engine.particulars import load_vessel
 
     toml = tmp_path / "v.toml"
     toml.write_text(TOML_CYLINDER)

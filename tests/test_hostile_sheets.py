@@ -14,11 +14,11 @@ import pytest
 from click.testing import CliRunner
 from sqlalchemy import select
 
-import kit.sheets
+import kit.files.sheets
 from catalog_schema.engine import make_engine
 from db_support import TOML_CYLINDER, dump
 from kit.cli import main
-from kit.parts_store import PARTS
+from kit.store.parts_store import PARTS
 
 HEADER = "part_key,location,quantity\n"
 
@@ -120,7 +120,7 @@ def test_entity_tricks_are_refused_by_defusedxml(fleet, tmp_path, part, prolog, 
 def test_row_limit_is_documented():
     """SECURITY.md and the README state the limit kit enforces."""
     root = Path(__file__).resolve().parents[1]
-    limit = f"{kit.sheets.MAX_ROWS:,}"
+    limit = f"{kit.files.sheets.MAX_ROWS:,}"
     assert limit in (root / "SECURITY.md").read_text() and limit in (root / "README.md").read_text()
 
 
@@ -153,7 +153,7 @@ def peak_memory(fleet, path: Path):
 @pytest.mark.parametrize("suffix", [".csv", ".xlsx"])
 def test_a_huge_sheet_is_refused_while_streamed(fleet, tmp_path, monkeypatch, suffix):
     """Sheets 20 and 80 times the limit: refused in one line, and the larger costs no more memory."""
-    monkeypatch.setattr(kit.sheets, "MAX_ROWS", 500)
+    monkeypatch.setattr(kit.files.sheets, "MAX_ROWS", 500)
     results = [peak_memory(fleet, huge_sheet(tmp_path / f"huge{rows}{suffix}", fleet[2], rows)) for rows in (10_000, 40_000)]
     for (done, _), rows in zip(results, (10_000, 40_000)):
         path = tmp_path / f"huge{rows}{suffix}"
@@ -165,14 +165,14 @@ def test_a_huge_sheet_is_refused_while_streamed(fleet, tmp_path, monkeypatch, su
 
 
 def test_just_past_the_limit_names_the_sheet(fleet, tmp_path, monkeypatch):
-    monkeypatch.setattr(kit.sheets, "MAX_ROWS", 500)
+    monkeypatch.setattr(kit.files.sheets, "MAX_ROWS", 500)
     path = huge_sheet(tmp_path / "s.xlsx", fleet[2], 501)
     refused(fleet, path, f"{path}, sheet stock: rows: expected at most 500 data rows (got more)")
 
 
 def test_too_much_cell_text_is_refused_before_reading(fleet, tmp_path, monkeypatch):
     """The shared-string table is held whole by openpyxl, so its size is checked first."""
-    monkeypatch.setattr(kit.sheets, "MAX_SHARED_STRINGS_BYTES", 1 << 20)
+    monkeypatch.setattr(kit.files.sheets, "MAX_SHARED_STRINGS_BYTES", 1 << 20)
     good = book(tmp_path / "good.xlsx", {"stock": [["part_key", "quantity"], [fleet[2], 1]]})
     path = tmp_path / "s.xlsx"
     with zipfile.ZipFile(good) as src, zipfile.ZipFile(path, "w", zipfile.ZIP_DEFLATED) as dst:

@@ -69,8 +69,8 @@ def test_a_used_range_smaller_than_the_data_hides_no_rows(fleet, tmp_path):
 
 def test_limits_are_documented():
     """SECURITY.md states each limit kit enforces on workbooks."""
-    import kit.sheets
+    import kit.files.sheets
 
     text = (Path(__file__).resolve().parents[1] / "SECURITY.md").read_text()
-    for limit in (kit.sheets.MAX_COLUMNS, kit.sheets.MAX_CELLS, kit.sheets.MAX_SHARED_STRINGS, 2 * kit.sheets.MAX_ROWS + 100):
+    for limit in (kit.files.sheets.MAX_COLUMNS, kit.files.sheets.MAX_CELLS, kit.files.sheets.MAX_SHARED_STRINGS, 2 * kit.files.sheets.MAX_ROWS + 100):
         assert f"{limit:,}" in text, limit

@@ -7,7 +7,7 @@ import math
 
 import pytest
 
-from kit import housings
+from kit.engine import housings
 from kit.errors import OutOfSeriesError
 
 

@@ -5,9 +5,9 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from kit.errors import InputError
-from kit.parts_store import KeyReader
-from kit.sheets import Table
-from kit.units import to_si
+from kit.store.parts_store import KeyReader
+from kit.files.sheets import Table
+from kit.engine.units import to_si
 
 UNITS = ["mm", "in", "m", "cm", "inch", "ft", "um", "MM", "mil", "yd", "bar", "L", "foo"]
 

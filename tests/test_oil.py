@@ -10,10 +10,10 @@ import pytest
 from fluids.piping import nearest_pipe
 
 from engine_helpers import ram_unit, unit
-from kit import display_units, oil, solas
-from kit.oil import Package, plan_packages
-from kit.oil_grades import ISO_3448_GRADES, density_kg_per_l, viscosity_limits
-from kit.particulars import Pipe
+from kit.engine import display_units, oil, solas
+from kit.engine.oil import Package, plan_packages
+from kit.engine.oil_grades import ISO_3448_GRADES, density_kg_per_l, viscosity_limits
+from kit.engine.particulars import Pipe
 
 UREG = pint.UnitRegistry()  # an independent registry, to check kit's figures against
 PAIL, DRUM, IBC = Package("pail", 0.020), Package("drum", 0.208), Package("IBC", 1.000)
@@ -34,7 +34,7 @@ def test_system_charge_stated_wins():
 
 def test_system_charge_from_parts():
     u = unit(ram_unit(reservoir="300 L", pipe=[{"outside_diameter": "33.4 mm", "wall": "3.38 mm", "length": "24 m"}]))
-    rams = math.pi / 4 * 0.280**2 * 0.900  # one ram pair holds A x stroke (kit.physics.actuator_oil_volume)
+    rams = math.pi / 4 * 0.280**2 * 0.900  # one ram pair holds A x stroke (kit.engine.physics.actuator_oil_volume)
     pipe = math.pi / 4 * (0.0334 - 2 * 0.00338) ** 2 * 24
     charge, basis = oil.system_charge(u)
     assert charge == pytest.approx(0.300 + rams + pipe, rel=1e-9)
@@ -120,8 +120,8 @@ def test_iso_3448_limits_are_midpoint_plus_minus_ten_percent(grade):
 def test_stated_charge_below_the_reservoir_is_a_failed_check():
     # SOLAS II-1/29.12.3: the storage tank recharges one power actuating system including its
     # reservoir. By hand: 300 L reservoir + one ram pair pi/4 x 0.280^2 x 0.900 = 55.42 L.
-    from kit.requirements import assess_unit
-    from kit.spares import load_policy
+    from kit.engine.requirements import assess_unit
+    from kit.engine.spares import load_policy
     from engine_helpers import vessel
 
     least = 0.300 + math.pi / 4 * 0.280**2 * 0.900

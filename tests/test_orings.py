@@ -7,9 +7,9 @@ import math
 
 import pytest
 
-from kit import orings
+from kit.engine import orings
 from kit.errors import OutOfSeriesError
-from kit.tables import load_table
+from kit.engine.standard_tables import load_table
 
 # ISO 3601-1:2012, clause 4 (published): the five cross-sections of the series.
 ISO_3601_1_CROSS_SECTIONS = (1.80, 2.65, 3.55, 5.30, 7.00)

@@ -11,7 +11,7 @@ from pathlib import Path
 import pytest
 
 from kit.errors import InputError
-from kit.particulars import load_folder, load_vessel, vessel_from_dict
+from kit.engine.particulars import load_folder, load_vessel, vessel_from_dict
 
 DEMO = Path(__file__).resolve().parents[1] / "demo_fleet"
 

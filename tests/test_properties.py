@@ -8,10 +8,10 @@ import math
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from kit import housings, orings
-from kit.filters import elements_needed
-from kit.oil import Package, plan_packages
-from kit.tables import load_table
+from kit.engine import housings, orings
+from kit.engine.filters import elements_needed
+from kit.engine.oil import Package, plan_packages
+from kit.engine.standard_tables import load_table
 
 SETTINGS = settings(max_examples=150, deadline=None)
 

@@ -8,10 +8,10 @@ from pathlib import Path
 import pytest
 
 from engine_helpers import ram_unit, vessel
-from kit import solas
-from kit.particulars import load_vessel
-from kit.requirements import assess_vessel
-from kit.spares import load_policy
+from kit.engine import solas
+from kit.engine.particulars import load_vessel
+from kit.engine.requirements import assess_vessel
+from kit.engine.spares import load_policy
 
 DEMO = sorted((Path(__file__).resolve().parent.parent / "demo_fleet").glob("*.toml"))
 POLICY = load_policy()

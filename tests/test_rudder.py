@@ -13,10 +13,10 @@ import math
 import pytest
 
 from engine_helpers import ram_unit, vessel
-from kit import rudder
-from kit.checks import check_unit
+from kit.engine import rudder
+from kit.engine.checks import check_unit
 from kit.errors import InputError
-from kit.spares import load_policy
+from kit.engine.spares import load_policy
 
 KN = 1852 / 3600
 RUDDER = {"area": "20 m^2", "mean_height": "6 m", "area_forward": "4 m^2", "ahead_speed": "15 kn",

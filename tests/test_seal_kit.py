@@ -6,9 +6,9 @@ from __future__ import annotations
 import pytest
 
 from engine_helpers import cylinder_unit, ram_unit, unit, vane_unit
-from kit import housings, orings
+from kit.engine import housings, orings
 from kit.errors import IncompatibleFluidError
-from kit.seal_kit import DRAWING, build_seal_kit, mm
+from kit.engine.seal_kit import DRAWING, build_seal_kit, mm
 
 
 def roles(kit):

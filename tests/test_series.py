@@ -7,7 +7,7 @@ import math
 
 import pytest
 
-from kit import series
+from kit.engine import series
 
 # ISO 3:1973 R10 series, the rounded values the standard publishes for one decade.
 R10_ROUNDED = (1.00, 1.25, 1.60, 2.00, 2.50, 3.15, 4.00, 5.00, 6.30, 8.00)

@@ -8,9 +8,9 @@ import math
 import pytest
 
 from engine_helpers import ram_unit, vane_unit, vessel
-from kit import physics, solas
-from kit.checks import check_unit
-from kit.spares import load_policy
+from kit.engine import physics, solas
+from kit.engine.checks import check_unit
+from kit.engine.spares import load_policy
 
 POLICY = load_policy()
 

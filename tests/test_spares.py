@@ -8,7 +8,7 @@ import dataclasses
 import pytest
 
 from kit.errors import InputError
-from kit.spares import ITEM_KINDS, load_policy, policy_from_text
+from kit.engine.spares import ITEM_KINDS, load_policy, policy_from_text
 
 
 def write(tmp_path, text):

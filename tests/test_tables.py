@@ -10,9 +10,9 @@ from importlib import resources
 
 import pytest
 
-import kit.tables
+import kit.engine.standard_tables
 from kit.errors import TableChecksumError
-from kit.tables import CHECKSUMS, load_table
+from kit.engine.standard_tables import CHECKSUMS, load_table
 
 DATA = resources.files("kit.data")
 CSV_FILES = sorted(p.name for p in DATA.iterdir() if p.name.endswith(".csv"))
@@ -32,7 +32,7 @@ def test_every_csv_has_a_recorded_checksum():
 
 @pytest.mark.parametrize("name", CSV_FILES)
 def test_checksum_matches_file(name):
-    # Recomputed here with hashlib, independently of kit.tables.sha256.
+    # Recomputed here with hashlib, independently of kit.engine.standard_tables.sha256.
     assert hashlib.sha256(DATA.joinpath(name).read_bytes()).hexdigest() == CHECKSUMS[name]
 
 
@@ -59,7 +59,7 @@ def test_tampered_table_raises(monkeypatch, fresh_cache):
     original = DATA.joinpath(name).read_bytes()
     tampered = original.replace(b"bore,320,preferred", b"bore,330,preferred")
     assert tampered != original
-    monkeypatch.setattr(kit.tables, "table_bytes", lambda n: tampered if n == name else original)
+    monkeypatch.setattr(kit.engine.standard_tables, "table_bytes", lambda n: tampered if n == name else original)
     with pytest.raises(TableChecksumError) as info:
         load_table(name)
     err = info.value
@@ -70,7 +70,7 @@ def test_tampered_table_raises(monkeypatch, fresh_cache):
 
 
 def test_table_without_a_checksum_raises(monkeypatch, fresh_cache):
-    monkeypatch.setattr(kit.tables, "table_bytes", lambda n: b"a,b\n1,2\n")
+    monkeypatch.setattr(kit.engine.standard_tables, "table_bytes", lambda n: b"a,b\n1,2\n")
     with pytest.raises(TableChecksumError, match=r"data table extra\.csv changed: .* recorded \(none\)"):
         load_table("extra.csv")
 
@@ -83,7 +83,7 @@ def test_iso10766_corrected_rows():
     # Trelleborg Sealing Solutions, Orkot Slydring wear rings catalogue (January 2011), table XLII,
     # installation dimensions to ISO 10766: t 1.55 mm sits in a 4.0 mm groove (bores 16-50 mm);
     # t 4.0 mm in a 25.0 mm groove up to 999.9 mm.
-    from kit import housings
+    from kit.engine import housings
 
     small = housings.guide_housing(40, "piston")
     assert (small.extra["t"], small.L, small.d) == (1.55, 4.0, 40 - 3.10)
@@ -97,7 +97,7 @@ def test_iso10766_corrected_rows():
 def test_scope_edges_label_the_extrapolation(build, inside, past):
     # ISO 6195:2013 covers rods 4-360 mm (its published abstract); ISO 5597 rods 6-360 mm and bores
     # 16-500 mm (from memory).
-    from kit import housings
+    from kit.engine import housings
 
     within, beyond = getattr(housings, build)(inside), getattr(housings, build)(past)
     assert within.past_scope == "" and within.standard.startswith("ISO ")

@@ -9,11 +9,11 @@ import math
 import pytest
 
 from engine_helpers import cylinder_unit, vessel
-from kit import physics
-from kit.checks import APPROXIMATION_WARNING, check_unit
+from kit.engine import physics
+from kit.engine.checks import APPROXIMATION_WARNING, check_unit
 from kit.errors import InputError
-from kit.particulars import CylinderGeometry
-from kit.spares import load_policy
+from kit.engine.particulars import CylinderGeometry
+from kit.engine.spares import load_policy
 
 R, A = 0.280, 1.000  # tiller radius, trunnion axis to tiller pin at midships [m]
 GEOM = CylinderGeometry(bore=0.200, rod=0.140, stroke=0.450, tiller_radius=R, trunnion_distance=A)

@@ -9,14 +9,14 @@ import pint
 import pytest
 
 from engine_helpers import ram_unit, vessel
-from kit import oil
-from kit.checks import check_unit
+from kit.engine import oil
+from kit.engine.checks import check_unit
 from kit.errors import InputError
-from kit.seal_kit import build_seal_kit
-from kit.spares import load_policy
-from kit.units import COMMON_FACTORS, KINDS, convert, to_si
+from kit.engine.seal_kit import build_seal_kit
+from kit.engine.spares import load_policy
+from kit.engine.units import COMMON_FACTORS, KINDS, convert, to_si
 
-UREG = pint.UnitRegistry()  # independent of kit.units.ureg: the reference the test checks against
+UREG = pint.UnitRegistry()  # independent of kit.engine.units.ureg: the reference the test checks against
 
 
 @pytest.mark.parametrize(
@@ -109,7 +109,7 @@ def test_reading_a_demo_file_in_common_units_does_not_import_pint():
     from pathlib import Path
 
     demo = Path(__file__).resolve().parents[1] / "demo_fleet" / "corvina_bay.toml"
-    code = ("import sys; from kit.particulars import load_vessel; load_vessel(sys.argv[1]); "
+    code = ("import sys; from kit.engine.particulars import load_vessel; load_vessel(sys.argv[1]); "
             "print('pint' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code, str(demo)], capture_output=True, text=True, check=True)
     assert out.stdout.strip() == "False"

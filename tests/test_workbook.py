@@ -10,12 +10,12 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from kit.bom import CatalogueMatch, consolidate
+from kit.engine.bom import CatalogueMatch, consolidate
 from kit.errors import OutputError
-from kit.particulars import load_vessel
-from kit.requirements import assess_vessel
-from kit.spares import load_policy
-from kit.workbook import ORDER_COLUMNS, write_workbook
+from kit.engine.particulars import load_vessel
+from kit.engine.requirements import assess_vessel
+from kit.engine.spares import load_policy
+from kit.files.workbook import ORDER_COLUMNS, write_workbook
 from spreadsheet_program import recalculated_sheets
 
 DEMO = Path(__file__).resolve().parents[1] / "demo_fleet"

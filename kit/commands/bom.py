@@ -34,20 +34,20 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
     from kit.commands.terminal import progress_bar
-    from kit.output_targets import check_outputs
+    from kit.files.output_targets import check_outputs
     from kit.services.orders import build_order
-    from kit.workbook import write_workbook
+    from kit.files.workbook import write_workbook
 
     check_outputs({"--out": out, "--csv": csv_out, "--json": json_out})
     order, scope = build_order(engine, vessel_ids, days, particulars, policy_file, progress_bar)
     path = write_workbook(order, out, days, scope)
     written = [str(path)]
     if csv_out:
-        from kit.bom_export import write_csv
+        from kit.files.bom_export import write_order_csv
 
-        written.append(str(write_csv(order, csv_out)))
+        written.append(str(write_order_csv(order, csv_out)))
     if json_out:
-        from kit.bom_export import write_json
+        from kit.files.bom_export import write_json
 
         written.append(str(write_json(order, json_out, days)))
     to_order = sum(1 for line in order.lines if line.to_order > 0)

@@ -31,7 +31,7 @@ def calc(particulars: str, days: float, policy_file: str | None, as_json: bool) 
 
     result = work_out(particulars, days, policy_file)
     if as_json:
-        from kit.report import vessel_json
+        from kit.engine.report import vessel_json
 
         click.echo(json.dumps(vessel_json(result), indent=2))
         return

@@ -32,7 +32,7 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     from rich.console import Console
 
     from kit.commands.terminal import shortfall_table, shown
-    from kit.output_targets import check_outputs
+    from kit.files.output_targets import check_outputs
     from kit.services.orders import check_voyage
 
     check_outputs({"--out": out})
@@ -40,7 +40,7 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     vessel, short = check.vessel, check.short
     console = Console()
     if out:
-        from kit.workbook import write_workbook
+        from kit.files.workbook import write_workbook
 
         write_workbook(short, out, days, f"pre-voyage check of {vessel.name}: shortfall for {days:g} days")
     if not short.lines:

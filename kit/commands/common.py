@@ -36,13 +36,13 @@ def _unknown_vessel(exc: UnknownVesselErrorType) -> str:
 def reports_errors(func: Callable[..., Any]) -> Callable[..., Any]:
     """Turn the project's own errors into one line on stderr and exit status 2 (an unknown
     vessel with the option that named it), with outputs of the command's own checked (see
-    :mod:`kit.output_targets`)."""
+    :mod:`kit.files.output_targets`)."""
 
     @functools.wraps(func)
     def wrapper(*args: Any, **kwargs: Any) -> Any:
         from kit.errors import KitError, UnknownVesselError
-        from kit.output_targets import protecting
-        from kit.safe_text import visible
+        from kit.files.output_targets import protecting
+        from kit.files.safe_text import visible
 
         try:
             with protecting(None):
@@ -76,7 +76,7 @@ class OptionError(click.ClickException):
 
 class Days(click.ParamType):
     """A number of days for an option: a plain decimal (or whole number) from 0 to
-    :data:`kit.numbers.MAX_DAYS`. ``click.FloatRange(min=0)`` takes ``inf``, ``nan`` and ``1e400``
+    :data:`kit.files.numbers.MAX_DAYS`. ``click.FloatRange(min=0)`` takes ``inf``, ``nan`` and ``1e400``
     (as infinity); this type refuses them, with click's usual one line and exit status 2."""
 
     def __init__(self, whole: bool = False):
@@ -84,7 +84,7 @@ class Days(click.ParamType):
         self.name = "whole days" if whole else "days"
 
     def convert(self, value: Any, param: click.Parameter | None, ctx: click.Context | None) -> float | int:
-        from kit.numbers import MAX_DAYS, parse_decimal
+        from kit.files.numbers import MAX_DAYS, parse_decimal
 
         number = value if isinstance(value, (int, float)) and not isinstance(value, bool) else parse_decimal(str(value).strip(), "point")
         if number is None or not 0 <= number <= MAX_DAYS or (self.whole and not float(number).is_integer()):
@@ -94,14 +94,14 @@ class Days(click.ParamType):
 
 
 class IsoDate(click.ParamType):
-    """A date for an option: an ISO 8601 calendar date, YYYY-MM-DD (see :mod:`kit.dates`)."""
+    """A date for an option: an ISO 8601 calendar date, YYYY-MM-DD (see :mod:`kit.files.dates`)."""
 
     name = "YYYY-MM-DD"
 
     def convert(self, value: Any, param: click.Parameter | None, ctx: click.Context | None):
         import datetime as dt
 
-        from kit.dates import EXPECTED, iso_date
+        from kit.files.dates import EXPECTED, iso_date
 
         if isinstance(value, dt.date):
             return value
@@ -112,7 +112,7 @@ class IsoDate(click.ParamType):
 
 
 def decimal_mark_option(func: Callable[..., Any]) -> Callable[..., Any]:
-    """``--decimal-mark point|comma`` for the imports (see :mod:`kit.numbers`)."""
+    """``--decimal-mark point|comma`` for the imports (see :mod:`kit.files.numbers`)."""
     return click.option("--decimal-mark", "decimal", type=click.Choice(["point", "comma"]), default=None,
                         help="The decimal mark of the file's numbers: point (12.50) or comma (12,50). Default: comma "
                              "for a semicolon-separated CSV, point for a comma- or tab-separated CSV and for text "
@@ -126,7 +126,7 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
     The value is a SQLite file path or a database URL; without one, kit's default SQLite file.
     With ``migrate`` a fresh database is built first and one at an old schema is refused.
     Errors, including the database's own, become one line and exit status 2. No file the
-    command writes may be the database (:func:`kit.output_targets.protecting`).
+    command writes may be the database (:func:`kit.files.output_targets.protecting`).
     """
 
     def decorate(func: Callable[..., Any]) -> Callable[..., Any]:
@@ -138,7 +138,7 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
             from catalog_schema.errors import DatabaseError
             from catalog_schema.migrate import require_current
 
-            from kit.output_targets import protecting
+            from kit.files.output_targets import protecting
 
             engine = make_engine(resolve_url(db))
             try:

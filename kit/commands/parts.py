@@ -43,7 +43,7 @@ def list_(engine, kind: str | None) -> None:
 
     Example: kit parts list --kind o_ring
     """
-    from kit.safe_text import visible
+    from kit.files.safe_text import visible
     from kit.services.fleet import list_parts
 
     for key, designation in list_parts(engine, kind):

@@ -51,7 +51,7 @@ def show(engine, vessel, on) -> None:
 
     Example: kit policy show --vessel CORVINA-BAY --on 2025-06-30
     """
-    from kit.safe_text import visible
+    from kit.files.safe_text import visible
     from kit.services.policies import show_policy
 
     shown = show_policy(engine, vessel, on)  # the policy checked before anything is printed

@@ -26,7 +26,7 @@ def particulars(out: str, from_toml: str | None) -> None:
 
     Example: kit template particulars corvina.xlsx --from demo_fleet/corvina_bay.toml
     """
-    from kit.output_targets import check_outputs
+    from kit.files.output_targets import check_outputs
     from kit.services.templates import write_particulars_template
 
     check_outputs({"OUT": out})
@@ -47,7 +47,7 @@ def stock_(engine, out: str, vessel: str | None) -> None:
 
     Example: kit template stock corvina_count.xlsx --vessel CORVINA-BAY
     """
-    from kit.output_targets import check_outputs
+    from kit.files.output_targets import check_outputs
     from kit.services.templates import write_stock_template
 
     check_outputs({"OUT": out})
@@ -63,7 +63,7 @@ def catalogue_(out: str) -> None:
 
     Example: kit template catalogue northwind.xlsx
     """
-    from kit.output_targets import check_outputs
+    from kit.files.output_targets import check_outputs
     from kit.services.templates import write_catalogue_template
 
     check_outputs({"OUT": out})

@@ -17,7 +17,7 @@ def shown(value: Any) -> str:
     stored text like ``[/b]`` is printed as it is rather than read as a style (or refused)."""
     from rich.markup import escape
 
-    from kit.safe_text import visible
+    from kit.files.safe_text import visible
 
     return escape(str(visible(value)))
 
@@ -59,8 +59,8 @@ def render(r, console) -> None:
     """Print the readable report of ``r`` on a rich ``console``."""
     from rich.table import Table
 
-    from kit.report import vessel_json
-    from kit.safe_text import each_text
+    from kit.engine.report import vessel_json
+    from kit.files.safe_text import each_text
 
     data = each_text(vessel_json(r), shown)  # text from files as it is: no markup, no control characters
     v = data["vessel"]

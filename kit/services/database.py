@@ -26,7 +26,7 @@ class DatabaseStatus:
 def database_status(engine: Engine) -> DatabaseStatus:
     """The database's schema revision and the rows of each table."""
     from catalog_schema.migrate import current, head, is_newer
-    from kit.database_status import table_rows
+    from kit.store.database_status import table_rows
 
     found = current(engine)
     with engine.connect() as conn:

@@ -10,7 +10,6 @@ elements and oil below what a long voyage needs.
 
 from __future__ import annotations
 
-import csv
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -64,25 +63,24 @@ def _invented_catalogue(lines) -> list[dict]:
 
 
 def _write_csv(path: Path, rows: list[dict]) -> None:
-    with path.open("w", newline="", encoding="utf-8") as f:
-        writer = csv.DictWriter(f, fieldnames=list(rows[0]))
-        writer.writeheader()
-        writer.writerows(rows)
+    from kit.files.sheets import write_csv
+
+    write_csv(path, list(rows[0]), [list(r.values()) for r in rows])
 
 
 def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
     """Build the demo in ``out`` and return where everything is. ``out`` must be new, empty, or a
-    folder an earlier demo made (:func:`kit.output_targets.make_demo_folder`), which is replaced.
+    folder an earlier demo made (:func:`kit.files.output_targets.make_demo_folder`), which is replaced.
     Every step is the service a user's command calls."""
     from catalog_schema.engine import make_engine
-    from kit.output_targets import check_demo_folder, make_demo_folder, record_demo_folder
-    from kit.requirements import assess_vessel
+    from kit.files.output_targets import check_demo_folder, make_demo_folder, record_demo_folder
+    from kit.engine.requirements import assess_vessel
     from kit.services.database import upgrade_database
     from kit.services.fleet import load_particulars, read_particulars, register_parts
     from kit.services.imports import import_catalogue, import_stock
     from kit.services.orders import build_order, check_voyage
-    from kit.spares import load_policy
-    from kit.workbook import write_workbook
+    from kit.engine.spares import load_policy
+    from kit.files.workbook import write_workbook
 
     check_demo_folder(out)  # before any work
     fleet = fleet or demo_fleet_folder()

@@ -13,13 +13,13 @@ from kit.services import Progress, no_progress
 
 def read_particulars(path: str | Path) -> list:
     """The vessels of ``path``: a .toml file, a particulars workbook (.xlsx) or a folder of .toml."""
-    from kit.particulars import load_folder, load_vessel
+    from kit.engine.particulars import load_folder, load_vessel
 
     target = Path(path)
     if target.is_dir():
         return load_folder(target)
     if target.suffix.lower() == ".xlsx":
-        from kit.particulars_sheet import load_particulars_sheet
+        from kit.files.particulars_sheet import load_particulars_sheet
 
         return [load_particulars_sheet(target)]
     return [load_vessel(target)]
@@ -29,7 +29,7 @@ def load_particulars(engine: Engine, path: str | Path) -> list[str]:
     """Check every vessel of ``path`` (see :func:`read_particulars`), then save them all in one
     transaction; return their ids."""
     from catalog_schema.engine import write_transaction
-    from kit.fleet_store import save_vessels
+    from kit.store.fleet_store import save_vessels
 
     vessels = read_particulars(path)
     return write_transaction(engine, lambda conn: save_vessels(conn, vessels))
@@ -37,10 +37,10 @@ def load_particulars(engine: Engine, path: str | Path) -> list[str]:
 
 def work_out(path: str | Path, days: float, policy_file: str | None = None):
     """One vessel's particulars file worked out over ``days`` under ``policy_file`` (or kit's
-    default policy): a :class:`kit.requirements.VesselResult`. No database."""
-    from kit.particulars import load_vessel
-    from kit.requirements import assess_vessel
-    from kit.spares import load_policy
+    default policy): a :class:`kit.engine.requirements.VesselResult`. No database."""
+    from kit.engine.particulars import load_vessel
+    from kit.engine.requirements import assess_vessel
+    from kit.engine.spares import load_policy
 
     vessel = load_vessel(path)
     return assess_vessel(vessel, days, load_policy(policy_file))
@@ -58,7 +58,7 @@ def register_parts(engine: Engine, vessel_ids=(), policy_file: str | None = None
     """Work out the vessels (all, or ``vessel_ids``) over ``days`` and add their generic parts in
     one transaction (a part needed only over a period, such as a top-up oil, needs ``days``)."""
     from catalog_schema.engine import write_transaction
-    from kit.parts_store import register_parts as add_parts
+    from kit.store.parts_store import register_parts as add_parts
     from kit.services.orders import assess_all, read_fleet
 
     vessels, policies = read_fleet(engine, vessel_ids, policy_file)
@@ -69,7 +69,7 @@ def register_parts(engine: Engine, vessel_ids=(), policy_file: str | None = None
 
 def list_parts(engine: Engine, kind: str | None = None) -> list[tuple[str, str]]:
     """The generic parts (or those of ``kind``) as (key, designation)."""
-    from kit.parts_store import list_parts as listed
+    from kit.store.parts_store import list_parts as listed
 
     with engine.connect() as conn:
         return listed(conn, kind)

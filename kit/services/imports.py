@@ -11,10 +11,10 @@ from sqlalchemy.engine import Engine
 
 def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None):
     """Replace ``supplier``'s catalogue by the rows of ``path``: a
-    :class:`kit.catalogue_import.CatalogueReport` listing what matched no generic part.
+    :class:`kit.store.catalogue_import.CatalogueReport` listing what matched no generic part.
     ``decimal`` is the decimal mark of the file's numbers ("point", "comma"; None: by the file's kind)."""
     from catalog_schema.engine import write_transaction
-    from kit.catalogue_import import read_catalogue, write_catalogue
+    from kit.store.catalogue_import import read_catalogue, write_catalogue
 
     catalogue = read_catalogue(path, supplier, decimal)
     return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
@@ -22,9 +22,9 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
 
 def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count", decimal: str | None = None):
     """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
-    :class:`kit.stock_import.StockReport`."""
+    :class:`kit.store.stock_import.StockReport`."""
     from catalog_schema.engine import write_transaction
-    from kit.stock_import import read_stock, write_stock
+    from kit.store.stock_import import read_stock, write_stock
 
     stock = read_stock(path, mode, decimal)
     return write_transaction(engine, lambda conn: write_stock(conn, stock, vessel_id))

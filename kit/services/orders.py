@@ -4,7 +4,7 @@
 Each vessel is worked out under its own spares policy: a policy file for all of them when one is
 given, else the policy in force today in the fleet database (the vessel's own, else its
 company's, else kit's default). Consolidation then takes the oil packages from the first vessel's
-policy (see :func:`kit.bom.consolidate`).
+policy (see :func:`kit.engine.bom.consolidate`).
 """
 
 from __future__ import annotations
@@ -20,7 +20,7 @@ from kit.services import Progress, no_progress
 
 def assess_all(vessels: list, days: float, policies: Mapping, progress: Progress = no_progress) -> list:
     """Each vessel over ``days`` under its policy in ``policies`` (by vessel id)."""
-    from kit.requirements import assess_vessel
+    from kit.engine.requirements import assess_vessel
 
     return [assess_vessel(v, days, policies[v.id]) for v in progress(vessels, "working out requirements")]
 
@@ -28,7 +28,7 @@ def assess_all(vessels: list, days: float, policies: Mapping, progress: Progress
 def _vessels(conn: Connection, vessel_ids: list[str], database: str) -> list:
     """The vessels asked for (all when none are), each known, at least one."""
     from kit.errors import InputError, UnknownVesselError
-    from kit.fleet_store import read_vessels
+    from kit.store.fleet_store import read_vessels
 
     vessels = read_vessels(conn, vessel_ids or None)
     missing = sorted(set(vessel_ids) - {v.id for v in vessels})
@@ -42,8 +42,8 @@ def _vessels(conn: Connection, vessel_ids: list[str], database: str) -> list:
 def read_fleet(engine: Engine, vessel_ids: Iterable[str], policy_file: str | None) -> tuple[list, dict]:
     """The vessels (all, or ``vessel_ids``) and the spares policy of each by id: ``policy_file``
     for all when given, else each vessel's policy in force today in the fleet database."""
-    from kit.policy_store import policies_in_force
-    from kit.spares import load_policy
+    from kit.store.policy_store import policies_in_force
+    from kit.engine.spares import load_policy
 
     ids = list(vessel_ids)
     with engine.connect() as conn:
@@ -56,17 +56,17 @@ def read_fleet(engine: Engine, vessel_ids: Iterable[str], policy_file: str | Non
 
 def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, particulars: str | None = None,
                 policy_file: str | None = None, progress: Progress = no_progress) -> tuple:
-    """The consolidated order (:class:`kit.bom.Order`) and a line saying what it covers: the
+    """The consolidated order (:class:`kit.engine.bom.Order`) and a line saying what it covers: the
     vessels of the fleet database (all, or ``vessel_ids``) less their stock on board, with the
     catalogue's offers; or, with ``particulars`` (a .toml file or folder), those vessels alone,
     under ``policy_file`` (or kit's default), no stock counted and no database."""
-    from kit.bom import consolidate
+    from kit.engine.bom import consolidate
 
     if particulars:
         from pathlib import Path
 
-        from kit.particulars import load_folder, load_vessel
-        from kit.spares import load_policy
+        from kit.engine.particulars import load_folder, load_vessel
+        from kit.engine.spares import load_policy
 
         path = Path(particulars)
         vessels = load_folder(path) if path.is_dir() else [load_vessel(path)]
@@ -75,7 +75,7 @@ def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, p
         policy = load_policy(policy_file)
         results = assess_all(vessels, days, {v.id: policy for v in vessels}, progress)
         return consolidate(results), f"{len(vessels)} vessel(s) from {particulars}, no stock counted"
-    from kit.order_sources import catalogue_offers, stock_on_board
+    from kit.store.order_sources import catalogue_offers, stock_on_board
 
     vessels, policies = read_fleet(engine, vessel_ids, policy_file)
     results = assess_all(vessels, days, policies, progress)
@@ -88,16 +88,16 @@ def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, p
 
 @dataclass(frozen=True)
 class VoyageCheck:
-    vessel: object  # the kit.particulars.Vessel checked
+    vessel: object  # the kit.engine.particulars.Vessel checked
     days: float
-    short: object  # a kit.bom.Order of the lines short (empty: everything is on board)
+    short: object  # a kit.engine.bom.Order of the lines short (empty: everything is on board)
 
 
 def check_voyage(engine: Engine, vessel_id: str, days: float, policy_file: str | None = None) -> VoyageCheck:
     """``vessel_id``'s on-board stock against what a voyage of ``days`` needs."""
-    from kit.order_sources import catalogue_offers, stock_on_board
-    from kit.preflight import preflight_order
-    from kit.requirements import assess_vessel
+    from kit.store.order_sources import catalogue_offers, stock_on_board
+    from kit.engine.preflight import preflight_order
+    from kit.engine.requirements import assess_vessel
 
     (vessel,), policies = read_fleet(engine, [vessel_id], policy_file)
     result = assess_vessel(vessel, days, policies[vessel.id])

@@ -10,7 +10,7 @@ from sqlalchemy.engine import Engine
 
 def write_particulars_template(out: str | Path, from_toml: str | Path | None = None) -> None:
     """The particulars workbook ``out`` (.xlsx), filled from a .toml particulars file when given."""
-    from kit.particulars_sheet import write_particulars_template as write
+    from kit.files.particulars_sheet import write_particulars_template as write
 
     write(out, from_toml)
 
@@ -18,8 +18,8 @@ def write_particulars_template(out: str | Path, from_toml: str | Path | None = N
 def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = None) -> int:
     """The stock sheet ``out`` (.xlsx or .csv): one row per generic part, with ``vessel``'s stock
     filled in; return how many part rows it has."""
-    from kit.sheets import write_sheet
-    from kit.stock_import import stock_template
+    from kit.files.sheets import write_sheet
+    from kit.store.stock_import import stock_template
 
     with engine.connect() as conn:
         sheet = stock_template(conn, vessel)
@@ -29,7 +29,7 @@ def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = N
 
 def write_catalogue_template(out: str | Path) -> None:
     """An empty catalogue sheet ``out`` (.xlsx or .csv) with kit's column names and notes."""
-    from kit.catalogue_import import COLUMNS, NOTES, SHEET
-    from kit.sheets import Sheet, write_sheet
+    from kit.store.catalogue_import import COLUMNS, NOTES, SHEET
+    from kit.files.sheets import Sheet, write_sheet
 
     write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES))

@@ -1,0 +1,14 @@
+# SPDX-License-Identifier: MIT
+"""The files kit reads and writes: every path a user gives is opened or written here.
+
+``input_files``, ``file_types``, ``toml_text``  input opened as regular files only, bounded in size
+``sheets``, ``xlsx_limits``  spreadsheets read safely (defusedxml, every part measured first)
+``particulars_sheet``  the particulars sheet and its templates
+``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
+``safe_text``  formula text and control characters: checked on the way in, visible on the way out
+``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
+``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
+
+The files layer may use the engine; it imports no :mod:`kit.store`, no :mod:`kit.services` and no
+terminal library (``tests/test_lint.py`` checks it).
+"""

@@ -1,0 +1,117 @@
+# SPDX-License-Identifier: MIT
+"""Numbers in imported sheets: plain decimals in an explicit style, finite and bounded.
+
+A number in a sheet is a plain decimal: an optional sign, digits and at most one decimal mark.
+Which mark is the decimal one is never guessed from the value: a semicolon-separated CSV is
+read with a decimal comma (the usual export of spreadsheet programs where the comma is the
+decimal mark), a comma- or tab-separated CSV and the text cells of a workbook with a decimal
+point, and ``--decimal-mark point|comma`` states it for a file. A value with a grouping
+separator (``1,250.00``, ``1.250,00``, ``1 250``, ``1'250``), the other decimal mark, an exponent,
+infinity or NaN is refused, naming the style in force and how to change it.
+
+Every number also has bounds, so nothing overflows a database column or a sum: the whole
+numbers (pack sizes, lead times, days) stay far inside a 32-bit signed integer, which is
+PostgreSQL's ``integer`` (SQLite's is 64-bit), and the decimals far inside a double.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any
+
+from kit.errors import InputError
+
+if TYPE_CHECKING:  # only for annotations: the CLI's option types import this module at start-up
+    from kit.files.sheets import Row, Table
+
+# Decimal mark -> what it looks like, and the pattern of a plain decimal written with it.
+MARKS = {"point": ".", "comma": ","}
+_PLAIN = {name: re.compile(rf"[+-]?(?:[0-9]+(?:{re.escape(mark)}[0-9]*)?|{re.escape(mark)}[0-9]+)") for name, mark in MARKS.items()}
+# A CSV's separator -> the decimal mark its numbers are read with (unless --decimal-mark says).
+SEPARATOR_MARK = {";": "comma", ",": "point", "\t": "point"}
+SEPARATOR_NAMES = {";": "semicolon", ",": "comma", "\t": "tab"}
+EXAMPLES = {"point": "12.50", "comma": "12,50"}
+OPTION = "--decimal-mark"
+# Longer text is no plain number a person typed (and Python's int() refuses past 4,300 digits).
+MAX_CHARS = 40
+
+# Bounds of the whole numbers kit stores (each far inside 2**31 - 1 = 2,147,483,647).
+MAX_PACK_QTY = 1_000_000  # pieces, litres or metres in one pack
+MAX_DAYS = 3650  # ten years: lead times, days of cover, periods and voyages
+# Bounds of the decimals kit stores.
+MAX_PRICE = 1e12  # per pack, in any currency (a large pack in a currency of small units)
+MAX_QUANTITY = 1e9  # on-board stock of one part at one place, pcs, L or m
+
+
+@dataclass(frozen=True)
+class DecimalMark:
+    """The decimal mark in force for one file, and why (for the refusal message)."""
+
+    name: str  # "point" or "comma"
+    why: str
+
+    def expected(self) -> str:
+        other = "comma" if self.name == "point" else "point"
+        return (f"a plain number with a decimal {self.name}, e.g. {EXAMPLES[self.name]}, and no grouping separators "
+                f"(decimal {self.name}: {self.why}; {OPTION} {other} reads {EXAMPLES[other]})")
+
+
+def decimal_mark(table: Table, given: str | None) -> DecimalMark:
+    """The decimal mark for ``table``: ``given`` (the option), else the CSV separator's, else point."""
+    if given is not None:
+        if given not in MARKS:
+            raise InputError(table.path, OPTION, "one of " + ", ".join(MARKS), got=repr(given))
+        return DecimalMark(given, f"{OPTION} {given}")
+    separator = table.separator
+    if separator is None:
+        return DecimalMark("point", "the default for text in a workbook's cells")
+    return DecimalMark(SEPARATOR_MARK[separator], f"the default for a {SEPARATOR_NAMES[separator]}-separated CSV")
+
+
+def parse_decimal(text: str, mark: str) -> float | None:
+    """``text`` as a float if it is a plain decimal with ``mark`` ("point" or "comma"), else None.
+
+    >>> parse_decimal("12,50", "comma"), parse_decimal("1.250,00", "comma"), parse_decimal("12,50", "point")
+    (12.5, None, None)
+    """
+    if len(text) > MAX_CHARS or _PLAIN[mark].fullmatch(text) is None:
+        return None
+    return float(text.replace(",", ".") if mark == "comma" else text)
+
+
+def number(table: Table, row: Row, column: str, mark: DecimalMark, *, minimum: float | None = 0.0,
+           maximum: float) -> float | None:
+    """The decimal in ``column`` of ``row`` (None when empty), refused unless plain, finite and in bounds."""
+    value = row.values.get(column)
+    if value is None:
+        return None
+    if isinstance(value, str):
+        parsed = parse_decimal(value, mark.name)
+        if parsed is None:
+            raise table.error(row, column, mark.expected(), value if len(value) <= MAX_CHARS else value[:MAX_CHARS] + "...")
+        value = parsed
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
+        raise table.error(row, column, "a finite number", value)
+    low = -maximum if minimum is None else minimum
+    if not low <= value <= maximum:
+        raise table.error(row, column, f"a number from {low:,.0f} to {maximum:,.0f}", value)
+    return float(value)
+
+
+def whole_number(table: Table, row: Row, column: str, minimum: int, maximum: int,
+                 default: int | None = None) -> int | None:
+    """The whole number in ``column`` of ``row`` (``default`` when empty), from ``minimum`` to ``maximum``."""
+    raw: Any = row.values.get(column)
+    if raw is None:
+        return default
+    value = raw
+    if isinstance(raw, str) and len(raw) <= MAX_CHARS and raw.isascii() and raw.isdigit():  # "²" isdigit too
+        value = int(raw)
+    elif isinstance(raw, float) and math.isfinite(raw) and raw.is_integer():
+        value = int(raw)
+    if isinstance(value, bool) or not isinstance(value, int) or not minimum <= value <= maximum:
+        shown = raw[:MAX_CHARS] + "..." if isinstance(raw, str) and len(raw) > MAX_CHARS else raw
+        raise table.error(row, column, f"a whole number from {minimum:,} to {maximum:,}", shown)
+    return value

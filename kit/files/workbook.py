@@ -1,0 +1,389 @@
+# SPDX-License-Identifier: MIT
+"""The bill of materials workbook (openpyxl, write-only mode).
+
+Sheets: ``Cover`` (scope, date, period, policy, totals, the caution and the basis notes),
+``Order lines``, ``Vessel split``, ``Seal kits``, ``Oil and filters`` and ``Gear checks``.
+"To order", packs, line totals, the oil package plan and the cover totals are live formulas over
+"Required" and "On board", so a purchaser who edits an on-board count sees the order follow.
+Text that starts with a formula character is written as a string cell (:mod:`kit.files.safe_text`).
+The file is written to a temporary name beside the target and renamed into place, so a crash
+never leaves half a workbook.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import math
+from pathlib import Path
+from typing import Any, Iterable
+
+from openpyxl import Workbook
+from openpyxl.cell import WriteOnlyCell
+from openpyxl.styles import Alignment, Font, PatternFill
+from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.properties import PageSetupProperties
+
+from kit.engine.display_units import L_MIN_PER_M3_S, L_PER_M3, PA_PER_BAR, US_GAL_PER_M3
+from kit.engine.bom import Order
+from kit.safety import SAFETY
+from kit.files.atomic import replace_atomically
+from kit.engine.oil_grades import density_kg_per_l
+from kit.engine.report import seal_json
+from kit.files.safe_text import CONTROL, TRIGGERS, is_risky, visible
+from kit.engine.seal_kit import mm
+
+HEADER_FONT = Font(bold=True)
+HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
+WRAP = Alignment(wrap_text=True, vertical="top")
+HEADER_LINE_PT = 13.0  # one line of the bold heading font, with its leading
+
+# Number formats only on money, which a purchaser reads to the cent; quantities kit rounds itself
+# (and the formulas over them) read as they are in General. A styled cell costs several times a
+# plain one to write: in a 1,000-vessel order the quantity formats alone took about 0.5 s.
+ORDER_COLUMNS = (
+    ("No", 6, None), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
+    ("Required", 11, None), ("On board", 11, None), ("To order", 11, None), ("UoM", 6, None),
+    ("Pack size", 10, None), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
+    ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
+    ("Lead time [days]", 10, None), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
+)
+COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS, 1)}
+
+
+class _Sheet:
+    """A write-only sheet with a styled, frozen, filtered header row and print set-up."""
+
+    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True,
+                 fit_width: bool = True):
+        self.ws = wb.create_sheet(title)
+        self.table = header_row
+        self._reused: dict[tuple[int, str], WriteOnlyCell] = {}
+        self.columns = list(columns)
+        self.formats = [fmt for _, _, fmt in self.columns]
+        self._formatted = [i for i, fmt in enumerate(self.formats) if fmt]
+        for i, (_, width, _) in enumerate(self.columns, 1):
+            self.ws.column_dimensions[get_column_letter(i)].width = width
+        ps = self.ws.page_setup
+        ps.orientation = "landscape"
+        ps.fitToWidth, ps.fitToHeight = (1 if fit_width else 0), 0
+        self.ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=fit_width)
+        self.rows = 0
+        if header_row:
+            self.ws.freeze_panes = "A2"
+            self.ws.print_title_rows = "1:1"
+            # a wrapped heading's row does not grow by itself in every program: lines drawn over row 2
+            lines = max(math.ceil(len(name) / max(width - 2, 1)) for name, width, _ in self.columns)
+            self.ws.row_dimensions[1].height = HEADER_LINE_PT * lines
+            self.append([name for name, _, _ in self.columns], header=True)
+
+    def _header_cell(self, value: Any) -> WriteOnlyCell:
+        c = WriteOnlyCell(self.ws, value=visible(value))
+        if is_risky(value) and not isinstance(value, Formula):
+            c.data_type = "s"  # user text: never a formula
+        c.font, c.fill = HEADER_FONT, HEADER_FILL
+        if self.table:  # column headings wrap; the cover's own lines do not
+            c.alignment = WRAP
+        return c
+
+    def _styled(self, column: int, kind: str, value: Any) -> WriteOnlyCell:
+        """A cell of ``column`` for a number format (``kind`` "fmt") or for text kept as text
+        ("text"): one per column and kind, reused row by row, since a write-only sheet writes
+        each row out as it is appended."""
+        c = self._reused.get((column, kind))
+        if c is None:
+            c = self._reused[(column, kind)] = WriteOnlyCell(self.ws)
+            if kind == "fmt":
+                c.number_format = self.formats[column]
+        c.value = value
+        if kind == "text":
+            c.data_type = "s"  # user or supplier text: never a formula
+        return c
+
+    def append(self, values: list[Any], header: bool = False) -> int:
+        """Append a row. Plain values go to openpyxl as they are (a styled cell costs several
+        times a plain one to write); only money in a formatted column and risky text get a cell."""
+        if header:
+            row = [self._header_cell(v) for v in values]
+        else:
+            row = list(values)
+            for i in self._formatted:
+                v = row[i] if i < len(row) else None
+                if v is not None and (not isinstance(v, str) or isinstance(v, Formula)):
+                    row[i] = self._styled(i, "fmt", v)
+            for i, v in enumerate(row):
+                if isinstance(v, str) and not isinstance(v, Formula):
+                    if CONTROL.search(v):  # stored by another program: openpyxl would refuse the cell
+                        row[i] = v = visible(v)
+                    if v.startswith(TRIGGERS):
+                        row[i] = self._styled(i, "text", v)
+        self.ws.append(row)
+        self.rows += 1
+        return self.rows
+
+    def finish(self) -> None:
+        if self.rows > 1:
+            self.ws.auto_filter.ref = f"A1:{get_column_letter(len(self.columns))}{self.rows}"
+
+
+class Formula(str):
+    """A formula kit itself writes (never user text)."""
+
+
+def _equal_to(text: str) -> str:
+    """A SUMIF criterion, as a formula's string literal, that matches cells holding ``text`` as
+    kit writes it (:func:`kit.files.safe_text.visible`) and nothing else: ``=`` first, so a stored
+    ``>`` or ``<`` is no comparison, ``~`` before the wildcards ``*`` and ``?``, and ``"`` doubled
+    (string literals: ECMA-376 Part 1, 18.17 Formulas; the criteria's ``=``, ``~`` and wildcards as
+    SUMIF reads them: from memory, checked by recalculating in LibreOffice in the tests)."""
+    escaped = "".join("~" + ch if ch in "~*?" else ch for ch in visible(text))
+    return '"=' + escaped.replace('"', '""') + '"'
+
+
+def _roundup(ratio: str) -> str:
+    """Whole packs for ``ratio`` (a formula), never below 0; the 1e-9 keeps 3.0000000001 at 3."""
+    return f"ROUNDUP(MAX(0,{ratio}-0.000000001),0)"
+
+
+def _order_sheet(wb: Workbook, order: Order) -> dict[str, int]:
+    sheet = _Sheet(wb, "Order lines", ORDER_COLUMNS)
+    rows: dict[str, int] = {}
+    for line in order.lines:
+        r = sheet.rows + 1
+        m = line.match
+        pack = m.pack_quantity if m else (None if line.kind == "oil" else 1)
+        c = COL
+        packs = _roundup(f"{c['To order']}{r}/{c['Pack size']}{r}")
+        sheet.append([
+            line.number, line.designation, line.standard, line.compound,
+            round(line.required, 3), round(line.on_board, 3),
+            Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), line.uom, pack,
+            Formula(f'=IF({c["Pack size"]}{r}="","",{packs})'),
+            m.supplier if m else None, m.part_number if m else None, m.price if m else None,
+            m.currency if m else None,
+            Formula(f'=IF(OR({c["Price per pack"]}{r}="",{c["Packs"]}{r}=""),"",{c["Packs"]}{r}*{c["Price per pack"]}{r})'),
+            m.lead_time_days if m else None, line.basis,
+            "; ".join(f"{v}: {q:g}" for v, q in line.split.items()), line.key,
+        ])
+        rows[line.key] = r
+    sheet.finish()
+    return rows
+
+
+def _split_sheet(wb: Workbook, order: Order) -> None:
+    sheet = _Sheet(wb, "Vessel split", (("No", 6, None), ("Designation", 60, None), ("Vessel", 20, None),
+                                         ("Required", 11, None), ("UoM", 6, None)))
+    for line in order.lines:
+        for vessel, qty in line.split.items():
+            sheet.append([line.number, line.designation, vessel, round(qty, 3), line.uom])
+    sheet.finish()
+
+
+def _seal_sheet(wb: Workbook, order: Order) -> None:
+    cols = (("Vessel", 18, None), ("Unit", 10, None), ("Actuator", 11, None), ("Role", 8, None), ("Part", 40, None),
+            ("d [mm]", 9, None), ("D [mm]", 9, None), ("L [mm]", 9, None), ("O-ring ID [mm]", 10, None),
+            ("O-ring CS [mm]", 10, None), ("Strip t [mm]", 9, None), ("Cut length [mm]", 11, None),
+            ("Qty per actuator", 10, None), ("Qty per unit", 9, None), ("Compound", 10, None), ("Standard", 22, None),
+            ("Dimensions from", 34, None))
+    sheet = _Sheet(wb, "Seal kits", cols)
+    for r in order.results:
+        for u in r.units:
+            g = u.unit.geometry
+            vane = (mm(g.hub_diameter), mm(g.housing_bore)) if u.unit.actuator == "rotary_vane" else None
+            for s in u.kit.lines:
+                j = seal_json(s, u.kit, vane)
+                sheet.append([r.vessel.id, u.unit.id, u.unit.actuator, j["role"], j["part"], j["d_mm"], j["D_mm"], j["L_mm"],
+                              j.get("id_mm"), j.get("cs_mm"), j.get("strip_thickness_mm"), j.get("cut_length_mm"),
+                              j["qty_per_actuator"], j["qty"], j["compound"], j["standard"], j["origin"]])
+    sheet.finish()
+
+
+def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) -> None:
+    packages = sorted(order.packages, key=lambda p: -p.volume)
+    cols = [("Fluid", 30, None), ("Required [L]", 12, "#,##0.0"), ("On board [L]", 12, "#,##0.0"),
+            ("To order [L]", 12, "#,##0.0"), ("To order [kg]", 12, "#,##0.0"), ("To order [US gal]", 12, "#,##0.0")]
+    cols += [(f"{p.name} {p.volume * L_PER_M3:g} L", 11, None) for p in packages] + [("Supply [L]", 12, "#,##0.0")]
+    sheet = _Sheet(wb, "Oil and filters", cols)
+    smallest = packages[-1].volume * L_PER_M3 if packages else 1.0
+    for oil in order.oil:
+        r = sheet.rows + 1
+        o = order_rows[oil.fluid_key]
+        category = oil.fluid_key.split(":")[1].split()[0].upper()
+        to_order = f"D{r}"
+        row: list[Any] = [oil.designation, Formula(f"='Order lines'!{COL['Required']}{o}"),
+                          Formula(f"='Order lines'!{COL['On board']}{o}"), Formula(f"='Order lines'!{COL['To order']}{o}"),
+                          Formula(f"={to_order}*{density_kg_per_l(category)}"), Formula(f"={to_order}/{L_PER_M3 / US_GAL_PER_M3}")]
+        # The package rule of kit.engine.oil.plan_packages, cell by cell: remaining = to order less what is planned so far.
+        planned = []
+        for i, p in enumerate(packages):
+            size = p.volume * L_PER_M3
+            rem = f"({to_order}-{'-'.join(planned) or '0'})" if planned else to_order
+            letter = get_column_letter(7 + i)
+            up = _roundup(f"{rem}/{size:g}")
+            if i == len(packages) - 1:
+                row.append(Formula(f"={up}"))
+            else:
+                down = f"ROUNDDOWN(MAX(0,{rem}/{size:g}+0.000000001),0)"
+                row.append(Formula(f"=IF({up}*{size:g}-{rem}<{smallest:g},{up},{down})"))
+            planned.append(f"{letter}{r}*{size:g}")
+        row.append(Formula("=" + "+".join(planned)))
+        sheet.append(row)
+    sheet.finish()
+    filters = _Sheet(wb, "Filter elements", (("Vessel", 18, None), ("Unit", 10, None), ("Position", 12, None),
+                                             ("Element", 20, None), ("Elements per change", 10, None), ("Changes due", 10, None),
+                                             ("Spare sets", 10, None), ("Elements", 10, None)))
+    for r in order.results:
+        for u in r.units:
+            for f in u.filters:
+                filters.append([r.vessel.id, u.unit.id, f.position, f.element_ref, f.elements_per_change, f.changes,
+                                f.spare_sets, Formula(f"=E{filters.rows + 1}*(F{filters.rows + 1}+G{filters.rows + 1})")])
+    filters.finish()
+
+
+# One column a rule of SOLAS II-1/29 (kit.engine.solas.judge and the storage tank), each cell its verdict.
+RULE_COLUMNS = ("SOLAS II-1/29.3.2", "SOLAS II-1/29.6.1.1", "SOLAS II-1/29.6.1.2", "SOLAS II-1/29.6.1.3",
+                "SOLAS II-1/29.16.1", "SOLAS II-1/29.6.1.3 reduced mode", "SOLAS II-1/29.3.3", "SOLAS II-1/29.4.3",
+                "SOLAS II-1/29.2.2", "SOLAS II-1/29.2.3", "SOLAS II-1/29.12.3")
+
+
+def rule_cells(rules: list) -> list[str | None]:
+    """The verdict of each of ``RULE_COLUMNS`` (blank where the rule was not judged), with the
+    reduced mode's figures in its cell since its verdict is only "info"."""
+    found = {r.clause: (r.text if r.verdict == "info" else r.verdict) for r in rules}
+    return [found.get(clause) for clause in RULE_COLUMNS]
+
+
+def _checks_sheet(wb: Workbook, order: Order) -> None:
+    cols = (("Vessel", 18, None), ("Ship type", 10, None), ("Unit", 10, None), ("Service", 11, None), ("Actuator", 11, None),
+            ("Torque midships [kNm]", 12, None), ("Torque at max angle [kNm]", 12, None),
+            ("Swing 35-30 one pump [s]", 11, None), ("Swing 35-30 all pumps [s]", 11, None),
+            ("Swing judged [s]", 10, None), ("Judged on", 40, None), ("Limit [s]", 8, None), ("28 s rule", 9, None),
+            ("Travel [mm]", 10, None), ("Stroke [mm]", 10, None), ("Travel within stroke", 10, None),
+            ("Working pressure [bar]", 11, None), ("Pressure within ratings", 10, None), ("Warnings", 80, None),
+            ("Torque basis", 40, None), ("Rudder torque ahead [kNm]", 12, None), ("Rudder torque astern [kNm]", 12, None),
+            ("Gear torque at 35 deg [kNm]", 12, None), ("Gear torque pressure [bar]", 11, None),
+            ("Margin over rudder torque [%]", 11, None),
+            ("Rudder angle reachable [deg]", 10, None), ("Pump flow needed each [L/min]", 11, None),
+            ("Auxiliary steering gear required", 12, None), *((clause, 14, None) for clause in RULE_COLUMNS))
+    # some 40 columns: fitted to one page wide they print at a fifth of their size; print them
+    # across pages instead, each with the vessel and unit
+    sheet = _Sheet(wb, "Gear checks", cols, fit_width=False)
+    sheet.ws.print_title_cols = "A:C"
+    yes = {True: "yes", False: "NO", None: None}
+    for r in order.results:
+        for u in r.units:
+            c = u.checks
+            k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
+            s = lambda x: None if x is None else round(x, 1)  # noqa: E731
+            sheet.append([r.vessel.id, r.vessel.ship_type, u.unit.id, u.unit.service, u.unit.actuator,
+                          k(c.torque_midships), k(c.torque_max_angle), s(c.swing_time_one_pump), s(c.swing_time_all_pumps),
+                          s(c.swing_time_judged), c.judging_case, 28 if u.unit.is_steering else None,
+                          yes[c.swing_rule_met], None if c.travel is None else round(c.travel * 1000),
+                          None if c.stroke is None else round(c.stroke * 1000), yes[c.travel_ok],
+                          round(u.unit.working_pressure / PA_PER_BAR, 1), yes[c.pressure_ok], " | ".join(u.warnings),
+                          *_rudder_cells(c),
+                          s(c.reachable_angle and math.degrees(c.reachable_angle)),
+                          s(c.pump_flow_needed and c.pump_flow_needed * L_MIN_PER_M3_S),
+                          None if not u.unit.is_steering else {True: "yes", False: "no", None: "unless 29.6.1.3 shown"}[c.auxiliary_gear_required],
+                          *rule_cells(c.rules)])
+    sheet.finish()
+
+
+def _rudder_cells(c) -> list:
+    """Torque basis and the gear against the rudder (kNm, bar, %), blank where not worked out."""
+    load = c.rudder_load
+    k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
+    return [c.torque_basis, k(load and load.torque_ahead), k(load and load.torque_astern), k(c.gear_torque_35),
+            None if c.gear_torque_pressure is None else round(c.gear_torque_pressure / PA_PER_BAR, 1),
+            None if c.rudder_margin is None else round(100 * c.rudder_margin, 1)]
+
+
+MAX_VESSELS_LISTED = 12
+COVER_LINE_CHARS = 110
+
+
+def _long(sheet: _Sheet, item: str, text: str, header: bool = False) -> None:
+    """Long cover text over as many rows as it needs: row heights do not grow by themselves in
+    every spreadsheet program, so a wrapped cell could hide its end."""
+    import textwrap
+
+    for i, part in enumerate(textwrap.wrap(text, COVER_LINE_CHARS) or [""]):
+        sheet.append([item if i == 0 else None, part], header=header and i == 0)
+
+
+def policy_groups(order: Order) -> list[tuple[str, list[str]]]:
+    """One entry per distinct spares policy of the order, first vessel's first: "name (source)"
+    and the ids of the vessels worked out under it."""
+    found: dict[str, list[str]] = {}
+    for r in order.results:
+        found.setdefault(f"{r.policy.name} ({r.policy.source})", []).append(r.vessel.id)
+    return list(found.items())
+
+
+def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
+    sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False)
+    policies = policy_groups(order)
+    sheet.append(["Bill of materials: steering gear and hydraulic spares"], header=True)
+    sheet.append(["Scope", scope])
+    if len(order.results) <= MAX_VESSELS_LISTED:
+        _long(sheet, "Vessels", ", ".join(f"{r.vessel.name} ({r.vessel.id})" for r in order.results))
+    else:
+        sheet.append(["Vessels", f"{len(order.results)} vessels: see the Vessel split sheet"])
+    sheet.append(["Prepared on", dt.date.today().isoformat()])
+    sheet.append(["Period [days]", days])
+    if len(policies) <= 1:
+        sheet.append(["Spares policy in force", policies[0][0] if policies else ""])
+    else:
+        for text, ids in policies:
+            vessels = ", ".join(ids) if len(ids) <= MAX_VESSELS_LISTED else f"{len(ids)} vessels"
+            _long(sheet, "Spares policy in force", f"{text}: {vessels}")
+        first = order.results[0].policy
+        _long(sheet, "Oil packages bought", f"from the first vessel's policy, {first.name}: "
+              + ", ".join(f"{p.name} {p.volume * L_PER_M3:g} L" for p in order.packages))
+    n = len(order.lines) + 1
+    sheet.append(["Order lines", len(order.lines)])
+    sheet.append(["Lines with something to order", Formula(f"=COUNTIF('Order lines'!{COL['To order']}2:{COL['To order']}{n},\">0\")")])
+    currencies = sorted({line.match.currency for line in order.lines if line.match and line.match.currency})
+    for cur in currencies:
+        sheet.append([f"Total of priced lines [{cur}]",
+                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},{_equal_to(cur)},"
+                              f"'Order lines'!{COL['Line total']}2:{COL['Line total']}{n})")])
+    unpriced = sum(1 for line in order.lines if not (line.match and line.match.price is not None))
+    sheet.append(["Lines with no catalogue price", unpriced])
+    sheet.append([])
+    _long(sheet, "CAUTION", SAFETY, header=True)
+    notes = [
+        ("Series housings", "Seal housings and O-rings sized from the ISO series (ISO 5597, ISO 6195, ISO 10766, ISO 3601) "
+                            "are to be checked against the maker's drawing before ordering; rows of kit's tables marked "
+                            "'from memory' are not confirmed from the standard's text."),
+        ("Basis of each line", "SOLAS II-1/29.12.3: storage tank able to recharge one power actuating system including "
+                               "its reservoir. 'common practice': a trade rule of thumb. 'company policy': the company's "
+                               "spares policy file."),
+        ("Live formulas", "To order = MAX(0, Required - On board); Packs = To order / Pack size, rounded up; "
+                          "Line total = Packs x Price per pack. Edit 'On board' and the order follows."),
+        ("Oil packages", "Largest package first: as many as fit, or one more when it overshoots by less than the smallest "
+                         "package; the smallest package rounds up. Supply is never short."),
+    ]
+    for item, text in notes:
+        _long(sheet, item, text)
+
+
+def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> Path:
+    """Write the bill of materials workbook of ``order`` to ``path`` atomically."""
+    path = Path(path)
+    wb = Workbook(write_only=True)
+    _cover(wb, order, days, scope)
+    rows = _order_sheet(wb, order)
+    _split_sheet(wb, order)
+    _seal_sheet(wb, order)
+    _oil_filter_sheet(wb, order, rows)
+    _checks_sheet(wb, order)
+    save_atomically(wb, path)
+    return path
+
+
+def save_atomically(wb: Workbook, path: Path) -> None:
+    """Save ``wb`` to a temporary file beside ``path`` and rename it into place."""
+    replace_atomically(path, wb.save)
+
+
+__all__ = ["write_workbook", "save_atomically"]
