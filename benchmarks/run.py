@@ -137,7 +137,7 @@ def pg_drop(base: str) -> None:
 def import_all_stock(db: str, stock: Path) -> None:
     """Every vessel's stock count, in this process (one command per vessel would take minutes)."""
     from catalog_schema.engine import make_engine, resolve_url
-    from kit.store.stock_import import import_stock
+    from kit.services.imports import import_stock
 
     engine = make_engine(resolve_url(db))
     try:
