@@ -34,10 +34,9 @@ from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from catalog_schema.locks import hold
 from catalog_schema.refusals import located
 from catalog_schema.sql import insert_rows, upsert
-from kit.errors import InputError
 from kit.files.numbers import MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, decimal_mark, number, whole_number
 from kit.store.parts_store import PART_COLUMNS, KeyReader, part_ids
-from kit.files.safe_text import NO_CONTROL, CONTROL, checked_text
+from kit.files.safe_text import NO_CONTROL, CONTROL
 from kit.files.sheets import Table, read_table
 
 SHEET = "catalogue"
@@ -120,10 +119,8 @@ class CatalogueFile:
 
 def read_catalogue(path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueFile:
     """``supplier``'s catalogue rows in ``path``, every cell checked. ``decimal`` is the decimal
-    mark of the file's numbers ("point" or "comma"; None: by the file's kind, see :mod:`kit.files.numbers`)."""
-    supplier = checked_text(supplier, source=str(path), field="--supplier").strip()
-    if not supplier:
-        raise InputError(str(path), "--supplier", "a supplier name", got="an empty name")
+    mark of the file's numbers ("point" or "comma"; None: by the file's kind, see :mod:`kit.files.numbers`).
+    ``supplier`` is checked by the caller (:func:`kit.services.imports.import_catalogue`)."""
     table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
     return CatalogueFile(str(path), supplier, table, _entries(table, decimal))
 
@@ -134,7 +131,7 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile) -> CatalogueRepo
     path, supplier, table, entries = catalogue.path, catalogue.supplier, catalogue.table, catalogue.entries
     hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)
     located(conn, SUPPLIERS, ["name"], [{"name": supplier}], lambda c, one: c.execute(upsert(c, SUPPLIERS, ["name"]), one),
-            lambda _: path, {"name": "--supplier"})
+            lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
     known = part_ids(conn)
     report = CatalogueReport(supplier, len(entries), 0)
@@ -147,5 +144,5 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile) -> CatalogueRepo
     report.matched = len(rows) - len(report.unmatched)
     conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
     located(conn, ENTRIES, ENTRY_COLUMNS, rows, lambda c, some: insert_rows(c, ENTRIES, ENTRY_COLUMNS, some),
-            lambda i: table.where(entries[i][0]), {"supplier_id": "--supplier", "part_id": "part_key"})
+            lambda i: table.where(entries[i][0]), {"supplier_id": "supplier name", "part_id": "part_key"})
     return report

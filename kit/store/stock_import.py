@@ -34,7 +34,6 @@ from catalog_schema.core_tables import PARTS, STOCK
 from catalog_schema.refusals import located
 from catalog_schema.sql import upsert
 from kit.files.dates import iso_date
-from kit.errors import InputError
 from kit.store.fleet_store import vessel_company
 from kit.files.numbers import MAX_QUANTITY, DecimalMark, decimal_mark, number
 from kit.files.safe_text import CONTROL, NO_CONTROL
@@ -109,9 +108,8 @@ class StockFile:
 
 def read_stock(path: str | Path, mode: str = "count", decimal: str | None = None) -> StockFile:
     """The stock rows of ``path``, every cell checked. ``decimal`` is the decimal mark of the
-    file's numbers ("point" or "comma"; None: by the file's kind)."""
-    if mode not in MODES:
-        raise InputError(str(path), "--mode", "one of " + ", ".join(MODES), got=repr(mode))
+    file's numbers ("point" or "comma"; None: by the file's kind); ``mode`` one of :data:`MODES`,
+    checked by the caller (:func:`kit.services.imports.import_stock`)."""
     table = read_table(path, SHEET, known=COLUMNS, required=("part_key", "quantity"))
     return StockFile(table, mode, _rows(table, mode, decimal_mark(table, decimal)))
 
@@ -136,7 +134,7 @@ def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockRepo
     def upsert_located(chosen: list[tuple[Row, dict]], statement) -> None:
         """Run ``statement`` for the rows' values, naming the line of one the database refuses."""
         located(conn, STOCK, (), [v for _, v in chosen], lambda c, some: c.execute(statement, list(some)),
-                lambda i: table.where(chosen[i][0].line), {"vessel_id": "--vessel", "part_id": "part_key"})
+                lambda i: table.where(chosen[i][0].line), {"vessel_id": "vessel id", "part_id": "part_key"})
 
     if mode == "count":
         upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
