@@ -26,7 +26,8 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
     :class:`kit.store.catalogue_import.CatalogueReport` listing what matched no generic part.
     ``decimal`` is the decimal mark of the file's numbers ("point", "comma"; None: by the file's kind)."""
     from catalog_schema.engine import write_transaction
-    from kit.store.catalogue_import import read_catalogue, write_catalogue
+    from kit.files.catalogue_sheet import read_catalogue
+    from kit.store.catalogue_import import write_catalogue
 
     catalogue = read_catalogue(path, supplier_name(supplier, path), decimal)
     return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
@@ -36,7 +37,8 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "
     """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
     :class:`kit.store.stock_import.StockReport`."""
     from catalog_schema.engine import write_transaction
-    from kit.store.stock_import import MODES, read_stock, write_stock
+    from kit.files.stock_sheet import MODES, read_stock
+    from kit.store.stock_import import write_stock
 
     if mode not in MODES:
         raise ArgumentError(str(path), "counting mode", "one of " + ", ".join(MODES), got=repr(mode))
