@@ -206,7 +206,7 @@ def checked_catalogue(db: str, path: Path, supplier: str, out: Path) -> None:
 
     from catalog_schema.core_tables import CATALOGUE_ENTRIES
     from catalog_schema.sql import insert_statement
-    from kit.store.catalogue_import import COLUMNS, ENTRY_COLUMNS, SHEET, _entries
+    from kit.files.catalogue_sheet import COLUMNS, ENTRY_COLUMNS, SHEET, _entries
     from kit.files.sheets import read_table
 
     table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))

@@ -34,6 +34,15 @@ class InputError(KitError, ValueError):
         return f"{where}{self.field}: expected {self.expected}{found}"
 
 
+class ArgumentError(InputError):
+    """A value handed to a library call (not read from a file) is not what was expected.
+
+    ``field`` names the value neutrally ("days of cover", "supplier name"); ``source`` is the file
+    it was given for, or empty. A face says how the user gave it: the command line puts its
+    option in ``field`` and its command in an empty ``source`` (``kit/commands/common.py``).
+    """
+
+
 @dataclass
 class OutOfSeriesError(KitError, ValueError):
     """A size lies past the largest (or below the smallest) entry of a standard series."""

@@ -14,7 +14,8 @@ from sqlalchemy import select
 
 from catalog_schema.engine import write_transaction
 from db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtures)
-from kit.store.catalogue_import import COLUMNS, ENTRIES
+from kit.files.catalogue_sheet import COLUMNS
+from kit.store.catalogue_import import ENTRIES
 from kit.services.imports import import_catalogue, import_stock
 from kit.cli import main
 from kit.errors import InputError

@@ -14,8 +14,8 @@ from __future__ import annotations
 import pytest
 from click.testing import CliRunner
 
-import kit.store.catalogue_import
-import kit.store.stock_import
+import kit.files.catalogue_sheet
+import kit.files.stock_sheet
 from db_support import db_url, dump, engine  # noqa: F401  (fixtures)
 from kit.cli import main
 from test_db_imports import CATALOGUE_HEADER, O_RING, OIL, ROD_SEAL, STOCK_HEADER, fleet, write_csv  # noqa: F401  (fixture)
@@ -32,7 +32,7 @@ def _catalogue(tmp_path, rows: int = 5):
 
 def _entries_with(monkeypatch, index: int, field: str, value) -> None:
     """Make the catalogue's parsing hand on row ``index`` with ``field`` set to ``value``."""
-    real = kit.store.catalogue_import._entries
+    real = kit.files.catalogue_sheet._entries
 
     def altered(table, *args, **kwargs):
         out = real(table, *args, **kwargs)
@@ -41,7 +41,7 @@ def _entries_with(monkeypatch, index: int, field: str, value) -> None:
         out[index] = tuple(row)
         return out
 
-    monkeypatch.setattr(kit.store.catalogue_import, "_entries", altered)
+    monkeypatch.setattr(kit.files.catalogue_sheet, "_entries", altered)
 
 
 def _refused(fleet, args) -> str:
@@ -120,7 +120,7 @@ def test_a_nul_in_text_names_the_line_and_column_on_postgresql(fleet, tmp_path, 
 
 
 def _stock_with(monkeypatch, index: int, position: int, value) -> None:
-    real = kit.store.stock_import._rows
+    real = kit.files.stock_sheet._rows
 
     def altered(table, *args, **kwargs):
         out = real(table, *args, **kwargs)
@@ -129,7 +129,7 @@ def _stock_with(monkeypatch, index: int, position: int, value) -> None:
         out[index] = tuple(row)
         return out
 
-    monkeypatch.setattr(kit.store.stock_import, "_rows", altered)
+    monkeypatch.setattr(kit.files.stock_sheet, "_rows", altered)
 
 
 def test_stock_below_zero_the_database_refuses_names_the_line(fleet, tmp_path, monkeypatch):

@@ -5,7 +5,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from kit.errors import InputError
-from kit.store.parts_store import KeyReader
+from kit.files.part_keys import KeyReader
 from kit.files.sheets import Table
 from kit.engine.units import to_si
 

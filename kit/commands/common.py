@@ -10,6 +10,7 @@ from typing import TYPE_CHECKING, Any, Callable
 import click
 
 if TYPE_CHECKING:
+    from kit.errors import KitError
     from kit.errors import UnknownVesselError as UnknownVesselErrorType
 
 
@@ -19,11 +20,40 @@ if TYPE_CHECKING:
 FLEET_SELECTIONS = frozenset({"bom", "check", "parts register"})
 
 
+# The option each command takes a value by, for the neutral name the library gives it in an
+# ArgumentError (or a row the database refused for it); the message is otherwise the library's.
+OPTIONS = {
+    "policy set": {"company or vessel": "--company/--vessel", "days of cover": "--days", "policy name": "--name",
+                   "company": "--company", "vessel": "--vessel", "note": "--note"},
+    "stock import": {"counting mode": "--mode", "vessel id": "--vessel"},
+    "catalogue import": {"supplier name": "--supplier"},
+}
+
+
+def _command() -> str:
+    ctx = click.get_current_context(silent=True)
+    return "" if ctx is None else " ".join(ctx.command_path.split()[1:])
+
+
+def _with_option(exc: KitError) -> KitError:
+    """``exc`` in the command line's words: a value the library names neutrally gets the
+    option it came by, and a value given with no file the command's name."""
+    import dataclasses
+
+    from catalog_schema.refusals import RefusedRowError
+    from kit.errors import ArgumentError
+
+    command = _command()
+    option = OPTIONS.get(command, {}).get(getattr(exc, "field", None))
+    if not isinstance(exc, (ArgumentError, RefusedRowError)) or option is None:
+        return exc
+    return dataclasses.replace(exc, field=option, source=exc.source or f"kit {command}")
+
+
 def _unknown_vessel(exc: UnknownVesselErrorType) -> str:
     from kit.errors import InputError
 
-    ctx = click.get_current_context(silent=True)
-    command = "" if ctx is None else " ".join(ctx.command_path.split()[1:])
+    command = _command()
     if command in FLEET_SELECTIONS:
         hint = InputError("--vessel", "vessel", "the id of a vessel in the fleet database (kit load adds them)",
                           got=repr(exc.vessel_id))
@@ -51,7 +81,7 @@ def reports_errors(func: Callable[..., Any]) -> Callable[..., Any]:
             click.echo(f"kit: error: {visible(_unknown_vessel(exc))}", err=True)
             sys.exit(2)
         except KitError as exc:  # stored text in a message must not break the one line
-            click.echo(f"kit: error: {visible(str(exc))}", err=True)
+            click.echo(f"kit: error: {visible(str(_with_option(exc)))}", err=True)
             sys.exit(2)
 
     return wrapper

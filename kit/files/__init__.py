@@ -4,11 +4,13 @@
 ``input_files``, ``file_types``, ``toml_text``  input opened as regular files only, bounded in size
 ``sheets``, ``xlsx_limits``  spreadsheets read safely (defusedxml, every part measured first)
 ``particulars_sheet``  the particulars sheet and its templates
+``catalogue_sheet``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
+    and checked (the store writes them); the columns that name a generic part
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
 ``safe_text``  formula text and control characters: checked on the way in, visible on the way out
 ``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
 
-The files layer may use the engine; it imports no :mod:`kit.store`, no :mod:`kit.services` and no
-terminal library (``tests/test_lint.py`` checks it).
+The files layer may use the engine and ``catalog_schema.conventions`` (shared constants that
+import nothing); it imports no :mod:`kit.store`, no :mod:`kit.services` and no terminal library (``tests/test_lint.py`` checks it).
 """

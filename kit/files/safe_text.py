@@ -27,13 +27,13 @@ REPLACEMENT = "\ufffd"
 NO_CONTROL = "text without control characters (tab, newline, NUL, escape and the like) or bytes that are not UTF-8"
 
 
-def checked_text(value: str, *, source: str, field: str) -> str:
-    """``value`` unchanged, or :class:`InputError` naming ``source`` and ``field`` if it holds a
-    control character (the one check every stored text passes)."""
+def checked_text(value: str, *, source: str, field: str, error: type[InputError] = InputError) -> str:
+    """``value`` unchanged, or ``error`` (an :class:`InputError`) naming ``source`` and ``field`` if
+    it holds a control character (the one check every stored text passes)."""
     found = CONTROL.search(value)
     if found is not None:
         shown = value if len(value) <= 40 else value[:40] + "..."
-        raise InputError(source, field, NO_CONTROL, got=f"{shown!r}, U+{ord(found.group()):04X} at character {found.start() + 1}")
+        raise error(source, field, NO_CONTROL, got=f"{shown!r}, U+{ord(found.group()):04X} at character {found.start() + 1}")
     return value
 
 

@@ -8,15 +8,28 @@ from pathlib import Path
 
 from sqlalchemy.engine import Engine
 
+from kit.errors import ArgumentError
+
+
+def supplier_name(supplier: str, path: str | Path) -> str:
+    """The supplier's name as stored (trimmed), or :class:`ArgumentError` ("supplier name")."""
+    from kit.files.safe_text import checked_text
+
+    name = checked_text(supplier, source=str(path), field="supplier name", error=ArgumentError).strip()
+    if not name:
+        raise ArgumentError(str(path), "supplier name", "a supplier name", got="an empty name")
+    return name
+
 
 def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None):
     """Replace ``supplier``'s catalogue by the rows of ``path``: a
     :class:`kit.store.catalogue_import.CatalogueReport` listing what matched no generic part.
     ``decimal`` is the decimal mark of the file's numbers ("point", "comma"; None: by the file's kind)."""
     from catalog_schema.engine import write_transaction
-    from kit.store.catalogue_import import read_catalogue, write_catalogue
+    from kit.files.catalogue_sheet import read_catalogue
+    from kit.store.catalogue_import import write_catalogue
 
-    catalogue = read_catalogue(path, supplier, decimal)
+    catalogue = read_catalogue(path, supplier_name(supplier, path), decimal)
     return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
 
 
@@ -24,7 +37,10 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "
     """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
     :class:`kit.store.stock_import.StockReport`."""
     from catalog_schema.engine import write_transaction
-    from kit.store.stock_import import read_stock, write_stock
+    from kit.files.stock_sheet import MODES, read_stock
+    from kit.store.stock_import import write_stock
 
+    if mode not in MODES:
+        raise ArgumentError(str(path), "counting mode", "one of " + ", ".join(MODES), got=repr(mode))
     stock = read_stock(path, mode, decimal)
     return write_transaction(engine, lambda conn: write_stock(conn, stock, vessel_id))

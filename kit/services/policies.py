@@ -8,6 +8,24 @@ from dataclasses import dataclass
 
 from sqlalchemy.engine import Engine
 
+from kit.errors import ArgumentError
+
+
+def check_policy_values(*, name: str, cover_days: int, company: str | None, vessel: str | None,
+                        note: str | None) -> None:
+    """Refuse values a policy cannot be set from, by neutral names (:class:`ArgumentError`; the
+    command line names its options for them)."""
+    from kit.files.numbers import MAX_DAYS
+    from kit.files.safe_text import checked_text
+
+    if (company is None) == (vessel is None):
+        raise ArgumentError("", "company or vessel", "exactly one of the two", got="both" if company else "neither")
+    if not 0 <= cover_days <= MAX_DAYS:
+        raise ArgumentError("", "days of cover", f"a whole number of days from 0 to {MAX_DAYS}", got=repr(cover_days))
+    for field, text in (("policy name", name), ("company", company), ("vessel", vessel), ("note", note)):
+        if text is not None:
+            checked_text(text, source="", field=field, error=ArgumentError)
+
 
 def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.date, company: str | None = None,
                vessel: str | None = None, note: str | None = None, policy_file: str | None = None) -> None:
@@ -18,6 +36,7 @@ def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.
     from kit.engine.spares import read_policy_text
 
     content = read_policy_text(policy_file) if policy_file else None
+    check_policy_values(name=name, cover_days=cover_days, company=company, vessel=vessel, note=note)
     write_transaction(engine, lambda conn: record(conn, name=name, cover_days=cover_days, in_force_from=in_force_from,
                                                   company=company, vessel=vessel, note=note,
                                                   content=content, content_source=str(policy_file)))

@@ -19,17 +19,18 @@ def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = N
     """The stock sheet ``out`` (.xlsx or .csv): one row per generic part, with ``vessel``'s stock
     filled in; return how many part rows it has."""
     from kit.files.sheets import write_sheet
-    from kit.store.stock_import import stock_template
+    from kit.files.stock_sheet import stock_sheet
+    from kit.store.stock_import import stock_rows
 
     with engine.connect() as conn:
-        sheet = stock_template(conn, vessel)
+        sheet = stock_sheet(stock_rows(conn, vessel))
     write_sheet(out, sheet)
     return len(sheet.rows)
 
 
 def write_catalogue_template(out: str | Path) -> None:
     """An empty catalogue sheet ``out`` (.xlsx or .csv) with kit's column names and notes."""
-    from kit.store.catalogue_import import COLUMNS, NOTES, SHEET
+    from kit.files.catalogue_sheet import COLUMNS, NOTES, SHEET
     from kit.files.sheets import Sheet, write_sheet
 
     write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES))

@@ -4,11 +4,12 @@
 ``fleet_store``  vessels, units and rudders saved and read back
 ``parts_store``  generic parts and their catalogue entries
 ``policy_store``  the spares policy in force per company and vessel
-``stock_import``, ``catalogue_import``  a vessel's stock and a supplier's catalogue written
+``stock_import``, ``catalogue_import``  a vessel's stock and a supplier's catalogue written (read and
+    checked by :mod:`kit.files.stock_sheet` and :mod:`kit.files.catalogue_sheet`)
 ``order_sources``  stock and catalogue offers read for an order
 ``database_status``  rows per table
 
 Only the store runs queries. A store function takes a Connection and leaves the transaction
 to its caller (a function in :mod:`kit.services`). The store may use the engine and the files;
-it imports no :mod:`kit.services` and no terminal library (``tests/test_lint.py`` checks it).
+it imports no :mod:`kit.services`, reads no sheet (openpyxl, :mod:`kit.files.sheets`) and no terminal library (``tests/test_lint.py`` checks it).
 """

@@ -17,10 +17,7 @@ from sqlalchemy.engine import Connection
 
 from catalog_schema.core_tables import SPARES_POLICIES
 from catalog_schema.sql import upsert
-from kit.errors import InputError
-from kit.files.numbers import MAX_DAYS
 from kit.store.fleet_store import VESSELS, company_id, vessel_company
-from kit.files.safe_text import checked_text
 from kit.engine.spares import Policy, policy_from_text
 
 POLICIES = SPARES_POLICIES
@@ -48,15 +45,9 @@ def set_policy(conn: Connection, *, name: str, cover_days: int, in_force_from: d
     """Record a policy for exactly one company or one vessel (replacing one of the same date).
 
     ``content`` (a company policy file's TOML text) is validated first; a policy that does not
-    parse or validate is refused with ``content_source`` (the file) named.
+    parse or validate is refused with ``content_source`` (the file) named. The other values are
+    checked by the caller (:func:`kit.services.policies.set_policy`).
     """
-    if (company is None) == (vessel is None):
-        raise InputError("kit policy set", "--company/--vessel", "exactly one of the two", got="both" if company else "neither")
-    if not 0 <= cover_days <= MAX_DAYS:
-        raise InputError("kit policy set", "--days", f"a whole number of days from 0 to {MAX_DAYS}", got=repr(cover_days))
-    for option, text in (("--name", name), ("--company", company), ("--vessel", vessel), ("--note", note)):
-        if text is not None:
-            checked_text(text, source="kit policy set", field=option)
     if content is not None:
         policy_from_text(content, content_source)
     if vessel is not None:

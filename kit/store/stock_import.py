@@ -1,19 +1,6 @@
 # SPDX-License-Identifier: MIT
-"""A vessel's on-board stock from .xlsx or .csv, all or nothing; and the sheet kit writes for it.
-
-Columns (sheet ``stock`` of a workbook, or a CSV file), as :func:`stock_template` writes them:
-
-===============  ==============================================================================
-``part_key``     the generic part's normalised key (required; the template lists them)
-``designation``  what the part is, for the person counting (not read back)
-``location``     where on board it is kept (optional; default ``unassigned``)
-``quantity``     a number from 0 to 10**9 in the part's unit of measure (pcs, L, m); in ``adjust``
-                 mode the change: + for a receipt, - for an issue
-``counted_on``   the date of the count, YYYY-MM-DD and not after today (optional)
-===============  ==============================================================================
-
-Numbers are plain decimals in the file's decimal mark (:mod:`kit.files.numbers`), dates ISO 8601
-calendar dates (:mod:`kit.files.dates`); a location holds no control characters.
+"""A vessel's on-board stock, read and checked by :mod:`kit.files.stock_sheet`, written into the
+fleet database all or nothing; and the rows of the sheet kit writes for it.
 
 In ``count`` mode each row sets the stock of its part at its location; in ``adjust`` mode it
 adds to it, in the database (``quantity = quantity + change``), so two imports at once both
@@ -22,34 +9,16 @@ count. Stock that would go below zero is refused, and the database's CHECK refus
 
 from __future__ import annotations
 
-import datetime as dt
 from dataclasses import dataclass
-from pathlib import Path
 
 from sqlalchemy import and_, bindparam, or_, select, update
 from sqlalchemy.engine import Connection
 
-from catalog_schema.conventions import DEFAULT_LOCATION
 from catalog_schema.core_tables import PARTS, STOCK
 from catalog_schema.refusals import located
 from catalog_schema.sql import upsert
-from kit.files.dates import iso_date
-from kit.errors import InputError
+from kit.files.stock_sheet import StockFile
 from kit.store.fleet_store import vessel_company
-from kit.files.numbers import MAX_QUANTITY, DecimalMark, decimal_mark, number
-from kit.files.safe_text import CONTROL, NO_CONTROL
-from kit.files.sheets import Row, Sheet, Table, read_table
-
-SHEET = "stock"
-COLUMNS = ("part_key", "designation", "location", "quantity", "counted_on")
-MODES = ("count", "adjust")
-NOTES = {
-    "part_key": "the generic part's key, as kit lists it; do not change it",
-    "designation": "what the part is (for the person counting; not read back)",
-    "location": f"where on board the part is kept; empty means {DEFAULT_LOCATION!r}",
-    "quantity": "count mode: what is on board (>= 0); adjust mode: + received, - used",
-    "counted_on": "date of the count, YYYY-MM-DD",
-}
 
 
 @dataclass(frozen=True)
@@ -57,63 +26,6 @@ class StockReport:
     vessel: str
     mode: str
     rows: int
-
-
-def _date(table: Table, row: Row) -> dt.date | None:
-    value = row.values.get("counted_on")
-    if value is None:
-        return None
-    if isinstance(value, dt.datetime):  # a workbook's date cell
-        day = value.date()
-    elif isinstance(value, dt.date):
-        day = value
-    else:
-        day = iso_date(value) if isinstance(value, str) else None
-        if day is None:
-            raise table.error(row, "counted_on", "a date, YYYY-MM-DD (ISO 8601)", value)
-    if day > dt.date.today():
-        raise table.error(row, "counted_on", f"the date of a count already made (today is {dt.date.today().isoformat()})",
-                          day.isoformat())
-    return day
-
-
-def _rows(table: Table, mode: str, mark: DecimalMark) -> list[tuple[Row, str, str, float, dt.date | None]]:
-    seen: dict[tuple[str, str], int] = {}
-    out = []
-    for row in table.rows:
-        key = row.values.get("part_key")
-        if key is None:
-            raise table.error(row, "part_key", "the generic part's key (see kit template stock)", "an empty cell")
-        location = str(row.values.get("location") or DEFAULT_LOCATION)
-        if CONTROL.search(location):
-            raise table.error(row, "location", NO_CONTROL, location)
-        if (key, location) in seen:
-            raise table.error(row, "part_key", f"each part once per location (already on {table.where(seen[key, location])})", key)
-        seen[key, location] = row.line
-        quantity = number(table, row, "quantity", mark, minimum=0.0 if mode == "count" else None, maximum=MAX_QUANTITY)
-        if quantity is None:
-            raise table.error(row, "quantity", "a number", "an empty cell")
-        out.append((row, str(key), location, quantity, _date(table, row)))
-    return out
-
-
-@dataclass(frozen=True)
-class StockFile:
-    """A stock file read and checked, ready to write: its table and each row's (row, part key,
-    location, quantity, counted_on)."""
-
-    table: Table
-    mode: str
-    rows: list[tuple[Row, str, str, float, dt.date | None]]
-
-
-def read_stock(path: str | Path, mode: str = "count", decimal: str | None = None) -> StockFile:
-    """The stock rows of ``path``, every cell checked. ``decimal`` is the decimal mark of the
-    file's numbers ("point" or "comma"; None: by the file's kind)."""
-    if mode not in MODES:
-        raise InputError(str(path), "--mode", "one of " + ", ".join(MODES), got=repr(mode))
-    table = read_table(path, SHEET, known=COLUMNS, required=("part_key", "quantity"))
-    return StockFile(table, mode, _rows(table, mode, decimal_mark(table, decimal)))
 
 
 def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockReport:
@@ -133,10 +45,10 @@ def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockRepo
     values = [v for _, v in entries]
     natural_key = ["vessel_id", "part_id", "location"]
 
-    def upsert_located(chosen: list[tuple[Row, dict]], statement) -> None:
+    def upsert_located(chosen: list[tuple], statement) -> None:
         """Run ``statement`` for the rows' values, naming the line of one the database refuses."""
         located(conn, STOCK, (), [v for _, v in chosen], lambda c, some: c.execute(statement, list(some)),
-                lambda i: table.where(chosen[i][0].line), {"vessel_id": "--vessel", "part_id": "part_key"})
+                lambda i: table.where(chosen[i][0].line), {"vessel_id": "vessel id", "part_id": "part_key"})
 
     if mode == "count":
         upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
@@ -153,7 +65,7 @@ def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockRepo
     return StockReport(vessel_id, mode, len(values))
 
 
-def _refuse_negative(conn: Connection, table: Table, vessel_id: str, entries: list[tuple[Row, dict]]) -> None:
+def _refuse_negative(conn: Connection, table, vessel_id: str, entries: list[tuple]) -> None:
     """Lock the rows an adjustment takes from and refuse one that would go below zero."""
     issues = [(row, v) for row, v in entries if v["quantity"] < 0]
     if not issues:
@@ -169,8 +81,9 @@ def _refuse_negative(conn: Connection, table: Table, vessel_id: str, entries: li
             raise table.error(row, "quantity", f"an issue of at most {have:g} (what is on board at {v['location']})", v["quantity"])
 
 
-def stock_template(conn: Connection, vessel_id: str | None) -> Sheet:
-    """The stock sheet: one row per generic part, with the vessel's current stock filled in."""
+def stock_rows(conn: Connection, vessel_id: str | None) -> list[list]:
+    """The stock sheet's rows (:data:`kit.files.stock_sheet.COLUMNS`): one per generic part, with the
+    vessel's current stock filled in."""
     parts = conn.execute(select(PARTS.c.id, PARTS.c.key, PARTS.c.designation).order_by(PARTS.c.kind, PARTS.c.key)).all()
     held: dict[int, list] = {}
     if vessel_id is not None:
@@ -182,4 +95,4 @@ def stock_template(conn: Connection, vessel_id: str | None) -> Sheet:
         for s in held.get(p.id, [None]):
             rows.append([p.key, p.designation, None if s is None else s.location, None if s is None else s.quantity,
                          None if s is None or s.counted_on is None else s.counted_on.isoformat()])
-    return Sheet(SHEET, COLUMNS, rows, NOTES)
+    return rows

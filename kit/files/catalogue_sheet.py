@@ -1,0 +1,109 @@
+# SPDX-License-Identifier: MIT
+"""A supplier's catalogue from .xlsx or .csv read and checked, every cell.
+
+One row per supplier part. Columns (sheet ``catalogue`` of a workbook, or a CSV file):
+
+==================  ===========================================================================
+``supplier_ref``    the supplier's part number (required, once per file)
+``part_kind`` ...   the generic part by kind and dimensions, or ``part_key`` (see
+                    :mod:`kit.files.part_keys`)
+``description``     the supplier's own text (optional)
+``pack_qty``        pieces (or litres, metres) per pack, a whole number 1 to 1,000,000 (default 1)
+``price``           price per pack, a number 0 to 10**12 (optional)
+``currency``        an ISO 4217 alphabetic code (required; see :mod:`kit.files.currencies`)
+``lead_time_days``  whole days from order to dispatch, 0 to 3,650 (optional)
+==================  ===========================================================================
+
+Numbers are plain decimals in the file's decimal mark (:mod:`kit.files.numbers`); text holds no
+control characters (:func:`kit.files.safe_text.checked_text`).
+
+The import (:mod:`kit.store.catalogue_import`) replaces that supplier's whole catalogue in one transaction. Rows are matched to the
+generic parts already in the database by their normalised key; rows that match nothing are kept
+(so a part registered later finds them) and listed in the report.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+
+from kit.files.numbers import MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, decimal_mark, number, whole_number
+from kit.files.part_keys import PART_COLUMNS, KeyReader
+from kit.files.safe_text import NO_CONTROL, CONTROL
+from kit.files.sheets import Table, read_table
+
+SHEET = "catalogue"
+COLUMNS = ("supplier_ref", *PART_COLUMNS, "description", "pack_qty", "price", "currency", "lead_time_days")
+NOTES = {
+    "supplier_ref": "your part number, once per sheet",
+    "part_key": "the generic part's key, if you have it (then the part columns may stay empty)",
+    "part_kind": "rod_seal, piston_seal, stock_seal, wiper, guide_ring, o_ring, o_ring_cord, vane_strip, filter_element, oil, spare",
+    "d": 'inner diameter, a length with a unit, e.g. "280 mm"',
+    "D": 'outer diameter, e.g. "300 mm"',
+    "L": 'housing length, e.g. "25 mm"',
+    "t": "guide strip thickness", "cut": "cut length of a strip or cord", "id": "O-ring inside diameter",
+    "cs": "O-ring cross-section", "length": "vane strip length", "h": "vane height",
+    "spec": "seal compound (NBR, AU ...), oil grade (HM 46) or element/spare reference, as in the part key",
+    "pack_qty": "pieces (or L, m) per pack, a whole number, default 1",
+    "price": "price per pack, a number", "currency": "ISO 4217 code, e.g. EUR",
+    "lead_time_days": "whole days from order to dispatch",
+}
+
+
+# A checked row: its line, then the values of ENTRY_COLUMNS from supplier_ref on.
+Entry = tuple[int, str, str, str | None, int, float | None, str, int | None]
+ENTRY_COLUMNS = ("supplier_id", "part_id", "supplier_ref", "part_key", "description", "pack_qty", "price", "currency",
+                 "lead_time_days")
+
+
+def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
+    """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
+    currency, lead_time_days); the first bad cell refuses the file. ``mark_option`` is the
+    decimal mark the user stated (None: the file's default, see :mod:`kit.files.numbers`)."""
+    from kit.files.currencies import currency_code
+
+    mark = decimal_mark(table, mark_option)
+    keys = KeyReader(table)
+    seen: dict[str, int] = {}
+    out: list[Entry] = []
+    for row in table.rows:
+        v = row.values
+        ref = v.get("supplier_ref")
+        if ref is None:
+            raise table.error(row, "supplier_ref", "the supplier's part number", "an empty cell")
+        if not isinstance(ref, str):
+            ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
+        if CONTROL.search(ref):
+            raise table.error(row, "supplier_ref", NO_CONTROL, ref)
+        if ref in seen:
+            raise table.error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
+        seen[ref] = row.line
+        currency = currency_code(table, row, v.get("currency"))
+        description = v.get("description")
+        if description is not None:
+            description = str(description)
+            if CONTROL.search(description):
+                raise table.error(row, "description", NO_CONTROL, description)
+        out.append((row.line, ref, keys.key(row), description,
+                    whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY, default=1),
+                    number(table, row, "price", mark, maximum=MAX_PRICE), currency,
+                    whole_number(table, row, "lead_time_days", 0, MAX_DAYS)))
+    return out
+
+
+@dataclass(frozen=True)
+class CatalogueFile:
+    """A catalogue file read and checked, ready to write."""
+
+    path: str
+    supplier: str
+    table: Table
+    entries: list[Entry]
+
+
+def read_catalogue(path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueFile:
+    """``supplier``'s catalogue rows in ``path``, every cell checked. ``decimal`` is the decimal
+    mark of the file's numbers ("point" or "comma"; None: by the file's kind, see :mod:`kit.files.numbers`).
+    ``supplier`` is checked by the caller (:func:`kit.services.imports.import_catalogue`)."""
+    table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
+    return CatalogueFile(str(path), supplier, table, _entries(table, decimal))
