@@ -33,6 +33,21 @@ COMPANIES = Table(
     UniqueConstraint("name", name=conv("uq_companies_name")),
 )
 
+EXCHANGE_RATES = Table(
+    "exchange_rates",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("currency", String, nullable=False),
+    Column("base", String, nullable=False),
+    Column("rate", Float, nullable=False),
+    Column("set_on", Date, nullable=False),
+    Column("source", String, nullable=False),
+    PrimaryKeyConstraint("id", name=conv("pk_exchange_rates")),
+    UniqueConstraint("currency", "base", "set_on", name=conv("uq_exchange_rates_currency_base_set_on")),
+    CheckConstraint("length(currency) = 3 AND length(base) = 3 AND currency <> base", name=conv("ck_exchange_rates_currencies")),
+    CheckConstraint("rate > 0", name=conv("ck_exchange_rates_rate")),
+)
+
 PARTS = Table(
     "parts",
     metadata,
@@ -45,11 +60,24 @@ PARTS = Table(
     UniqueConstraint("key", name=conv("uq_parts_key")),
 )
 
+PURCHASING = Table(
+    "purchasing",
+    metadata,
+    Column("id", Integer, nullable=False, default=1),
+    Column("base_currency", String, nullable=True),
+    Column("handling_days", Integer, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_purchasing")),
+    CheckConstraint("base_currency IS NULL OR length(base_currency) = 3", name=conv("ck_purchasing_base_currency")),
+    CheckConstraint("handling_days IS NULL OR (handling_days >= 0 AND handling_days <= 365)", name=conv("ck_purchasing_handling_days")),
+    CheckConstraint("id = 1", name=conv("ck_purchasing_one_row")),
+)
+
 SUPPLIERS = Table(
     "suppliers",
     metadata,
     Column("id", Integer, nullable=False),
     Column("name", String, nullable=False),
+    Column("preferred", Boolean, nullable=False, default=False, server_default="0"),
     PrimaryKeyConstraint("id", name=conv("pk_suppliers")),
     UniqueConstraint("name", name=conv("uq_suppliers_name")),
 )
@@ -67,15 +95,29 @@ CATALOGUE_ENTRIES = Table(
     Column("price", Float, nullable=True),
     Column("currency", String, nullable=False),
     Column("lead_time_days", Integer, nullable=True),
+    Column("pack_content", Float, nullable=True),
+    Column("pack_label", String, nullable=True),
     PrimaryKeyConstraint("id", name=conv("pk_catalogue_entries")),
     ForeignKeyConstraint(["part_id"], ["parts.id"], ondelete="SET NULL", name=conv("fk_catalogue_entries_part_id_parts")),
     ForeignKeyConstraint(["supplier_id"], ["suppliers.id"], ondelete="CASCADE", name=conv("fk_catalogue_entries_supplier_id_suppliers")),
     UniqueConstraint("supplier_id", "supplier_ref", name=conv("uq_catalogue_entries_supplier_id_supplier_ref")),
     CheckConstraint("length(currency) = 3", name=conv("ck_catalogue_entries_currency")),
     CheckConstraint("lead_time_days IS NULL OR lead_time_days >= 0", name=conv("ck_catalogue_entries_lead_time_days")),
+    CheckConstraint("pack_content IS NULL OR pack_content > 0", name=conv("ck_catalogue_entries_pack_content")),
     CheckConstraint("pack_qty >= 1", name=conv("ck_catalogue_entries_pack_qty")),
     CheckConstraint("price IS NULL OR price >= 0", name=conv("ck_catalogue_entries_price")),
     Index(conv("ix_catalogue_entries_part_key"), "part_key", unique=False),
+)
+
+PART_SUPPLIERS = Table(
+    "part_suppliers",
+    metadata,
+    Column("part_id", Integer, nullable=False),
+    Column("supplier_id", Integer, nullable=False),
+    Column("note", String, nullable=True),
+    PrimaryKeyConstraint("part_id", name=conv("pk_part_suppliers")),
+    ForeignKeyConstraint(["part_id"], ["parts.id"], ondelete="CASCADE", name=conv("fk_part_suppliers_part_id_parts")),
+    ForeignKeyConstraint(["supplier_id"], ["suppliers.id"], ondelete="CASCADE", name=conv("fk_part_suppliers_supplier_id_suppliers")),
 )
 
 VESSELS = Table(
@@ -91,6 +133,19 @@ VESSELS = Table(
     ForeignKeyConstraint(["company_id"], ["companies.id"], ondelete="RESTRICT", name=conv("fk_vessels_company_id_companies")),
     CheckConstraint("gross_tonnage >= 1", name=conv("ck_vessels_gross_tonnage")),
     CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker', 'chemical_tanker', 'gas_carrier')", name=conv("ck_vessels_ship_type")),
+)
+
+DELIVERIES = Table(
+    "deliveries",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("vessel_id", String, nullable=False),
+    Column("port", String, nullable=False),
+    Column("due_on", Date, nullable=False),
+    Column("note", String, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_deliveries")),
+    ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_deliveries_vessel_id_vessels")),
+    UniqueConstraint("vessel_id", "due_on", name=conv("uq_deliveries_vessel_id_due_on")),
 )
 
 SPARES_POLICIES = Table(
@@ -145,6 +200,8 @@ UNITS = Table(
     Column("max_rudder_angle", Float, nullable=True),
     Column("isolation_valves", Boolean, nullable=False, default=False),
     Column("rudder_carrier", String, nullable=True),
+    Column("maker", String, nullable=True),
+    Column("model", String, nullable=True),
     PrimaryKeyConstraint("id", name=conv("pk_units")),
     ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_units_vessel_id_vessels")),
     UniqueConstraint("vessel_id", "ref", name=conv("uq_units_vessel_id_ref")),
@@ -235,6 +292,9 @@ POWER_UNITS = Table(
     Column("valve_blocks", Integer, nullable=False, default=1),
     Column("max_working_pressure", Float, nullable=True),
     Column("design_pressure", Float, nullable=True),
+    Column("pump_maker", String, nullable=True),
+    Column("valve_maker", String, nullable=True),
+    Column("valve_model", String, nullable=True),
     PrimaryKeyConstraint("unit_id", name=conv("pk_power_units")),
     ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_power_units_unit_id_units")),
     CheckConstraint("oil_leakage IS NULL OR oil_leakage >= 0", name=conv("ck_power_units_oil_leakage")),

@@ -75,6 +75,8 @@ class UnitRow(SQLModel, table=True):
     max_rudder_angle: Optional[float] = None
     isolation_valves: bool = False
     rudder_carrier: Optional[str] = None  # where the rudder carrier bearing is; null when not said
+    maker: Optional[str] = None  # the gear's maker and model, as on its name plate (revision 0006)
+    model: Optional[str] = None
 
 
 class ActuatorRow(SQLModel, table=True):
@@ -153,6 +155,9 @@ class PowerUnitRow(SQLModel, table=True):
     valve_blocks: int = 1
     max_working_pressure: Optional[float] = None
     design_pressure: Optional[float] = None
+    pump_maker: Optional[str] = None  # makers and models for the lines a supplier quotes (revision 0006)
+    valve_maker: Optional[str] = None
+    valve_model: Optional[str] = None
 
 
 class FilterPositionRow(SQLModel, table=True):
@@ -230,10 +235,13 @@ class PartRow(SQLModel, table=True):
 
 
 class SupplierRow(SQLModel, table=True):
+    """A supplier; a preferred one wins over price for every part it offers (revision 0006)."""
+
     __tablename__ = "suppliers"
 
     id: Optional[int] = Field(default=None, primary_key=True)
     name: str = Field(sa_column_kwargs={"unique": True, "nullable": False})
+    preferred: bool = Field(default=False, sa_column_kwargs={"server_default": "0", "nullable": False})
 
 
 class CatalogueEntryRow(SQLModel, table=True):
@@ -246,6 +254,7 @@ class CatalogueEntryRow(SQLModel, table=True):
         CheckConstraint("price IS NULL OR price >= 0", name="price"),
         CheckConstraint("lead_time_days IS NULL OR lead_time_days >= 0", name="lead_time_days"),
         CheckConstraint("length(currency) = 3", name="currency"),
+        CheckConstraint("pack_content IS NULL OR pack_content > 0", name="pack_content"),
     )
 
     id: Optional[int] = Field(default=None, primary_key=True)
@@ -258,6 +267,10 @@ class CatalogueEntryRow(SQLModel, table=True):
     price: Optional[float] = None
     currency: str
     lead_time_days: Optional[int] = None
+    # One pack's content in the part's unit of measure, and the pack as the catalogue wrote it
+    # ("208 L", "5 US_gal"); null for entries imported before revision 0006 (then pack_qty).
+    pack_content: Optional[float] = None
+    pack_label: Optional[str] = None
 
 
 class StockRow(SQLModel, table=True):
@@ -301,3 +314,64 @@ class SparesPolicyRow(SQLModel, table=True):
     in_force_from: dt.date
     note: Optional[str] = None
     content: Optional[str] = Field(default=None, sa_type=Text)
+
+
+class PartSupplierRow(SQLModel, table=True):
+    """The supplier preferred for one generic part: wins over price and over a supplier
+    preferred for everything (revision 0006)."""
+
+    __tablename__ = "part_suppliers"
+
+    part_id: int = Field(sa_column=Column(Integer, ForeignKey("parts.id", ondelete="CASCADE"), primary_key=True))
+    supplier_id: int = Field(foreign_key="suppliers.id", ondelete="CASCADE")
+    note: Optional[str] = None
+
+
+class PurchasingRow(SQLModel, table=True):
+    """The office's purchasing settings, one row: the base currency offers are compared in, and the
+    handling margin in days between an order's arrival with the supplier's lead time and its
+    delivery on board (null: kit's default). (Revision 0006.)"""
+
+    __tablename__ = "purchasing"
+    __table_args__ = (
+        CheckConstraint("id = 1", name="one_row"),
+        CheckConstraint("base_currency IS NULL OR length(base_currency) = 3", name="base_currency"),
+        CheckConstraint("handling_days IS NULL OR (handling_days >= 0 AND handling_days <= 365)", name="handling_days"),
+    )
+
+    id: int = Field(default=1, primary_key=True)
+    base_currency: Optional[str] = None
+    handling_days: Optional[int] = None
+
+
+class ExchangeRateRow(SQLModel, table=True):
+    """One unit of ``currency`` is worth ``rate`` units of ``base``, as set on ``set_on`` and
+    taken from ``source`` (a bank's reference rate, an invoice): kit fetches none. The rate in
+    force on a day is the latest set on or before it. (Revision 0006.)"""
+
+    __tablename__ = "exchange_rates"
+    __table_args__ = (
+        UniqueConstraint("currency", "base", "set_on"),
+        CheckConstraint("length(currency) = 3 AND length(base) = 3 AND currency <> base", name="currencies"),
+        CheckConstraint("rate > 0", name="rate"),
+    )
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    currency: str
+    base: str
+    rate: float
+    set_on: dt.date
+    source: str
+
+
+class DeliveryRow(SQLModel, table=True):
+    """Where and when an order must be on board a vessel: the port and the day (revision 0006)."""
+
+    __tablename__ = "deliveries"
+    __table_args__ = (UniqueConstraint("vessel_id", "due_on"),)
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    vessel_id: str = Field(foreign_key="vessels.id", ondelete="CASCADE")
+    port: str
+    due_on: dt.date
+    note: Optional[str] = None
