@@ -29,10 +29,6 @@ FORBIDDEN = {
 # Shared constants that import nothing (catalog_schema/conventions.py): the stock sheet's reader
 # fills in the same default location as the table's.
 SHARED = {"catalog_schema.conventions"}
-# Known, noted in kit/engine/__init__.py: particulars reads its TOML file and spares.load_policy the
-# company policy file through the files layer.
-ENGINE_READS_FILES = {"particulars": {"kit.files.input_files", "kit.files.toml_text", "kit.files.safe_text"},
-                      "spares": {"kit.files.input_files", "kit.files.toml_text", "kit.files.safe_text"}}
 
 
 def imported(path: Path) -> set[str]:
@@ -76,8 +72,7 @@ def test_each_layer_imports_only_those_below_it(layer):
     assert len(modules) > 5  # the layer is there
     found = {}
     for p in modules:
-        mods = imported(p) - ENGINE_READS_FILES.get(p.stem, set()) if layer == "engine" else imported(p)
-        bad = sorted(m for m in mods - SHARED if any(in_package(m, f) for f in FORBIDDEN[layer]))
+        bad = sorted(m for m in imported(p) - SHARED if any(in_package(m, f) for f in FORBIDDEN[layer]))
         if bad:
             found[p.stem] = bad
     assert found == {}
