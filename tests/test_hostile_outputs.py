@@ -286,6 +286,17 @@ def demo(out) -> object:
     return invoke("demo", "--out", out, "--days", "30", "--check-days", "30")
 
 
+def test_the_demo_folder_is_named_neutrally_by_the_library(tmp_path):
+    """The library calls it the demo folder; ``kit demo`` (below) names its --out there."""
+    from kit.files.output_targets import check_demo_folder
+
+    (tmp_path / "notes.txt").write_text("the chief's notes")
+    with pytest.raises(OutputError) as refused:
+        check_demo_folder(tmp_path)
+    assert str(refused.value) == (f"{tmp_path}: demo folder: expected {DEMO_OUT} (got a folder kit demo did not make, "
+                                  "holding 1 entry (e.g. 'notes.txt'))")
+
+
 def test_demo_refuses_a_folder_it_did_not_make(tmp_path, monkeypatch):
     work = tmp_path / "work"
     work.mkdir()

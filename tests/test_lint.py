@@ -10,6 +10,7 @@ store or services; the files read no store or services; the store calls no servi
 from __future__ import annotations
 
 import ast
+import re
 import shutil
 import subprocess
 import sys
@@ -90,3 +91,32 @@ def test_only_the_store_runs_queries():
         if p.parent.name != "store" and hits:
             found[str(p.relative_to(ROOT))] = hits
     assert found == {}
+
+
+# An option name as the command line spells it: two dashes, then a lower-case word (``--out``,
+# ``--decimal-mark``).
+OPTION_NAME = re.compile(r"(?<![\w-])--[a-z][a-z0-9]*(?:-[a-z0-9]+)*")
+# Text kit writes that names an option and is no error message: the marker ``kit demo`` leaves in
+# its folder for the person who finds it.
+NOT_MESSAGES = {"kit demo made this folder; the next kit demo --out here replaces it.\n"}
+
+
+def option_names_in_strings(path: Path) -> list[str]:
+    """Each string literal of ``path`` (docstrings aside; f-strings' literal parts included) that
+    names a command-line option."""
+    tree = ast.parse(path.read_text(encoding="utf-8"))
+    docstrings = {id(node.body[0].value) for node in ast.walk(tree)
+                  if isinstance(node, (ast.Module, ast.ClassDef, ast.FunctionDef, ast.AsyncFunctionDef)) and node.body
+                  and isinstance(node.body[0], ast.Expr) and isinstance(node.body[0].value, ast.Constant)}
+    return [f"line {node.lineno}: {node.value!r}" for node in ast.walk(tree)
+            if isinstance(node, ast.Constant) and isinstance(node.value, str) and id(node) not in docstrings
+            and node.value not in NOT_MESSAGES and OPTION_NAME.search(node.value)]
+
+
+def test_option_names_only_in_the_command_line():
+    """Library errors name a value neutrally (``demo folder``, ``decimal mark``); the command line
+    adds its option (``OPTIONS`` in kit/commands/common.py), so no string outside it spells one."""
+    found = {str(p.relative_to(ROOT)): hits for p in library_modules() if (hits := option_names_in_strings(p))}
+    assert found == {}
+    # the scan sees option names where they belong: the faces spell them
+    assert option_names_in_strings(ROOT / "kit" / "commands" / "common.py")
