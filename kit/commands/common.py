@@ -33,8 +33,14 @@ OPTIONS = {
 
 
 def _command() -> str:
+    """The command's words after the program's name ("policy set"), however kit was started
+    (``kit``, or ``python -m kit``, whose program name is three words)."""
     ctx = click.get_current_context(silent=True)
-    return "" if ctx is None else " ".join(ctx.command_path.split()[1:])
+    words = []
+    while ctx is not None and ctx.parent is not None:
+        words.append(ctx.info_name or "")
+        ctx = ctx.parent
+    return " ".join(reversed(words))
 
 
 def _with_option(exc: KitError) -> KitError:
