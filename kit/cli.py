@@ -31,6 +31,10 @@ COMMANDS: dict[str, tuple[str, str, str]] = {
     "stock": ("kit.commands.stock", "stock", "Import a vessel's on-board stock count or receipts and issues."),
     "template": ("kit.commands.template", "template", "Write the particulars, stock or catalogue spreadsheet to fill in."),
     "policy": ("kit.commands.policy", "policy", "Set or show the spares policy in force for a company or vessel."),
+    "purchasing": ("kit.commands.purchasing", "purchasing", "Set or show the base currency and the handling margin."),
+    "rates": ("kit.commands.rates", "rates", "Enter exchange rates into the base currency (by hand or CSV); list them."),
+    "supplier": ("kit.commands.supplier", "supplier", "List suppliers; prefer one over price, for everything or one part."),
+    "delivery": ("kit.commands.delivery", "delivery", "Set, list or remove where and when an order must be on board."),
 }
 
 

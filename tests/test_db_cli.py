@@ -49,7 +49,7 @@ def test_everyday_database_commands_run_on_core_tables_without_sqlmodel(tmp_path
     catalogue.write_text("supplier_ref,part_key,currency\nA,oil:hm 46,EUR\n")
     assert CliRunner().invoke(main, ["db", "upgrade", "--db", db]).exit_code == 0  # the migrations use the models
     code = ("import sys; from click.testing import CliRunner; from kit.cli import main; r = CliRunner(); "
-            f"args = [['load', {str(toml)!r}], ['parts', 'register'], ['bom', '--out', {str(tmp_path / 'b.xlsx')!r}], "
+            f"args = [['load', {str(toml)!r}], ['parts', 'register'], ['bom', '--days', '90', '--out', {str(tmp_path / 'b.xlsx')!r}], "
             "['check', 'TEST-ONE', '--days', '30'], ['policy', 'show', '--vessel', 'TEST-ONE'], "
             f"['catalogue', 'import', {str(catalogue)!r}, '--supplier', 'S']]; "
             f"codes = [r.invoke(main, [*a, '--db', {db!r}]).exit_code for a in args]; "

@@ -131,8 +131,8 @@ def test_bom_and_check_from_the_database_hold_the_gear_to_the_same_checks_as_cal
     runner = CliRunner()
     assert runner.invoke(main, ["load", str(path), "--db", db_url]).exit_code == 0
     from_db, from_file, check = tmp_path / "db.xlsx", tmp_path / "file.xlsx", tmp_path / "check.xlsx"
-    assert runner.invoke(main, ["bom", "--db", db_url, "--out", str(from_db)]).exit_code == 0
-    assert runner.invoke(main, ["bom", "--particulars", str(path), "--out", str(from_file)]).exit_code == 0
+    assert runner.invoke(main, ["bom", "--days", "90", "--db", db_url, "--out", str(from_db)]).exit_code == 0
+    assert runner.invoke(main, ["bom", "--days", "90", "--particulars", str(path), "--out", str(from_file)]).exit_code == 0
     assert runner.invoke(main, ["check", "TEST-ONE", "--days", "30", "--db", db_url, "--out", str(check)]).exit_code == 1
     rows = _gear_checks(from_db)
     assert rows == _gear_checks(from_file) == _gear_checks(check)

@@ -191,7 +191,7 @@ def test_disk_full(tmp_path):
         listing = sorted(os.listdir(full))
         db = str(tmp_path / "fleet.sqlite")
         cases = [
-            (["bom", "--particulars", str(CORVINA), "--out", str(old), "--db", db], old),
+            (["bom", "--days", "90", "--particulars", str(CORVINA), "--out", str(old), "--db", db], old),
             (["template", "particulars", str(full / "t.xlsx"), "--from", str(CORVINA)], full / "t.xlsx"),
             (["template", "catalogue", str(full / "c.csv")], full / "c.csv"),
         ]
@@ -215,7 +215,7 @@ def test_no_room_simulated(tmp_path, monkeypatch):
     out.mkdir()
     db = str(tmp_path / "fleet.sqlite")
     cases = [
-        ["bom", "--particulars", str(CORVINA), "--out", str(out / "b.xlsx"), "--db", db],
+        ["bom", "--days", "90", "--particulars", str(CORVINA), "--out", str(out / "b.xlsx"), "--db", db],
         ["template", "particulars", str(out / "t.xlsx"), "--from", str(CORVINA)],
         ["template", "catalogue", str(out / "c.csv")],
         ["template", "stock", str(out / "s.xlsx"), "--db", db],
@@ -233,7 +233,7 @@ def test_read_only_database(tmp_path):
         assert kit("load", str(CORVINA), "--db", str(db)).returncode == 0
         subprocess.run(["mount", "-o", "remount,ro", str(ro)], check=True)
         before = db.read_bytes()
-        for args in (["load", str(DEMO)], ["bom", "--out", str(tmp_path / "b.xlsx")], ["db", "status"]):
+        for args in (["load", str(DEMO)], ["bom", "--days", "90", "--out", str(tmp_path / "b.xlsx")], ["db", "status"]):
             done = kit(*args, "--db", str(db))
             assert done.returncode == 2
             assert one_line(done.stderr) == (f"kit: error: database sqlite:///{db}: cannot be opened: the file or its folder "

@@ -83,7 +83,7 @@ def written(tmp_path_factory):
     ok("stock", "import", str(work / "count.csv"), "--vessel", "TEST-ONE")
     (work / "cat.csv").write_text(f'supplier_ref,part_key,description,currency\n-SUM(1+1),{key},@SUM(1+1),EUR\n')
     ok("catalogue", "import", str(work / "cat.csv"), "--supplier", "=HYPERLINK(1)")
-    ok("bom", "--out", str(work / "bom.xlsx"), "--csv", str(work / "bom.csv"))
+    ok("bom", "--days", "90", "--out", str(work / "bom.xlsx"), "--csv", str(work / "bom.csv"))
     ok("check", "TEST-ONE", "--days", "90", "--out", str(work / "check.xlsx"))
     ok("template", "stock", str(work / "stock.xlsx"), "--vessel", "TEST-ONE")
     ok("template", "stock", str(work / "stock.csv"), "--vessel", "TEST-ONE")

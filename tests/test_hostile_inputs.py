@@ -59,8 +59,8 @@ READERS = {
     "load .xlsx": lambda p, g, d: ["load", p, "--db", d],
     "calc": lambda p, g, d: ["calc", p],
     "calc --policy": lambda p, g, d: ["calc", g, "--policy", p],
-    "bom --particulars": lambda p, g, d: ["bom", "--particulars", p, "--out", Path(d).parent / "bom.xlsx", "--db", d],
-    "bom --policy": lambda p, g, d: ["bom", "--policy", p, "--out", Path(d).parent / "bom.xlsx", "--db", d],
+    "bom --particulars": lambda p, g, d: ["bom", "--days", "90", "--particulars", p, "--out", Path(d).parent / "bom.xlsx", "--db", d],
+    "bom --policy": lambda p, g, d: ["bom", "--days", "90", "--policy", p, "--out", Path(d).parent / "bom.xlsx", "--db", d],
     "policy set --file": lambda p, g, d: ["policy", "set", "--company", "Brackwater Test Shipping", "--name", "x",
                                           "--days", "90", "--from", "2025-01-01", "--file", p, "--db", d],
     "template --from": lambda p, g, d: ["template", "particulars", Path(d).parent / "t.xlsx", "--from", p],
@@ -156,7 +156,7 @@ def test_a_fifo_in_a_folder_of_particulars_is_refused(fleet, tmp_path):
     (folder / "a.toml").write_text(TOML_CYLINDER)
     os.mkfifo(folder / "b.toml")
     before = dump(engine)
-    for args in (["load", folder, "--db", db], ["bom", "--particulars", folder, "--out", tmp_path / "b.xlsx", "--db", db]):
+    for args in (["load", folder, "--db", db], ["bom", "--days", "90", "--particulars", folder, "--out", tmp_path / "b.xlsx", "--db", db]):
         with watched(folder / "b.toml") as released:
             done = invoke(*args)
         assert not released[0], "kit waited on the FIFO"
@@ -269,7 +269,7 @@ def test_toml_in_any_case_is_toml(fleet, tmp_path):
     (folder / "readme.txt").write_text("not particulars")
     done = invoke("load", folder, "--db", db)
     assert (done.exit_code, done.stdout) == (0, "loaded 2 vessel(s): TEST-A, TEST-B\n")
-    done = invoke("bom", "--particulars", folder, "--out", tmp_path / "b.xlsx", "--db", db)
+    done = invoke("bom", "--days", "90", "--particulars", folder, "--out", tmp_path / "b.xlsx", "--db", db)
     assert done.exit_code == 0 and "for 2 vessel(s)" in done.stdout
 
 
@@ -282,7 +282,7 @@ def test_one_vessel_in_two_files_of_a_load_is_refused(fleet, tmp_path):
     line = (f"kit: error: {folder / 'b.toml'}: vessel.id: expected a vessel id no other file of this load has "
             f"(also in {folder / 'a.toml'}) (got 'TEST-TWIN')\n")
     before = unchanged(fleet, tmp_path)
-    for args in (["load", folder, "--db", db], ["bom", "--particulars", folder, "--out", tmp_path / "b.xlsx", "--db", db]):
+    for args in (["load", folder, "--db", db], ["bom", "--days", "90", "--particulars", folder, "--out", tmp_path / "b.xlsx", "--db", db]):
         done = invoke(*args)
         assert (done.exit_code, done.stderr, done.stdout) == (2, line, "")
         assert unchanged(fleet, tmp_path) == before

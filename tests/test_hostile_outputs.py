@@ -56,9 +56,9 @@ def fleet(tmp_path):
 
 # command -> its arguments with the output path T (and the option a refusal names)
 WRITERS = {
-    "bom --out": (lambda db, t, ok: ["bom", "--out", t, "--db", db], "--out"),
-    "bom --csv": (lambda db, t, ok: ["bom", "--out", ok, "--csv", t, "--db", db], "--csv"),
-    "bom --json": (lambda db, t, ok: ["bom", "--out", ok, "--json", t, "--db", db], "--json"),
+    "bom --out": (lambda db, t, ok: ["bom", "--days", "90", "--out", t, "--db", db], "--out"),
+    "bom --csv": (lambda db, t, ok: ["bom", "--days", "90", "--out", ok, "--csv", t, "--db", db], "--csv"),
+    "bom --json": (lambda db, t, ok: ["bom", "--days", "90", "--out", ok, "--json", t, "--db", db], "--json"),
     "check --out": (lambda db, t, ok: ["check", "CORVINA-BAY", "--days", "30", "--out", t, "--db", db], "--out"),
     "template stock": (lambda db, t, ok: ["template", "stock", t, "--db", db], "OUT"),
     "template catalogue": (lambda db, t, ok: ["template", "catalogue", t], "OUT"),
@@ -194,7 +194,7 @@ def test_a_link_to_nothing_is_refused(fleet, tmp_path):
     db, _ = fleet
     link = tmp_path / "order.xlsx"
     link.symlink_to(tmp_path / "nowhere")
-    refused(fleet, ["bom", "--out", link, "--db", db], tmp_path, f"{link}: --out: expected {NOT_SPECIAL} (got a link to nothing)")
+    refused(fleet, ["bom", "--days", "90", "--out", link, "--db", db], tmp_path, f"{link}: --out: expected {NOT_SPECIAL} (got a link to nothing)")
     assert link.is_symlink() and not (tmp_path / "nowhere").exists()
 
 
@@ -208,7 +208,7 @@ def test_refused_before_any_work(fleet, tmp_path, monkeypatch):
     monkeypatch.setattr("kit.services.orders.build_order", no_work)
     fifo = tmp_path / "order.csv"
     os.mkfifo(fifo)
-    refused(fleet, ["bom", "--out", tmp_path / "order.xlsx", "--csv", fifo, "--db", db], tmp_path,
+    refused(fleet, ["bom", "--days", "90", "--out", tmp_path / "order.xlsx", "--csv", fifo, "--db", db], tmp_path,
             f"{fifo}: --csv: expected {NOT_SPECIAL} (got a FIFO)")
 
 
@@ -225,7 +225,7 @@ def test_two_outputs_of_one_command_are_two_files(fleet, tmp_path, given, option
     target = args[args.index(option) + 1]
     old = tmp_path / "order.xlsx"
     old.write_bytes(b"last week's order")
-    refused(fleet, ["bom", *args, "--db", db], tmp_path,
+    refused(fleet, ["bom", "--days", "90", *args, "--db", db], tmp_path,
             f"{target}: {option}: expected a file other than {first}'s (got the file {first} writes)")
     assert old.read_bytes() == b"last week's order"
 
@@ -234,7 +234,7 @@ def test_a_writable_file_is_still_replaced(fleet, tmp_path):
     db, _ = fleet
     old = tmp_path / "order.xlsx"
     old.write_bytes(b"last week's order")
-    done = invoke("bom", "--out", old, "--db", db)
+    done = invoke("bom", "--days", "90", "--out", old, "--db", db)
     assert done.exit_code == 0, done.output
     assert old.read_bytes()[:2] == b"PK"  # a workbook (a zip archive) now
 

@@ -73,7 +73,7 @@ def test_bad_particulars_one_line_exit_2_nothing_written(db, tmp_path, case, edi
     before = dump(engine)
     out = tmp_path / "bom.xlsx"
     for args in (["load", str(path), "--db", url], ["calc", str(path), "--days", "90"],
-                 ["bom", "--particulars", str(path), "--out", str(out), "--db", url]):
+                 ["bom", "--days", "90", "--particulars", str(path), "--out", str(out), "--db", url]):
         done = CliRunner().invoke(main, args)
         assert done.exit_code == 2, (args, done.output)
         assert done.stderr == f"kit: error: {path}: {field}: expected {expected}\n"

@@ -6,12 +6,14 @@ from __future__ import annotations
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import Days, db_option
+from kit.commands.common import Days, db_option, default_days
 
 
 @click.command(epilog=SAFETY)
 @click.option("--vessel", "vessel_ids", multiple=True, metavar="ID", help="A vessel's id (repeatable); default the whole fleet.")
-@click.option("--days", type=Days(), default=90, show_default=True, help="Period to cover, in days.")
+@click.option("--days", type=Days(), help="Period to cover, in days; default the days of cover of the vessels' spares "
+              "policies in force (kit policy set --days; the largest where they differ). Required with --particulars "
+              "or --policy: a policy file holds no days of cover.")
 @click.option("--out", "out", type=click.Path(), default="kit-bom.xlsx", show_default=True,
               help="Workbook to write (.xlsx); never the fleet database, a device, a folder or a read-only file.")
 @click.option("--csv", "csv_out", type=click.Path(), help="Also write the order lines as CSV.")
@@ -29,7 +31,8 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
 
     Each vessel is worked out under its spares policy in force today in the fleet database (its
     own, else its company's, else kit's default; see kit policy show) unless --policy is given.
-    The oil packages are those of the first vessel's policy.
+    The oil packages are those of the first vessel's policy. Without --days the order covers the
+    days of cover of the policies in force (the largest where the vessels' differ, said on stderr).
 
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
@@ -39,6 +42,7 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     from kit.files.workbook import write_workbook
 
     check_outputs({"--out": out, "--csv": csv_out, "--json": json_out})
+    days = default_days(engine, days, vessel_ids, particulars, policy_file)
     order, scope = build_order(engine, vessel_ids, days, particulars, policy_file, progress_bar)
     path = write_workbook(order, out, days, scope)
     written = [str(path)]

@@ -8,12 +8,13 @@ import sys
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import Days, db_option
+from kit.commands.common import Days, db_option, default_days
 
 
 @click.command(epilog=SAFETY)
 @click.argument("vessel_id")
-@click.option("--days", type=Days(), required=True, help="Length of the voyage, in days.")
+@click.option("--days", type=Days(), help="Length of the voyage, in days; default the days of cover of the vessel's "
+              "spares policy in force (kit policy set --days). Required with --policy: a policy file holds no days of cover.")
 @click.option("--out", type=click.Path(), help="Also write the shortfall as a workbook (.xlsx).")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML); default the vessel's policy in force in the fleet database.")
@@ -36,6 +37,7 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     from kit.services.orders import check_voyage
 
     check_outputs({"--out": out})
+    days = default_days(engine, days, [vessel_id], policy_file=policy_file)
     check = check_voyage(engine, vessel_id, days, policy_file)
     vessel, short = check.vessel, check.short
     console = Console()

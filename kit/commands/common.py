@@ -28,8 +28,20 @@ OPTIONS = {
                    "company": "--company", "vessel": "--vessel", "note": "--note"},
     "stock import": {"counting mode": "--mode", "vessel id": "--vessel", "decimal mark": "--decimal-mark"},
     "catalogue import": {"supplier name": "--supplier", "decimal mark": "--decimal-mark"},
+    "rates import": {"decimal mark": "--decimal-mark"},
     "demo": {"demo folder": "--out"},
+    "bom": {"days": "--days"},
+    "check": {"days": "--days"},
+    "purchasing set": {"base currency or handling days": "--base-currency/--handling-days",
+                       "base currency": "--base-currency", "handling days": "--handling-days"},
+    "rates set": {"currency": "CURRENCY", "rate": "RATE", "date set": "--on", "source": "--source"},
+    "supplier prefer": {"supplier name": "NAME", "part key": "--part", "note": "--note"},
+    "supplier unprefer": {"supplier name": "NAME", "part key": "--part"},
+    "delivery set": {"delivery date": "--on", "port": "--port", "note": "--note", "vessel id": "VESSEL"},
+    "delivery remove": {"delivery date": "--on"},
 }
+# Commands that take a vessel's id as an argument rather than by --vessel, and its name there.
+VESSEL_ARGUMENTS = {"delivery set": "VESSEL", "delivery remove": "VESSEL"}
 
 
 def _command() -> str:
@@ -68,7 +80,10 @@ def _unknown_vessel(exc: UnknownVesselErrorType) -> str:
     from kit.errors import InputError
 
     command = _command()
-    if command in FLEET_SELECTIONS:
+    if command in VESSEL_ARGUMENTS:
+        hint = InputError(f"kit {command}", VESSEL_ARGUMENTS[command],
+                          "the id of a vessel in the database (kit load adds them)", got=repr(exc.vessel_id))
+    elif command in FLEET_SELECTIONS:
         hint = InputError("--vessel", "vessel", "the id of a vessel in the fleet database (kit load adds them)",
                           got=repr(exc.vessel_id))
     else:
@@ -123,17 +138,19 @@ class Days(click.ParamType):
     :data:`kit.files.numbers.MAX_DAYS`. ``click.FloatRange(min=0)`` takes ``inf``, ``nan`` and ``1e400``
     (as infinity); this type refuses them, with click's usual one line and exit status 2."""
 
-    def __init__(self, whole: bool = False):
+    def __init__(self, whole: bool = False, maximum: int | None = None):
         self.whole = whole
+        self.maximum = maximum
         self.name = "whole days" if whole else "days"
 
     def convert(self, value: Any, param: click.Parameter | None, ctx: click.Context | None) -> float | int:
         from kit.files.numbers import MAX_DAYS, parse_decimal
 
+        most = MAX_DAYS if self.maximum is None else self.maximum
         number = value if isinstance(value, (int, float)) and not isinstance(value, bool) else parse_decimal(str(value).strip(), "point")
-        if number is None or not 0 <= number <= MAX_DAYS or (self.whole and not float(number).is_integer()):
+        if number is None or not 0 <= number <= most or (self.whole and not float(number).is_integer()):
             kind = "a whole number" if self.whole else "a plain number"
-            raise OptionError(param, ctx, f"{kind} of days from 0 to {MAX_DAYS}, e.g. 90", value)
+            raise OptionError(param, ctx, f"{kind} of days from 0 to {most}, e.g. {min(90, most)}", value)
         return int(number) if self.whole else float(number)
 
 
@@ -207,3 +224,24 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
         return option(reports_errors(wrapper))
 
     return decorate
+
+
+def default_days(engine: Any, days: float | None, vessel_ids: Any = (), particulars: str | None = None,
+                 policy_file: str | None = None) -> float:
+    """``days`` as given, else the days of cover of the vessels' spares policies in force (see
+    :func:`kit.services.policies.days_of_cover`), saying on stderr which were taken when they differ."""
+    if days is not None:
+        return days
+    from kit.files.safe_text import visible
+    from kit.services.policies import days_of_cover
+
+    cover = days_of_cover(engine, vessel_ids, particulars=particulars, policy_file=policy_file)
+    if cover.differ:
+        groups: dict[int, list[str]] = {}
+        for vessel, d in sorted(cover.by_vessel.items()):
+            groups.setdefault(d, []).append(vessel)
+        each = "; ".join(f"{d} for {', '.join(ids[:3])}" + (f" and {len(ids) - 3} more" if len(ids) > 3 else "")
+                         for d, ids in sorted(groups.items(), reverse=True))
+        click.echo(visible(f"kit: --days not given: {cover.days} days, the largest days of cover of the spares "
+                           f"policies in force ({each})"), err=True)
+    return cover.days

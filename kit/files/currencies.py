@@ -13,6 +13,7 @@ from __future__ import annotations
 from functools import cache
 from typing import Any
 
+from kit.errors import InputError
 from kit.files.sheets import Row, Table
 from kit.engine.standard_tables import load_table
 
@@ -32,4 +33,13 @@ def currency_code(table: Table, row: Row, value: Any) -> str:
     code = value.upper() if isinstance(value, str) else None
     if code not in codes():
         raise table.error(row, "currency", EXPECTED + (f", not {NOT_MONEY[code]}" if code in NOT_MONEY else ""), value)
+    return code
+
+
+def iso_currency(value: str, *, source: str, field: str, error: type[InputError] = InputError) -> str:
+    """``value`` (given outside a sheet, e.g. on the command line) as an ISO 4217 code in capitals,
+    or ``error`` naming ``source`` and ``field``."""
+    code = value.strip().upper()
+    if code not in codes():
+        raise error(source, field, EXPECTED + (f", not {NOT_MONEY[code]}" if code in NOT_MONEY else ""), got=repr(value))
     return code

@@ -10,7 +10,8 @@ service and show or write what it returns; they never open a transaction or run 
 ``fleet``      load particulars, register parts, list parts, work out one vessel's particulars
 ``imports``    a supplier's catalogue, a vessel's stock
 ``orders``     the bill of materials, the pre-voyage check
-``policies``   set and show the spares policy in force
+``policies``   set and show the spares policy in force; the days of cover an order defaults to
+``purchasing`` base currency, handling margin, exchange rates, preferred suppliers, deliveries
 ``templates``  the sheets kit reads, written empty or filled
 ``database``   what the fleet database holds
 ``demo``       the whole job on the invented demo fleet

@@ -60,3 +60,45 @@ def show_policy(engine: Engine, vessel: str, on: dt.date | None = None) -> Polic
     with engine.connect() as conn:
         found = policy_in_force(conn, vessel, day)
     return PolicyShown(vessel, day, found, load_policy() if found is None else found.policy())
+
+
+@dataclass(frozen=True)
+class CoverDays:
+    """The days an order or check covers when none are given: the largest days of cover of the
+    vessels' policies in force, and each vessel's (so a face can say when they differ)."""
+
+    days: int
+    by_vessel: dict[str, int]
+
+    @property
+    def differ(self) -> bool:
+        return len(set(self.by_vessel.values())) > 1
+
+
+NO_COVER_IN_FILES = ("a number of days (a spares policy file holds no days of cover; kit policy set "
+                     "records them in the fleet database)")
+
+
+def days_of_cover(engine: Engine, vessel_ids=(), *, particulars: str | None = None,
+                  policy_file: str | None = None) -> CoverDays:
+    """The days of cover of the spares policies in force today for ``vessel_ids`` (all vessels
+    when none), the largest where they differ. A policy file (``policy_file``, or kit's default
+    with ``particulars``) states no days of cover, nor does kit's default policy, so those, and a
+    vessel with no policy in force, are refused by the neutral name "days" (:class:`ArgumentError`)."""
+    from kit.errors import InputError
+    from kit.store.policy_store import cover_days_in_force
+
+    if particulars or policy_file:
+        raise ArgumentError("", "days", NO_COVER_IN_FILES)
+    with engine.connect() as conn:
+        found = cover_days_in_force(conn, list(vessel_ids) or None, dt.date.today())
+    if not found:
+        raise InputError(str(engine.url.database or engine.url), "vessels",
+                         "at least one vessel (load some with kit load PATH)", got="none")
+    without = [v for v, days in found.items() if days is None]
+    if without:
+        raise ArgumentError("", "days", f"a number of days (no spares policy with days of cover is in force for "
+                            f"{without[0]}" + (f" and {len(without) - 1} other vessel(s)" if len(without) > 1 else "")
+                            + "; kit policy set records one)")
+    days = {v: d for v, d in found.items() if d is not None}
+    return CoverDays(max(days.values()), days)

@@ -73,13 +73,10 @@ def policy_in_force(conn: Connection, vessel_id: str, on: dt.date) -> PolicyInFo
     return None
 
 
-def policies_in_force(conn: Connection, vessel_ids: list[str], on: dt.date) -> dict[str, Policy]:
-    """Each vessel's spares policy on date ``on``: its own, else its company's, else kit's default.
-
-    Two queries for any number of vessels (the vessels' companies, and every policy in force by
-    ``on``), the same choice as :func:`policy_in_force` makes one vessel at a time. Vessels under
-    the same stored policy share one :class:`Policy` object.
-    """
+def records_in_force(conn: Connection, vessel_ids: list[str], on: dt.date) -> dict[str, PolicyInForce | None]:
+    """Each vessel's policy record on date ``on``: its own, else its company's, else None (kit's
+    default). Two queries for any number of vessels (the vessels' companies, and every policy in
+    force by ``on``), the same choice as :func:`policy_in_force` makes one vessel at a time."""
     ids = list(vessel_ids)
     company_of = dict(conn.execute(select(VESSELS.c.id, VESSELS.c.company_id).where(VESSELS.c.id.in_(ids))).all()) if ids else {}
     latest: dict[tuple[str, object], PolicyInForce] = {}
@@ -87,12 +84,32 @@ def policies_in_force(conn: Connection, vessel_ids: list[str], on: dt.date) -> d
     for row in rows:  # ascending, so the last one seen per scope is the one in force
         scope = ("vessel", row.vessel_id) if row.vessel_id is not None else ("company", row.company_id)
         latest[scope] = PolicyInForce(scope[0], row.name, row.cover_days, row.in_force_from, row.note, row.content)
+    return {v: latest.get(("vessel", v)) or latest.get(("company", company_of.get(v))) for v in ids}
+
+
+def policies_in_force(conn: Connection, vessel_ids: list[str], on: dt.date) -> dict[str, Policy]:
+    """Each vessel's spares policy on date ``on``: its own, else its company's, else kit's default
+    (see :func:`records_in_force`). Vessels under the same stored policy share one :class:`Policy` object.
+    """
     built: dict[tuple, Policy] = {}
     out = {}
-    for vessel_id in ids:
-        found = latest.get(("vessel", vessel_id)) or latest.get(("company", company_of.get(vessel_id)))
+    for vessel_id, found in records_in_force(conn, vessel_ids, on).items():
         key = None if found is None else (found.scope, found.name, found.in_force_from, found.content)
         if key not in built:
             built[key] = policy_from_text(None) if found is None else found.policy()
         out[vessel_id] = built[key]
     return out
+
+
+def cover_days_in_force(conn: Connection, vessel_ids: list[str] | None, on: dt.date) -> dict[str, int | None]:
+    """The days of cover of each vessel's policy in force on ``on`` (all vessels when
+    ``vessel_ids`` is None), None for a vessel under kit's default policy, which states none.
+    :class:`kit.errors.UnknownVesselError` for the first id the database does not hold."""
+    from kit.errors import UnknownVesselError
+
+    known = [row[0] for row in conn.execute(select(VESSELS.c.id).order_by(VESSELS.c.id))]
+    ids = known if vessel_ids is None else list(dict.fromkeys(vessel_ids))
+    missing = sorted(set(ids) - set(known))
+    if missing:
+        raise UnknownVesselError(missing[0])
+    return {v: None if found is None else found.cover_days for v, found in records_in_force(conn, ids, on).items()}
