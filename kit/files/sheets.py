@@ -113,18 +113,20 @@ def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any
         if name not in seen:
             raise InputError(where, f"column {name}", "this column in the header row", got="no such column")
     rows: list[Row] = []
+    append = rows.append
     width = len(header)
     for line, cells in it:
         values = cells if clean else [_clean(c) for c in cells]
-        if any(v is not None for v in values[width:]):
-            raise InputError(f"{where}, {'line' if sheet is None else 'row'} {line}", "cells",
-                             f"no values right of the last named column ({header[-1]})", got="a value there")
-        if all(v is None for v in values[:width]):
+        if len(values) != width:  # most rows are as wide as the header: no slices for them
+            if any(v is not None for v in values[width:]):
+                raise InputError(f"{where}, {'line' if sheet is None else 'row'} {line}", "cells",
+                                 f"no values right of the last named column ({header[-1]})", got="a value there")
+            values = [*values[:width], *[None] * (width - len(values))]
+        if values.count(None) == width:
             continue
         if len(rows) >= max_rows:
             raise InputError(where, "rows", f"at most {max_rows:,} data rows", got="more")
-        values += [None] * (width - len(values))
-        rows.append(Row(line, dict(zip(header, values[:width]))))
+        append(Row(line, dict(zip(header, values))))
     return Table(path, sheet, tuple(header), rows)
 
 
@@ -332,7 +334,10 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
             start = 1
             try:
                 for cells in reader:
-                    yield start, [_csv_cell(c) if c else None for c in cells]
+                    if "'" in "".join(cells):  # a quote that may guard a formula: the field by field way
+                        yield start, [_csv_cell(c) if c else None for c in cells]
+                    else:
+                        yield start, [(c.strip() or None) if c else None for c in cells]
                     start = reader.line_num + 1
             except csv.Error as exc:
                 raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None
