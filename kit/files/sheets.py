@@ -25,8 +25,9 @@ from kit.files.input_files import PARTICULARS_XLSX, SHEET_CSV, SHEET_XLSX, check
 from kit.files.safe_text import csv_field, from_csv_field, is_risky, visible
 from kit.files.xlsx_limits import Limits, measure_workbook
 
-# Data rows read from one sheet. Sheets are streamed (openpyxl read-only mode, csv line by line)
-# and refused at the first row past the limit, so a huge sheet is never held whole in memory.
+# Data rows read from one sheet, refused at the first row past the limit. A CSV is read line by
+# line; a workbook's rows are counted before it is read (kit.files.xlsx_limits), then read by
+# python-calamine (one sheet at a time, held whole but bounded) or openpyxl's read-only reader.
 MAX_ROWS = 100_000
 MAX_UNPACKED_BYTES = 512 * 1024 * 1024
 # Every XML part is streamed before openpyxl reads it (kit.files.xlsx_limits), and a workbook that
