@@ -5,6 +5,7 @@ values one statement may carry, and how a bulk insert hands its rows to the driv
 from __future__ import annotations
 
 import importlib
+from operator import itemgetter
 from typing import Iterator, Sequence
 
 from sqlalchemy import Table, insert
@@ -60,4 +61,4 @@ def insert_statement(dialect, table: Table, columns: Sequence[str], rows: Sequen
     order = [columns.index(name) for name in compiled.positiontup]
     if order == list(range(len(columns))):
         return str(compiled), list(rows)
-    return str(compiled), [tuple(r[i] for i in order) for r in rows]
+    return str(compiled), list(map(itemgetter(*order), rows)) if len(order) > 1 else [(r[order[0]],) for r in rows]

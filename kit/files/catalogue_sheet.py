@@ -60,12 +60,14 @@ def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
     """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
     currency, lead_time_days); the first bad cell refuses the file. ``mark_option`` is the
     decimal mark the user stated (None: the file's default, see :mod:`kit.files.numbers`)."""
-    from kit.files.currencies import currency_code
+    from kit.files.currencies import codes, currency_code
 
     mark = decimal_mark(table, mark_option)
     keys = KeyReader(table)
     seen: dict[str, int] = {}
     out: list[Entry] = []
+    known_codes = codes()
+    control = CONTROL.search
     for row in table.rows:
         v = row.values
         ref = v.get("supplier_ref")
@@ -73,21 +75,33 @@ def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
             raise table.error(row, "supplier_ref", "the supplier's part number", "an empty cell")
         if not isinstance(ref, str):
             ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
-        if CONTROL.search(ref):
+        if control(ref):
             raise table.error(row, "supplier_ref", NO_CONTROL, ref)
         if ref in seen:
             raise table.error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
         seen[ref] = row.line
-        currency = currency_code(table, row, v.get("currency"))
+        currency = v.get("currency")
+        # the common cells by a short way, which gives what the checking functions give; anything
+        # else goes to them, and they word the refusal
+        if currency.__class__ is not str or currency not in known_codes:
+            currency = currency_code(table, row, currency)
         description = v.get("description")
         if description is not None:
             description = str(description)
-            if CONTROL.search(description):
+            if control(description):
                 raise table.error(row, "description", NO_CONTROL, description)
-        out.append((row.line, ref, keys.key(row), description,
-                    whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY, default=1),
-                    number(table, row, "price", mark, maximum=MAX_PRICE), currency,
-                    whole_number(table, row, "lead_time_days", 0, MAX_DAYS)))
+        pack = v.get("pack_qty")
+        if pack is None:
+            pack = 1
+        elif not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
+                  and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
+            pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY, default=1)
+        lead = v.get("lead_time_days")
+        if lead is not None and not (lead.__class__ is str and lead.isascii() and lead.isdigit() and len(lead) < 5
+                                     and (lead := int(lead)) <= MAX_DAYS):
+            lead = whole_number(table, row, "lead_time_days", 0, MAX_DAYS)
+        out.append((row.line, ref, keys.key(row), description, pack,
+                    number(table, row, "price", mark, maximum=MAX_PRICE), currency, lead))
     return out
 
 

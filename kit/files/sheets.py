@@ -25,8 +25,9 @@ from kit.files.input_files import PARTICULARS_XLSX, SHEET_CSV, SHEET_XLSX, check
 from kit.files.safe_text import csv_field, from_csv_field, is_risky, visible
 from kit.files.xlsx_limits import Limits, measure_workbook
 
-# Data rows read from one sheet. Sheets are streamed (openpyxl read-only mode, csv line by line)
-# and refused at the first row past the limit, so a huge sheet is never held whole in memory.
+# Data rows read from one sheet, refused at the first row past the limit. A CSV is read line by
+# line; a workbook's rows are counted before it is read (kit.files.xlsx_limits), then read by
+# python-calamine (one sheet at a time, held whole but bounded) or openpyxl's read-only reader.
 MAX_ROWS = 100_000
 MAX_UNPACKED_BYTES = 512 * 1024 * 1024
 # Every XML part is streamed before openpyxl reads it (kit.files.xlsx_limits), and a workbook that
@@ -113,25 +114,28 @@ def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any
         if name not in seen:
             raise InputError(where, f"column {name}", "this column in the header row", got="no such column")
     rows: list[Row] = []
+    append = rows.append
     width = len(header)
     for line, cells in it:
         values = cells if clean else [_clean(c) for c in cells]
-        if any(v is not None for v in values[width:]):
-            raise InputError(f"{where}, {'line' if sheet is None else 'row'} {line}", "cells",
-                             f"no values right of the last named column ({header[-1]})", got="a value there")
-        if all(v is None for v in values[:width]):
+        if len(values) != width:  # most rows are as wide as the header: no slices for them
+            if any(v is not None for v in values[width:]):
+                raise InputError(f"{where}, {'line' if sheet is None else 'row'} {line}", "cells",
+                                 f"no values right of the last named column ({header[-1]})", got="a value there")
+            values = [*values[:width], *[None] * (width - len(values))]
+        if values.count(None) == width:
             continue
         if len(rows) >= max_rows:
             raise InputError(where, "rows", f"at most {max_rows:,} data rows", got="more")
-        values += [None] * (width - len(values))
-        rows.append(Row(line, dict(zip(header, values[:width]))))
+        append(Row(line, dict(zip(header, values))))
     return Table(path, sheet, tuple(header), rows)
 
 
-def _open_workbook(path: Path):
-    import openpyxl
+def _open_workbook(path: Path) -> "_Book":
+    """The workbook at ``path``, every part measured first (:mod:`kit.files.xlsx_limits`), then
+    opened with python-calamine, or with openpyxl's read-only reader where calamine would read
+    it differently (see :class:`_CalamineBook`)."""
     from defusedxml import DefusedXmlException
-    from openpyxl.utils.exceptions import InvalidFileException
     from openpyxl.xml import DEFUSEDXML
 
     source = str(path)
@@ -150,16 +154,92 @@ def _open_workbook(path: Path):
             if strings > MAX_SHARED_STRINGS_BYTES:
                 raise InputError(source, "file", f"cell text (shared strings) of at most {MAX_SHARED_STRINGS_BYTES >> 20} MiB unpacked",
                                  got=f"{strings / 2**20:.1f} MiB")
-            measure_workbook(source, archive, Limits(rows=_row_scan_limit(), data_rows=MAX_ROWS, columns=MAX_COLUMNS,
-                                                     cells=MAX_CELLS, strings=MAX_SHARED_STRINGS))
+            measures = measure_workbook(source, archive, Limits(rows=_row_scan_limit(), data_rows=MAX_ROWS, columns=MAX_COLUMNS,
+                                                                cells=MAX_CELLS, strings=MAX_SHARED_STRINGS))
     except DefusedXmlException as exc:
         raise _refusal(source, exc) from None
     except (zipfile.BadZipFile, OSError) as exc:
         raise InputError(source, "file", WORKBOOK, got=str(exc)) from None
-    try:
-        return openpyxl.load_workbook(path, read_only=True, data_only=True)
-    except (InvalidFileException, zipfile.BadZipFile, KeyError, OSError, ValueError) as exc:
-        raise _refusal(source, exc) from None
+    if measures.area <= MAX_CELLS and not measures.errors and not measures.exact:
+        return _CalamineBook(path)
+    return _OpenpyxlBook(path)
+
+
+class _Book:
+    """An open workbook: its sheet names, and each sheet's rows as (row number, cells)."""
+
+    source: str
+    sheetnames: list[str]
+
+    def lines(self, name: str) -> Iterable[tuple[int, Sequence[Any]]]:
+        raise NotImplementedError
+
+    def close(self) -> None:
+        raise NotImplementedError
+
+
+class _OpenpyxlBook(_Book):
+    """openpyxl's read-only reader (data only: a formula cell gives the value last calculated, an
+    error cell its text such as ``#N/A``): for workbooks the quick measuring did not vouch for,
+    whose rectangle is large, or that hold error cells."""
+
+    def __init__(self, path: Path):
+        import openpyxl
+        from openpyxl.utils.exceptions import InvalidFileException
+
+        self.source = str(path)
+        try:
+            self.wb = openpyxl.load_workbook(path, read_only=True, data_only=True)
+        except (InvalidFileException, zipfile.BadZipFile, KeyError, OSError, ValueError) as exc:
+            raise _refusal(self.source, exc) from None
+        self.sheetnames = self.wb.sheetnames
+
+    def lines(self, name: str) -> Iterable[tuple[int, Sequence[Any]]]:
+        return _safely(self.source, _xlsx_lines(self.wb[name]))
+
+    def close(self) -> None:
+        self.wb.close()
+
+
+# Whole numbers a double holds exactly: a number cell within them that is whole is read as an int.
+_EXACT_INTEGERS = 2.0**53
+
+
+class _CalamineBook(_Book):
+    """python-calamine (Rust), about twenty times openpyxl's speed, for a workbook that every part
+    of passed the quick measuring. calamine holds a sheet as one rectangle (from its first to its
+    last row and column), which the measuring bounded (:attr:`Measures.area`), and reads an error
+    cell as an empty one, so a workbook with error cells goes to openpyxl, which reads their text.
+
+    Cells come as openpyxl gives them: text stripped and empty as None, a whole number as an int
+    (calamine gives every number as a float; openpyxl an int when the XML writes no decimal
+    point), dates and times as calamine reads them (a date cell at midnight as a ``date``).
+    """
+
+    def __init__(self, path: Path):
+        from python_calamine import CalamineError, CalamineWorkbook
+
+        self.source = str(path)
+        self.failure = (CalamineError, ValueError, KeyError, OSError)
+        try:
+            self.wb = CalamineWorkbook.from_path(str(path))
+        except self.failure as exc:
+            raise _refusal(self.source, exc) from None
+        self.sheetnames = list(self.wb.sheet_names)
+
+    def lines(self, name: str) -> Iterable[tuple[int, Sequence[Any]]]:
+        try:
+            rows = self.wb.get_sheet_by_name(name).to_python(skip_empty_area=False)
+        except self.failure as exc:
+            raise _refusal(self.source, exc) from None
+        top = _EXACT_INTEGERS
+        for line, cells in enumerate(rows, start=1):
+            rows[line - 1] = None  # type: ignore[call-overload]  # let each row go once read
+            yield line, [(c.strip() or None) if c.__class__ is str else
+                         int(c) if c.__class__ is float and c.is_integer() and -top < c < top else c for c in cells]
+
+    def close(self) -> None:
+        self.wb.close()
 
 
 def _row_scan_limit() -> int:
@@ -218,7 +298,7 @@ def read_table(path: str | Path, sheet: str, *, known: Sequence[str] | None = No
             name = names[0]
         else:
             raise InputError(source, "sheet", f"a sheet named {sheet!r}", got="sheets " + ", ".join(map(repr, names)))
-        return _table(source, name, _safely(source, _xlsx_lines(wb[name])), known, required, max_rows)
+        return _table(source, name, wb.lines(name), known, required, max_rows, clean=isinstance(wb, _CalamineBook))
     finally:
         wb.close()
 
@@ -233,7 +313,7 @@ def read_sheets(path: str | Path) -> dict[str, list[tuple[int, Sequence[Any]]]]:
         found = {}
         for name in wb.sheetnames:
             lines = []
-            for line, cells in _safely(source, _xlsx_lines(wb[name])):
+            for line, cells in wb.lines(name):
                 if line > MAX_ROWS:
                     raise InputError(f"{source}, sheet {name}", "rows", f"at most {MAX_ROWS:,} rows", got="more")
                 lines.append((line, tuple(_clean(c) for c in cells)))
@@ -255,7 +335,10 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
             start = 1
             try:
                 for cells in reader:
-                    yield start, [_csv_cell(c) if c else None for c in cells]
+                    if "'" in "".join(cells):  # a quote that may guard a formula: the field by field way
+                        yield start, [_csv_cell(c) if c else None for c in cells]
+                    else:
+                        yield start, [(c.strip() or None) if c else None for c in cells]
                     start = reader.line_num + 1
             except csv.Error as exc:
                 raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None

@@ -29,6 +29,7 @@ from __future__ import annotations
 
 import re
 import zipfile
+from functools import lru_cache
 from itertools import repeat
 from operator import add, sub
 from dataclasses import dataclass, field
@@ -88,6 +89,12 @@ class _Part:
     number: int = 0  # openpyxl's row counter
     cells: int = 0
     strings: int = 0
+    # the sheet's extent (highest row and column any row or cell names) and its error cells, for
+    # choosing the reader (see :class:`Measures`); bounds, never below the true figures
+    top_row: int = 0
+    top_column: int = 0
+    errors: int = 0
+    exact: bool = False  # measured by the parser (XML the quick reading does not vouch for)
     # for each open row (rows may nest in XML): [cells so far, the last cell's column]
     open_rows: list[list[int]] = field(default_factory=list)
 
@@ -106,6 +113,7 @@ class _Part:
         else:
             raise InputError(self.where(), "row number", 'a whole number (r="7")', got=repr(r[:40]))
         self.check_number(self.number)
+        self.top_row = max(self.top_row, self.number)
         self.open_rows.append([0, 0])
 
     def count_rows(self, count: int) -> None:
@@ -137,8 +145,9 @@ class _Part:
         if r is None:
             state[1] += 1
             self._check_column(state[1], column_letters(state[1]) + str(self.number))
-            return
-        state[1] = self.reference(r)
+        else:
+            state[1] = self.reference(r)
+        self.top_column = max(self.top_column, state[1])
 
     def reference(self, r: str) -> int:
         """The column of cell reference ``r``, refused past the limits."""
@@ -150,6 +159,7 @@ class _Part:
         if int(found[2]) > self.limits.rows:
             raise InputError(self.at_row(), f"cell {r}", f"a row number of at most {self.limits.rows:,}",
                              got=f"row {int(found[2]):,}")
+        self.top_row = max(self.top_row, int(found[2]))
         return column
 
     def _check_column(self, column: int, ref: str) -> None:
@@ -207,6 +217,8 @@ class _Counter:
         tally = self.tally
         if self.stack and self.stack[-1]:
             tally.cell(attrib.get("r"))
+            if attrib.get("t") == "e":
+                tally.errors += 1
         is_row = tag == MAIN + "row"
         if is_row:
             tally.row(attrib.get("r"))
@@ -235,6 +247,7 @@ def _exactly(tally: _Part, stream) -> None:
 
     from defusedxml.ElementTree import DefusedXMLParser
 
+    tally.exact = True
     parser = DefusedXMLParser(target=_Counter(tally))
     try:
         while chunk := stream.read(CHUNK):
@@ -254,11 +267,40 @@ TABLE = re.compile(rb"<sst[\s/>]")
 ROW_START = re.compile(rb"<row(?=[\s/>])")
 ROW_NUMBER = re.compile(rb'<row r="([0-9]{1,15})"')
 CELL = b'<c r="'
+CELL_ENDS = (b" ", b">", b"/", b"\t", b"\n", b"\r")  # what may follow the name of a <c> element
 SPACED_R = (b'\tr="', b'\nr="', b'\rr="')
 XML_DECLARATION = re.compile(rb"<\?xml\s[^<>]*\?>")
 ENCODING = re.compile(rb"""encoding\s*=\s*["']([^"']*)["']""")
 QUICK_ENCODINGS = {b"utf-8", b"utf8", b"us-ascii", b"ascii"}
 OVERLAP = 64  # bytes of the previous chunk searched again, for a marker cut in two
+
+
+def _greater(number: int) -> bytes:
+    """A pattern of the decimal numbers greater than ``number`` (leading zeros count as greater)."""
+    digits = str(number)
+    found = [rb"[0-9]{%d,}" % (len(digits) + 1)]
+    for i, digit in enumerate(digits):
+        if digit != "9":
+            rest = len(digits) - i - 1
+            found.append(digits[:i].encode() + b"[%d-9]" % (int(digit) + 1) + (b"[0-9]{%d}" % rest if rest else b""))
+    return b"(?:" + b"|".join(found) + b")"
+
+
+@lru_cache(maxsize=64)
+def _past(row: int, column: int) -> re.Pattern[bytes]:
+    """A cell reference ``<c r="...`` past ``row`` or past ``column`` (references of three letters
+    and more are checked one by one by the quick reading, so two letters at most here)."""
+    letters = column_letters(column) if column else ""
+    later = []  # letters after those of ``column``, with as many of them
+    if len(letters) == 1:
+        later = [b"[A-Z]{2}"] + ([b"[%c-Z]" % (ord(letters) + 1)] if letters != "Z" else [])
+    elif len(letters) == 2:
+        later = ([b"[%c-Z][A-Z]" % (ord(letters[0]) + 1)] if letters[0] != "Z" else []) + \
+                ([letters[0].encode() + b"[%c-Z]" % (ord(letters[1]) + 1)] if letters[1] != "Z" else [])
+    elif not letters:
+        later = [b"[A-Z]{1,2}"]
+    columns = b"(?:[A-Z]{3,}|" + b"|".join(later) + b")[0-9]" if later else b"[A-Z]{3,}"
+    return re.compile(b'<c r="(?:' + columns + b"|[A-Z]+" + _greater(row) + b'")')
 
 
 def _attributes(raw: bytes) -> dict[str, str]:
@@ -389,27 +431,40 @@ class _Quick:
         if tally.before + tally.cells + total > lim.cells:
             raise _Exact
         tally.cells += total
+        self._extent(region, at, max(map(int, numbers)), max(widths))
+
+    def _extent(self, region: bytes, at: int, last_row: int, last_column: int) -> None:
+        """The highest row and column named in ``region`` (from ``at``), and its error cells. Every
+        cell is checked against its row's number and the last cell's column by one search for a
+        reference past them; a cell without a reference, or one past them, makes the extent the
+        whole of the limits (bounds, not counts: never below the true extent)."""
+        tally, lim = self.tally, self.tally.limits
+        tally.errors += region.count(b'="e"', at)  # t="e", or any attribute of that value
+        row, column = max(tally.top_row, last_row), max(tally.top_column, last_column)
+        if sum(region.count(b"<c" + end, at) for end in CELL_ENDS) != region.count(CELL, at) or _past(row, column).search(region, at):
+            row, column = lim.rows, lim.columns
+        tally.top_row, tally.top_column = row, column
 
 
-def measure_part(source: str, archive: zipfile.ZipFile, part: str, limits: Limits, before: int) -> int:
-    """Refuse ``part`` if it passes ``limits``; return the cells it adds to the workbook's."""
+def measure_part(source: str, archive: zipfile.ZipFile, part: str, limits: Limits, before: int) -> _Part:
+    """Refuse ``part`` if it passes ``limits``; return its counts (``cells`` is what it adds to the workbook's)."""
     tally = _Part(source, part, limits, before)
     with archive.open(part) as stream:
         first = stream.read(CHUNK)
         if first.startswith((b"\xff\xfe", b"\xfe\xff")) or b"\x00" in first[:4]:
             _exactly(tally, _Prepend(first, stream))  # UTF-16 or wider: the parser decodes it
-            return tally.cells
+            return tally
         if first.lstrip(b"\xef\xbb\xbf \t\r\n")[:1] != b"<":
-            return 0  # not XML: openpyxl cannot read it as a sheet or string table either
+            return tally  # not XML: no reader can read it as a sheet or string table either
         try:
             _Quick(tally, stream, first).run()
-            return tally.cells
+            return tally
         except _Exact:
             pass
     tally = _Part(source, part, limits, before)
     with archive.open(part) as stream:
         _exactly(tally, stream)
-    return tally.cells
+    return tally
 
 
 class _Prepend:
@@ -425,9 +480,27 @@ class _Prepend:
         return self.stream.read(size)
 
 
-def measure_workbook(source: str, archive: zipfile.ZipFile, limits: Limits) -> None:
+@dataclass(frozen=True)
+class Measures:
+    """What the measuring found in a workbook that passed: ``area``, the cells of every part's
+    rectangle from A1 to its highest row and column (what a reader that holds a sheet as one
+    rectangle allocates, at most); ``errors``, cells holding an error value (``t="e"``); ``exact``,
+    whether any part was XML the quick reading does not vouch for (read by the parser)."""
+
+    area: int
+    errors: int
+    exact: bool
+
+
+def measure_workbook(source: str, archive: zipfile.ZipFile, limits: Limits) -> Measures:
     """Every part of the archive, measured; the cells are counted over the whole workbook."""
-    cells = 0
+    cells = area = errors = 0
+    exact = False
     for info in archive.infolist():
         if not info.is_dir():
-            cells += measure_part(source, archive, info.filename, limits, cells)
+            tally = measure_part(source, archive, info.filename, limits, cells)
+            cells += tally.cells
+            area += tally.top_row * tally.top_column
+            errors += tally.errors
+            exact = exact or tally.exact
+    return Measures(area, errors, exact)
