@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import math
 import sys
+from dataclasses import dataclass
 from typing import Any, Iterable
 
 VERDICT_STYLE = {"met": "[green]{}[/green]", "not met": "[red]NOT MET[/red]", "not shown": "[yellow]{}[/yellow]"}
@@ -34,19 +35,85 @@ def progress_bar(items: list, label: str) -> Iterable:
     yield from track(items, description=label, console=Console(stderr=True), transient=True)
 
 
-def shortfall_table(check) -> Any:
-    """The rich table of a :class:`kit.services.orders.VoyageCheck` with lines short."""
+@dataclass(frozen=True)
+class Col:
+    """A column of a :func:`fitted_table`: its heading, its rank (0 is kept longest; the highest
+    rank is left out first on a narrow console), right-aligned or not, and whether it is the one
+    text column that wraps (at spaces, never narrower than :data:`WRAP_MIN`)."""
+
+    name: str
+    rank: int = 0
+    right: bool = False
+    wraps: bool = False
+
+
+WRAP_MIN = 24  # a wrapped column narrower than this reads one or two words a line
+
+
+def _cell_width(text: str) -> int:
+    from rich.text import Text
+
+    return max((Text.from_markup(line).cell_len for line in str(text).split("\n")), default=0)
+
+
+def fitted_table(columns: list[Col], rows: list[list[str]], width: int, **table_options: Any) -> Any:
+    """A rich table of ``rows`` that fits ``width`` console columns: every column but the wrapping
+    one keeps its cells on one line, and columns are left out, highest rank first, until the rest
+    fit (the caption names them). Text already escaped for rich (:func:`shown`)."""
     from rich.table import Table
 
-    vessel, days = check.vessel, check.days
-    table = Table(title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage", title_justify="left")
-    for col in ("no", "designation", "required", "on board", "short", "uom", "basis"):
-        table.add_column(col, justify="right" if col in ("no", "required", "on board", "short") else "left")
-    for line in check.short.lines:
-        nd = 1 if line.uom == "L" else 0
-        table.add_row(str(line.number), shown(line.designation), f"{line.required:.{nd}f}", f"{line.on_board:.{nd}f}",
-                      f"{line.to_order:.{nd}f}", shown(line.uom), shown(line.basis))
+    def need(i: int, col: Col) -> int:
+        cells = [_cell_width(r[i]) for r in rows] + [_cell_width(col.name)]
+        if not col.wraps:
+            return max(cells)
+        words = [_cell_width(w) for r in rows for w in str(r[i]).split()] + [_cell_width(col.name)]
+        return min(max(cells), max(WRAP_MIN, *words))
+
+    widths = [need(i, c) for i, c in enumerate(columns)]
+    kept = list(range(len(columns)))
+    # a table with the default box: one rule between columns and at each edge, one space of padding either side
+    while len(kept) > 1 and sum(widths[i] + 3 for i in kept) + 1 > width:
+        kept.remove(max(kept, key=lambda i: (columns[i].rank, i)))
+    left_out = [columns[i].name for i in range(len(columns)) if i not in kept]
+    caption = f"left out at {width} columns: {', '.join(left_out)} (a wider terminal shows them)" if left_out else None
+    table = Table(caption=caption, caption_justify="left", title_justify="left", **table_options)
+    for i in kept:
+        col = columns[i]
+        table.add_column(col.name, justify="right" if col.right else "left", no_wrap=not col.wraps,
+                         min_width=widths[i], overflow="fold")
+    for r in rows:
+        table.add_row(*(r[i] for i in kept))
     return table
+
+
+SHORTFALL_COLUMNS = [Col("no", 1, right=True), Col("part", wraps=True), Col("uom"), Col("needed", right=True),
+                     Col("on board", right=True), Col("short", right=True), Col("basis", 2)]
+
+
+def shortfall_table(check, width: int = 80) -> Any:
+    """The rich table of a :class:`kit.services.orders.VoyageCheck` with lines short, fitted to ``width``."""
+    from kit.engine.preflight import shortfall_rows
+
+    vessel, days = check.vessel, check.days
+    rows = []
+    for n, row in enumerate(shortfall_rows(check.short), 1):
+        nd = 1 if row.uom == "L" else 0
+        rows.append([str(n), shown(row.part), shown(row.uom), f"{row.needed:,.{nd}f}", f"{row.on_board:,.{nd}f}",
+                     f"{row.short:,.{nd}f}", shown(row.basis)])
+    return fitted_table(SHORTFALL_COLUMNS, rows, width,
+                        title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage")
+
+
+VESSEL_COLUMNS = [Col("id"), Col("name", 1, wraps=True), Col("type", 4), Col("GT", 5, right=True), Col("units", 3, right=True),
+                  Col("last count"), Col("next delivery", 2, wraps=True)]
+
+
+def vessels_table(vessels: list, width: int = 80) -> Any:
+    """The fleet at a glance (:func:`kit.services.fleet.list_vessels`), fitted to ``width``."""
+    rows = [[shown(v.id), shown(v.name), shown(v.ship_type), f"{v.gross_tonnage:,.0f}", str(v.units),
+             v.last_count.isoformat() if v.last_count else "",
+             f"{shown(v.next_port)}, {v.next_due.isoformat()}" if v.next_due else ""] for v in vessels]
+    return fitted_table(VESSEL_COLUMNS, rows, width, title=f"{len(vessels)} vessel(s) in the fleet database")
 
 
 def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:

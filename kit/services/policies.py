@@ -37,9 +37,11 @@ def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.
 
     content = read_policy_text(policy_file) if policy_file else None
     check_policy_values(name=name, cover_days=cover_days, company=company, vessel=vessel, note=note)
+    from kit.store.vessel_ids import resolve_vessel_id
+
     write_transaction(engine, lambda conn: record(conn, name=name, cover_days=cover_days, in_force_from=in_force_from,
-                                                  company=company, vessel=vessel, note=note,
-                                                  content=content, content_source=str(policy_file)))
+                                                  company=company, vessel=vessel and resolve_vessel_id(conn, vessel),
+                                                  note=note, content=content, content_source=str(policy_file)))
 
 
 @dataclass(frozen=True)
@@ -51,12 +53,15 @@ class PolicyShown:
 
 
 def show_policy(engine: Engine, vessel: str, on: dt.date | None = None) -> PolicyShown:
-    """The spares policy in force for ``vessel`` on ``on`` (default today): its own, else its
-    company's, else kit's default."""
+    """The spares policy in force for ``vessel`` (any letter case) on ``on`` (default today): its own,
+    else its company's, else kit's default."""
     from kit.store.policy_store import policy_in_force
     from kit.engine.spares import load_policy
 
     day = on or dt.date.today()
+    from kit.store.vessel_ids import resolve_vessel_id
+
     with engine.connect() as conn:
+        vessel = resolve_vessel_id(conn, vessel)
         found = policy_in_force(conn, vessel, day)
     return PolicyShown(vessel, day, found, load_policy() if found is None else found.policy())
