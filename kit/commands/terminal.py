@@ -35,19 +35,20 @@ def progress_bar(items: list, label: str) -> Iterable:
     yield from track(items, description=label, console=Console(stderr=True), transient=True)
 
 
+WRAP_MIN = 24  # a wrapped column narrower than this reads one or two words a line
+
+
 @dataclass(frozen=True)
 class Col:
     """A column of a :func:`fitted_table`: its heading, its rank (0 is kept longest; the highest
-    rank is left out first on a narrow console), right-aligned or not, and whether it is the one
-    text column that wraps (at spaces, never narrower than :data:`WRAP_MIN`)."""
+    rank is left out first on a narrow console), right-aligned or not, and whether its text wraps
+    (at spaces, never narrower than its longest word nor ``least``)."""
 
     name: str
     rank: int = 0
     right: bool = False
     wraps: bool = False
-
-
-WRAP_MIN = 24  # a wrapped column narrower than this reads one or two words a line
+    least: int = WRAP_MIN
 
 
 def _cell_width(text: str) -> int:
@@ -57,9 +58,10 @@ def _cell_width(text: str) -> int:
 
 
 def fitted_table(columns: list[Col], rows: list[list[str]], width: int, **table_options: Any) -> Any:
-    """A rich table of ``rows`` that fits ``width`` console columns: every column but the wrapping
-    one keeps its cells on one line, and columns are left out, highest rank first, until the rest
-    fit (the caption names them). Text already escaped for rich (:func:`shown`)."""
+    """A rich table of ``rows`` that fits ``width`` console columns: a column that does not wrap
+    keeps its cells on one line, one that wraps keeps at least its longest word (or ``least``) a
+    line, and columns are left out, highest rank first, until the rest fit (the caption names
+    them). Text already escaped for rich (:func:`shown`)."""
     from rich.table import Table
 
     def need(i: int, col: Col) -> int:
@@ -67,12 +69,13 @@ def fitted_table(columns: list[Col], rows: list[list[str]], width: int, **table_
         if not col.wraps:
             return max(cells)
         words = [_cell_width(w) for r in rows for w in str(r[i]).split()] + [_cell_width(col.name)]
-        return min(max(cells), max(WRAP_MIN, *words))
+        return min(max(cells), max(col.least, *words))
 
     widths = [need(i, c) for i, c in enumerate(columns)]
     kept = list(range(len(columns)))
     # a table with the default box: one rule between columns and at each edge, one space of padding either side
-    while len(kept) > 1 and sum(widths[i] + 3 for i in kept) + 1 > width:
+    # (and one column spare: rich's own narrowing of wrapped columns may round one over)
+    while len(kept) > 1 and sum(widths[i] + 3 for i in kept) + 2 > width:
         kept.remove(max(kept, key=lambda i: (columns[i].rank, i)))
     left_out = [columns[i].name for i in range(len(columns)) if i not in kept]
     caption = f"left out at {width} columns: {', '.join(left_out)} (a wider terminal shows them)" if left_out else None
@@ -116,28 +119,71 @@ def vessels_table(vessels: list, width: int = 80) -> Any:
     return fitted_table(VESSEL_COLUMNS, rows, width, title=f"{len(vessels)} vessel(s) in the fleet database")
 
 
+RULES_LISTED = 10  # rule checks not met listed one a line; past this, a count
+
+
+def order_summary(order) -> list[str]:
+    """The lines ``kit bom`` ends with (plain text, stored text made visible): the order's lines
+    and those with something to order, the total of the priced lines per currency (as the
+    workbook's cover sums them), then the warnings that matter: lines to order with no catalogue
+    price, and each rule check of the gear that is not met."""
+    from kit.files.safe_text import visible
+
+    to_order = [line for line in order.lines if line.to_order > 0]
+    out = [f"{len(order.lines)} order line(s) for {len(order.results)} vessel(s), {len(to_order)} with something to order"]
+    totals = order.totals_by_currency()
+    if totals:
+        out.append("total of priced lines: " + "; ".join(f"{totals[c]:,.2f} {visible(c) or '(no currency)'}" for c in sorted(totals)))
+    unpriced = [line for line in to_order if line.line_total is None]
+    if unpriced:
+        kinds = ", ".join(dict.fromkeys(line.kind.replace("_", " ") for line in unpriced))
+        out.append(f"warning: {len(unpriced)} of the {len(to_order)} line(s) to order have no catalogue price ({kinds})")
+    failed = [(r.vessel.id, u.unit.id, rule.clause) for r in order.results for u in r.units
+              for rule in u.checks.rules if rule.verdict == "not met"]
+    for vessel_id, unit_id, clause in failed[:RULES_LISTED]:
+        out.append(visible(f"warning: {vessel_id} unit {unit_id}: {clause} not met (see the Gear checks sheet)"))
+    if len(failed) > RULES_LISTED:
+        out.append(f"warning: {len(failed) - RULES_LISTED} more rule check(s) not met (see the Gear checks sheet)")
+    return out
+
+
 def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:
     if x is None or (isinstance(x, float) and math.isnan(x)):
         return "-"
     return f"{x:,.{nd}f}{unit}"
 
 
-def render(r, console) -> None:
-    """Print the readable report of ``r`` on a rich ``console``."""
-    from rich.table import Table
+class _Rows:
+    """The rows of a titled table, gathered before it is fitted (:func:`fitted_table`)."""
 
+    def __init__(self, title: str):
+        self.title, self.rows = title, []
+
+    def add_row(self, *cells: str) -> None:
+        self.rows.append(list(cells))
+
+
+# The calculation report's tables: which columns give way first on a narrow terminal.
+CHECK_COLUMNS = [Col("check", wraps=True, least=20), Col("value", right=True), Col("against", wraps=True, least=20)]
+RULE_COLUMNS = [Col("clause", wraps=True, least=12), Col("verdict"), Col("judged on", wraps=True)]
+SEAL_COLUMNS = [Col("role", 1), Col("part", wraps=True, least=16), Col("d mm", right=True), Col("D mm", right=True),
+                Col("L mm", right=True), Col("qty", right=True), Col("compound", wraps=True, least=10), Col("from", 2, wraps=True, least=12)]
+LINE_COLUMNS = [Col("unit"), Col("designation", wraps=True), Col("standard", 2, wraps=True, least=12),
+                Col("compound", 1, wraps=True, least=10), Col("qty", right=True), Col("uom"), Col("basis", 3, wraps=True, least=14)]
+
+
+def render(r, console) -> None:
+    """Print the readable report of ``r`` on a rich ``console``, its tables fitted to its width."""
     from kit.engine.report import vessel_json
     from kit.files.safe_text import each_text
 
+    width = console.width
     data = each_text(vessel_json(r), shown)  # text from files as it is: no markup, no control characters
     v = data["vessel"]
     console.print(f"[bold]{v['name']}[/bold] ({v['id']}), {v['ship_type']}, {v['gross_tonnage']:,.0f} GT"
                   f" -- period {r.days:g} days -- spares policy: {data['policy']}")
     for u in data["units"]:
-        t = Table(title=f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}", title_justify="left")
-        t.add_column("check")
-        t.add_column("value", justify="right")
-        t.add_column("against")
+        t = _Rows(f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}")
         if u["torque_knm"]["midships"] is not None:
             t.add_row("torque at relief setting, midships", _fmt(u["torque_knm"]["midships"], " kNm"), "")
             t.add_row("torque at relief setting, max angle (least of both directions)", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
@@ -161,32 +207,21 @@ def render(r, console) -> None:
         if u["storage_tank_min_l"] is not None:
             t.add_row("storage tank minimum", _fmt(u["storage_tank_min_l"], " L"), "SOLAS II-1/29.12.3")
         t.add_row("top-up for the period", _fmt(u["top_up_l"], " L", 2), "leakage rate x period")
-        console.print(t)
+        console.print(fitted_table(CHECK_COLUMNS, t.rows, width, title=t.title))
         if u["rules"]:
-            rules = Table(title=f"SOLAS II-1/29 verdicts of unit {u['id']}", title_justify="left")
-            for col in ("clause", "verdict", "judged on"):
-                rules.add_column(col)
-            for rule in u["rules"]:
-                rules.add_row(rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"])
-            console.print(rules)
-        seals = Table(title=f"Seal kit of unit {u['id']} (per unit)", title_justify="left")
-        for col in ("role", "part", "d mm", "D mm", "L mm", "qty", "compound", "from"):
-            seals.add_column(col, justify="right" if col.endswith("mm") or col == "qty" else "left")
-        for s in u["seals"]:
-            seals.add_row(s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
-                          str(s["qty"]), s["compound"], s["origin"])
-        console.print(seals)
+            rules = [[rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"]]
+                     for rule in u["rules"]]
+            console.print(fitted_table(RULE_COLUMNS, rules, width, title=f"SOLAS II-1/29 verdicts of unit {u['id']}"))
+        seals = [[s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
+                  str(s["qty"]), s["compound"], s["origin"]] for s in u["seals"]]
+        console.print(fitted_table(SEAL_COLUMNS, seals, width, title=f"Seal kit of unit {u['id']} (per unit)"))
         for line in u["inspections"]:
             console.print(f"inspect {u['id']}: {line}")
         for w in u["warnings"]:
             console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
-    lines = Table(title="Requirement list (to keep on board)", title_justify="left")
-    for col in ("unit", "designation", "standard", "compound", "qty", "uom", "basis"):
-        lines.add_column(col, justify="right" if col == "qty" else "left")
-    for li in data["lines"]:
-        lines.add_row(li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
-                      li["uom"], li["basis"])
-    console.print(lines)
+    lines = [[li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
+              li["uom"], li["basis"]] for li in data["lines"]]
+    console.print(fitted_table(LINE_COLUMNS, lines, width, title="Requirement list (to keep on board)"))
     for o in data["oil"]:
         packs = ", ".join(f"{p['count']} x {p['name']} ({p['volume_l']:g} L)" for p in o["packages"]) or "none"
         console.print(f"oil {o['fluid']}: need {o['need_l']:,.1f} L = {o['need_kg']:,.1f} kg = {o['need_us_gal']:,.1f} US gal;"

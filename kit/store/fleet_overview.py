@@ -42,6 +42,7 @@ def fleet_glance(conn: Connection, today: dt.date) -> list[VesselGlance]:
              .outerjoin(counted, counted.c.vessel_id == VESSELS.c.id)
              .outerjoin(next_due, next_due.c.vessel_id == VESSELS.c.id)
              .outerjoin(DELIVERIES, and_(DELIVERIES.c.vessel_id == next_due.c.vessel_id, DELIVERIES.c.due_on == next_due.c.due_on))
-             .order_by(VESSELS.c.id))
-    return [VesselGlance(r.id, r.name, r.ship_type, r.gross_tonnage, r.units or 0, r.last_count, r.port, r.due_on)
-            for r in conn.execute(query)]
+)
+    found = [VesselGlance(r.id, r.name, r.ship_type, r.gross_tonnage, r.units or 0, r.last_count, r.port, r.due_on)
+             for r in conn.execute(query)]
+    return sorted(found, key=lambda v: v.id)  # by code point on every engine (a PostgreSQL collation may skip hyphens)
