@@ -64,26 +64,35 @@ def fitted_table(columns: list[Col], rows: list[list[str]], width: int, **table_
     them). Text already escaped for rich (:func:`shown`)."""
     from rich.table import Table
 
+    def natural(i: int, col: Col) -> int:
+        return max([_cell_width(r[i]) for r in rows] + [_cell_width(col.name)])
+
     def need(i: int, col: Col) -> int:
-        cells = [_cell_width(r[i]) for r in rows] + [_cell_width(col.name)]
         if not col.wraps:
-            return max(cells)
+            return natural(i, col)
         words = [_cell_width(w) for r in rows for w in str(r[i]).split()] + [_cell_width(col.name)]
-        return min(max(cells), max(col.least, *words))
+        return min(natural(i, col), max(col.least, *words))
 
     widths = [need(i, c) for i, c in enumerate(columns)]
     kept = list(range(len(columns)))
     # a table with the default box: one rule between columns and at each edge, one space of padding either side
-    # (and one column spare: rich's own narrowing of wrapped columns may round one over)
-    while len(kept) > 1 and sum(widths[i] + 3 for i in kept) + 2 > width:
+    while len(kept) > 1 and sum(widths[i] + 3 for i in kept) + 1 > width:
         kept.remove(max(kept, key=lambda i: (columns[i].rank, i)))
+    # what is left over widens the wrapping columns, each up to its longest cell, in turn
+    spare = width - sum(widths[i] + 3 for i in kept) - 1
+    for i in kept:
+        if columns[i].wraps and spare > 0:
+            grow = min(spare, natural(i, columns[i]) - widths[i])
+            widths[i] += grow
+            spare -= grow
     left_out = [columns[i].name for i in range(len(columns)) if i not in kept]
     caption = f"left out at {width} columns: {', '.join(left_out)} (a wider terminal shows them)" if left_out else None
     table = Table(caption=caption, caption_justify="left", title_justify="left", **table_options)
     for i in kept:
         col = columns[i]
+        # a fixed width: rich's own narrowing could take a wrapping column below its longest word
         table.add_column(col.name, justify="right" if col.right else "left", no_wrap=not col.wraps,
-                         min_width=widths[i], overflow="fold")
+                         width=widths[i], overflow="fold")
     for r in rows:
         table.add_row(*(r[i] for i in kept))
     return table
@@ -168,8 +177,8 @@ CHECK_COLUMNS = [Col("check", wraps=True, least=20), Col("value", right=True), C
 RULE_COLUMNS = [Col("clause", wraps=True, least=12), Col("verdict"), Col("judged on", wraps=True)]
 SEAL_COLUMNS = [Col("role", 1), Col("part", wraps=True, least=16), Col("d mm", right=True), Col("D mm", right=True),
                 Col("L mm", right=True), Col("qty", right=True), Col("compound", wraps=True, least=10), Col("from", 2, wraps=True, least=12)]
-LINE_COLUMNS = [Col("unit"), Col("designation", wraps=True), Col("standard", 2, wraps=True, least=12),
-                Col("compound", 1, wraps=True, least=10), Col("qty", right=True), Col("uom"), Col("basis", 3, wraps=True, least=14)]
+LINE_COLUMNS = [Col("unit"), Col("designation", wraps=True), Col("standard", 2, wraps=True, least=20),
+                Col("compound", 1, wraps=True, least=10), Col("qty", right=True), Col("uom"), Col("basis", 3, wraps=True, least=20)]
 
 
 def render(r, console) -> None:

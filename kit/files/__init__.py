@@ -9,6 +9,7 @@
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
 ``safe_text``  formula text and control characters: checked on the way in, visible on the way out
 ``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
+``check_workbook``  the pre-voyage check, one sheet laid out for one A4 page
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
 
 The files layer may use the engine and ``catalog_schema.conventions`` (shared constants that

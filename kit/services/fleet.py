@@ -1,5 +1,5 @@
 # SPDX-License-Identifier: MIT
-"""Vessels and generic parts: load particulars, register parts, list parts, work out a vessel."""
+"""Vessels and generic parts: load particulars, register parts, list parts, list the vessels, work out a vessel."""
 
 from __future__ import annotations
 
