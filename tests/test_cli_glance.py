@@ -204,12 +204,17 @@ def test_check_workbook_prints_on_one_a4_page_at_a_readable_size(check_book):
     # A4 is 210 mm x 297 mm (ISO 216), 595.3 pt x 841.9 pt
     width, height = map(float, re.search(r"^Page size:\s+([\d.]+) x ([\d.]+) pts", info, re.M).groups())
     assert (round(width), round(height)) == (595, 842)
+    # The printed scale: how far apart two headings print against the row heights between them
+    # in the sheet (points). The body is set at 10 pt; printed text under about 8.5 pt is hard to
+    # read at arm's length (common practice).
     boxes = subprocess.run(["pdftotext", "-bbox", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
-    words = re.findall(r'yMin="([\d.]+)" xMax="[\d.]+" yMax="([\d.]+)">([^<]*)<', boxes)
-    heights = [float(y1) - float(y0) for y0, y1, _ in words]
-    # the body is set at 10 pt; printed text under about 8 pt is hard to read at arm's length (common practice).
-    # A word's box is its font size times the font's ascent plus descent, over 1.0 em for these fonts.
-    assert min(heights) >= 8.0, min(heights)
+    tops = {word: float(y) for y, word in re.findall(r'yMin="([\d.]+)" xMax="[\d.]+" yMax="[\d.]+">([^<]*)<', boxes)
+            if word in ("1.", "2.")}
+    ws = openpyxl.load_workbook(check_book).active
+    first, second = (next(r for r in range(1, ws.max_row + 1) if str(ws.cell(r, 1).value).startswith(h)) for h in ("1. ", "2. "))
+    scale = (tops["2."] - tops["1."]) / sum(ws.row_dimensions[r].height for r in range(first, second))
+    assert 10 * scale >= 8.5, scale
+    assert scale <= 1.0001  # fitted to the width, never enlarged
     text = subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
     assert f"Pre-voyage check: Corvina Bay (CORVINA-BAY), {DAYS} days" in text  # the page header
     assert "page 1 of 1" in text  # the footer
@@ -233,3 +238,40 @@ def test_nothing_short_check_says_so(demo, tmp_path, corvina_order):
     assert rows[4][0] == f"Nothing short: everything a {DAYS}-day voyage needs is on board."
     start = next(i for i, r in enumerate(rows) if r[0] == "1. Shortfall")
     assert rows[start + 2][0] == "Nothing short."
+
+
+@pytest.mark.parametrize("vessel, name", [("QUARRENBY-RIDGE", "Quarrenby Ridge"), ("OXBOW-LANTERN", "Oxbow Lantern")])
+def test_a_long_check_keeps_headings_with_their_rows_and_the_caution_whole(tmp_path, vessel, name):
+    db = tmp_path / "fleet.sqlite"
+    assert run("load", ROOT / "demo_fleet", "--db", db).exit_code == 0  # no stock: every line is short
+    book = tmp_path / "long.xlsx"
+    assert run("check", vessel, "--days", "180", "--db", db, "--out", book).exit_code == 1
+    pdf = pdf_of(book)
+    pages = int(re.search(r"^Pages:\s+(\d+)$", subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True).stdout, re.M)[1])
+    assert pages >= 2
+    rows = [r for r in openpyxl.load_workbook(book).active.iter_rows(values_only=True)]
+    for n in range(1, pages + 1):
+        page = subprocess.run(["pdftotext", "-layout", "-f", str(n), "-l", str(n), str(pdf), "-"],
+                              capture_output=True, text=True, check=True).stdout
+        assert f"page {n} of {pages}" in page and f"Pre-voyage check: {name} ({vessel}), 180 days" in page
+        # the notes and the caution on one page, not split over two
+        assert ("Needed: what the voyage needs" in page) == ("kit's figures are a planning aid" in page)
+        for i, r in enumerate(rows):
+            if r[0] and re.match(r"\d\. ", str(r[0])) and r[0] in page:
+                first_row = str(rows[i + 2][0]).split()[0]  # heading, header row, then the first row
+                assert first_row in page[page.index(r[0]):], (n, r[0])
+
+
+def test_an_ampersand_in_the_vessel_name_prints_in_the_page_header(tmp_path):
+    # "&" starts a code in a page header, "&&" prints one "&" (ECMA-376 Part 1, oddHeader; from memory,
+    # checked here by the LibreOffice render)
+    path = tmp_path / "amp.toml"
+    path.write_text(TOML_CYLINDER.replace('name = "Test One"', 'name = "Brack & Sons &P"'))
+    db = tmp_path / "fleet.sqlite"
+    assert run("load", path, "--db", db).exit_code == 0
+    book = tmp_path / "amp.xlsx"
+    assert run("check", "test-one", "--days", "30", "--db", db, "--out", book).exit_code == 1
+    header = openpyxl.load_workbook(book).active.oddHeader.left.text
+    assert header == "Pre-voyage check: Brack && Sons &&P (TEST-ONE), 30 days"
+    text = subprocess.run(["pdftotext", "-layout", str(pdf_of(book)), "-"], capture_output=True, text=True, check=True).stdout
+    assert "Pre-voyage check: Brack & Sons &P (TEST-ONE), 30 days" in text

@@ -20,6 +20,7 @@ from typing import Any
 from openpyxl import Workbook
 from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
 from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.pagebreak import Break
 from openpyxl.worksheet.properties import PageSetupProperties
 
 from kit.engine.bom import Order
@@ -31,9 +32,9 @@ from kit.safety import SAFETY
 TITLE = "Pre-voyage check"
 SHEET = "Pre-voyage check"
 # Six columns, their widths (characters of the default font) summing to what A4 portrait holds
-# between 15 mm margins at nearly full size (the LibreOffice render is checked in
-# tests/test_check_workbook.py). Arial, or a font with its metrics, is on every office machine.
-COLUMNS = (("Part", 36), ("UoM", 5), ("Needed", 8), ("On board", 8), ("Short", 8), ("Basis", 22))
+# between 11 mm margins at over 90 % (the LibreOffice render is checked in
+# tests/test_cli_glance.py). Arial, or a font with its metrics, is on every office machine.
+COLUMNS = (("Part", 32), ("UoM", 5), ("Needed", 8), ("On board", 8), ("Short", 7), ("Basis", 21))
 BODY = Font(name="Arial", size=10)
 BOLD = Font(name="Arial", size=10, bold=True)
 SHORT_FONT = Font(name="Arial", size=10, bold=True, color="B00000")
@@ -46,14 +47,18 @@ WRAP = Alignment(wrap_text=True, vertical="top")
 NUMBER = Alignment(vertical="top", horizontal="right", indent=1)
 KEY_COLUMN = "Part key"  # right of the print area: the generic part's key, as in the order workbook
 LINE_PT = 13.0  # one line of the 10 pt body font, with its leading
-TEXT_CHARS = 110  # a line of free text across the six columns (bold: fewer)
+# The rows of one A4 portrait page between the margins, less the page header and footer, in points
+# of row height before the fit-to-width scale (about 0.93): a little under the 800 LibreOffice fits.
+PAGE_PT = 740.0
+KEEP_ROWS = 3  # a table's heading goes to the next page unless this many of its rows follow it
+TEXT_CHARS = 105  # a line of free text across the six columns (bold: fewer)
 
 
 def _lines(text: str, width: int) -> int:
     """The lines ``text`` takes in a wrapped cell ``width`` characters wide. A width counts the
-    digit 0 of the default font; Arial 10 sets about 1.4 characters of mixed text in its place
-    (LibreOffice render), so 1.2 leaves room for a wide word without cutting it."""
-    return len(textwrap.wrap(visible(text), max(int(width * 1.2) - 1, 1))) or 1
+    digit 0 of the default font; Arial 10 sets 1.4 to 1.6 characters of mixed text in its place
+    (LibreOffice render), so 1.3 leaves room for wide words without cutting them."""
+    return len(textwrap.wrap(visible(text), max(int(width * 1.3) - 1, 1))) or 1
 
 
 def _header_text(text: str) -> str:
@@ -62,15 +67,30 @@ def _header_text(text: str) -> str:
 
 
 class _Page:
-    """The one sheet, written row by row."""
+    """The one sheet, written row by row, each row's height set (a row does not grow by itself in
+    every program) and counted, so a table's heading is kept with its first rows on one page."""
 
     def __init__(self, wb: Workbook):
         self.ws = wb.active
         self.ws.title = SHEET
         self.row = 0
+        self.used = 0.0  # points of the current page taken
         for i, (_, width) in enumerate(COLUMNS, 1):
             self.ws.column_dimensions[get_column_letter(i)].width = width
         self.ws.column_dimensions[get_column_letter(len(COLUMNS) + 1)].width = 40
+
+    def next_row(self, height: float = LINE_PT) -> None:
+        self.row += 1
+        self.ws.row_dimensions[self.row].height = height
+        if self.used + height > PAGE_PT:  # the program starts a new page here by itself
+            self.used = 0.0
+        self.used += height
+
+    def keep_together(self, height: float) -> None:
+        """Start a new page after the current row unless ``height`` more points fit on this one."""
+        if self.used and self.used + height > PAGE_PT:
+            self.ws.row_breaks.append(Break(id=self.row))
+            self.used = 0.0
 
     def cell(self, col: int, value: Any, font: Font = BODY, fmt: str | None = None, **style: Any) -> None:
         c = self.ws.cell(self.row, col)
@@ -86,32 +106,31 @@ class _Page:
         for name, v in style.items():
             setattr(c, name, v)
 
-    def text(self, text: str, font: Font = BODY, chars: int = TEXT_CHARS) -> None:
+    def text(self, text: str, font: Font = BODY, chars: int = TEXT_CHARS, height: float = LINE_PT) -> None:
         """Free text in column A, over as many rows as it needs (it runs on over the empty cells
-        to its right; a row does not grow by itself in every program)."""
+        to its right)."""
         for part in textwrap.wrap(visible(text), chars) or [""]:
-            self.row += 1
+            self.next_row(height)
             self.cell(1, part, font)
 
-    def gap(self) -> None:
-        self.row += 1
-
     def table(self, heading: str, names: tuple[str, ...], rows: list[list[Any]], empty: str) -> None:
-        """A titled grid: a header row, then ``rows`` (text wraps in the first and last column, the
-        row as tall as its longest cell), or ``empty`` when there are none."""
-        self.gap()
-        self.text(heading, HEADING)
-        self.row += 1
+        """A titled grid: a header row, then ``rows`` (text wraps, the row as tall as its longest
+        cell), or ``empty`` when there are none; the heading on the page of the first rows."""
         names = names + ((KEY_COLUMN,) if rows and len(rows[0]) > len(COLUMNS) else ())
+        head = LINE_PT * max(_lines(n, w) for n, (_, w) in zip(names, COLUMNS)) + 2
+        heights = [LINE_PT * max([1] + [_lines(v, w) for v, (_, w) in zip(values, COLUMNS) if isinstance(v, str)]) + 2
+                   for values in rows]
+        self.keep_together(2 * LINE_PT + head + sum(heights[:KEEP_ROWS]))
+        self.next_row()
+        self.text(heading, HEADING)
+        self.next_row(head)
         for col, name in enumerate(names, 1):
             self.cell(col, name, BOLD, fill=HEADER_FILL, border=GRID, alignment=WRAP)
-        self.ws.row_dimensions[self.row].height = LINE_PT * max(_lines(n, w) for n, (_, w) in zip(names, COLUMNS)) + 2
         if not rows:
             self.text(empty)
             return
-        for values in rows:
-            self.row += 1
-            lines = 1
+        for values, height in zip(rows, heights):
+            self.next_row(height)
             for col, value in enumerate(values, 1):
                 fmt = None
                 if isinstance(value, tuple):  # (number, format)
@@ -119,10 +138,7 @@ class _Page:
                 if col > len(COLUMNS):  # the part key: outside the print area, for scripts and look-ups
                     self.cell(col, value, BODY)
                     continue
-                if isinstance(value, str):
-                    lines = max(lines, _lines(value, COLUMNS[col - 1][1]))
                 self.cell(col, value, BODY, fmt, border=GRID, alignment=WRAP if isinstance(value, str) else NUMBER)
-            self.ws.row_dimensions[self.row].height = LINE_PT * lines + 2
 
 
 def _amount(value: float | None, uom: str) -> tuple[float | None, str]:
@@ -146,8 +162,7 @@ def write_check_workbook(check: Any, path: str | Path, on: dt.date | None = None
     page = _Page(wb)
     ws = page.ws
 
-    page.text(f"{TITLE}: {vessel.name} ({vessel.id})", TITLE_FONT, chars=60)
-    ws.row_dimensions[page.row].height = 21
+    page.text(f"{TITLE}: {vessel.name} ({vessel.id})", TITLE_FONT, chars=60, height=21)
     page.text(f"Vessel: {vessel.name} ({vessel.id}), {vessel.ship_type}, {vessel.gross_tonnage:,.0f} GT")
     page.text(f"Voyage: {days:g} days. Checked on {day} against the stock on board in the fleet database.")
     if result is not None:
@@ -170,25 +185,29 @@ def write_check_workbook(check: Any, path: str | Path, on: dt.date | None = None
     page.table("4. Filter elements covered", ("Element", "UoM", "Needed", "On board", "Short", "Basis"),
                _rows(covered_rows(full, "filter_element")), "No filter positions in the particulars.")
 
-    page.gap()
-    page.text("Needed: what the voyage needs under the spares policy (storage tank: SOLAS II-1/29.12.3; top-up: "
+    notes = ("Needed: what the voyage needs under the spares policy (storage tank: SOLAS II-1/29.12.3; top-up: "
               "leakage rate x days; filter elements: changes due over the voyage plus the policy's spare sets). "
               "On board: the stock in the fleet database, summed over its locations. Short: needed less on board.")
-    page.gap()
-    page.text(SAFETY, BOLD, chars=TEXT_CHARS - 10)
+    caution = textwrap.wrap(SAFETY, TEXT_CHARS - 10)
+    page.keep_together(LINE_PT * (2 + len(textwrap.wrap(notes, TEXT_CHARS)) + len(caution)))
+    page.next_row()
+    page.text(notes)
+    page.next_row()
+    for line in caution:
+        page.text(line, BOLD, chars=TEXT_CHARS)
 
     ps = ws.page_setup
     ps.paperSize = ws.PAPERSIZE_A4
     ps.orientation = "portrait"
     ps.fitToWidth, ps.fitToHeight = 1, 0
     ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=True)
-    ws.page_margins.left = ws.page_margins.right = 0.6
-    ws.page_margins.top = ws.page_margins.bottom = 0.8
-    ws.page_margins.header = ws.page_margins.footer = 0.35
+    ws.page_margins.left = ws.page_margins.right = 0.45  # inches, as the file format keeps them (11 mm)
+    ws.page_margins.top = ws.page_margins.bottom = 0.75
+    ws.page_margins.header = ws.page_margins.footer = 0.3
     ws.print_area = f"A1:{get_column_letter(len(COLUMNS))}{page.row}"
     ws.oddHeader.left.text = _header_text(f"{TITLE}: {vessel.name} ({vessel.id}), {days:g} days")
     ws.oddHeader.right.text = day
-    ws.oddFooter.left.text = "kit"
+    ws.oddFooter.left.text = "CAUTION: high hydraulic pressure; secure the rudder before opening the gear"
     ws.oddFooter.right.text = "page &P of &N"
     save_atomically(wb, path)
     return path
