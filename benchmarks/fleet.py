@@ -185,9 +185,9 @@ def write_particulars(folder: Path, vessels: int, seed: int = SEED) -> list[Path
 
 def _fleet_lines(folder: Path):
     """(vessel id, line item) for every requirement of the fleet, from kit's own engine."""
-    from kit.engine.particulars import load_folder
+    from kit.files.particulars_file import load_folder
     from kit.engine.requirements import assess_vessel
-    from kit.engine.spares import load_policy
+    from kit.files.policy_file import load_policy
 
     policy = load_policy(None)
     for v in load_folder(folder):

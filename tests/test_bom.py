@@ -12,7 +12,7 @@ from kit.engine.bom import CatalogueMatch, consolidate
 from kit.engine.preflight import preflight_order
 from kit.engine.particulars import vessel_from_dict
 from kit.engine.requirements import assess_vessel
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 UNIT = {
     "id": "SG1", "service": "steering", "actuator": "ram", "count": 2,

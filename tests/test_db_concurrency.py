@@ -19,7 +19,7 @@ from db_support import TOML_CYLINDER, db_url, engine  # noqa: F401  (fixtures)
 from kit.store.fleet_store import save_vessels
 from kit.engine.parts import LineItem
 from kit.store.parts_store import register_parts
-from kit.engine.particulars import load_vessel
+from kit.files.particulars_file import load_vessel
 from test_db_imports import STOCK_HEADER, stock_rows, write_csv
 
 WORKER = Path(__file__).with_name("db_worker.py")

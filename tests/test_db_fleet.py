@@ -18,7 +18,7 @@ from db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtu
 from kit.cli import main
 from kit.errors import InputError
 from kit.store.fleet_store import read_vessels, save_vessels
-from kit.engine.particulars import load_folder, load_vessel
+from kit.files.particulars_file import load_folder, load_vessel
 from kit.files.particulars_sheet import load_particulars_sheet, write_particulars_template
 
 DEMO = Path(__file__).resolve().parents[1] / "demo_fleet"

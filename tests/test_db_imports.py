@@ -22,7 +22,7 @@ from kit.errors import InputError
 from kit.store.fleet_store import save_vessels
 from kit.engine.parts import LineItem, part_key
 from kit.store.parts_store import register_parts
-from kit.engine.particulars import load_vessel
+from kit.files.particulars_file import load_vessel
 from kit.files.sheets import read_table
 from kit.store.stock_import import STOCK
 

@@ -16,11 +16,11 @@ from db_support import TOML_CYLINDER
 from kit.engine.bom import CatalogueMatch, consolidate
 from kit.files.bom_export import write_order_csv
 from kit.cli import main
-from kit.engine.particulars import load_vessel
+from kit.files.particulars_file import load_vessel
 from kit.engine.requirements import assess_vessel
 from kit.files.safe_text import TRIGGERS
 from kit.files.sheets import Sheet, write_sheet
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 TRIGGERS_OWASP = ("=", "+", "-", "@", "\t", "\r")  # OWASP, "CSV Injection"
 HOSTILE = {

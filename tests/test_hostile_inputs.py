@@ -29,7 +29,7 @@ from db_support import TOML_CYLINDER, dump
 from kit.cli import main
 from kit.errors import InputError
 from kit.files.input_files import MAX_CSV_BYTES, MAX_TOML_BYTES, MAX_XLSX_BYTES, Kind, open_text
-from kit.engine.spares import policy_from_text
+from kit.files.policy_file import policy_from_text
 from kit.files.toml_text import MAX_DEPTH, nesting_depth
 
 NULL_DEVICE = os.makedev(1, 3)  # the numbers of /dev/null (Linux devices.txt: char 1, minor 3)

@@ -83,6 +83,24 @@ def test_the_option_in_force_is_named_when_it_refuses(fleet):
                   f"{path}, line 2: column price: expected {why} (got '12,50')")
 
 
+def test_the_library_names_the_setting_and_the_command_line_its_option(fleet):
+    """Read through the library, the refusal names the decimal mark as a setting (no option); the
+    command line (above) names its --decimal-mark in the same places."""
+    from kit.errors import ArgumentError
+    from kit.files.stock_sheet import read_stock
+
+    stock = fleet.file("stock.csv", f'part_key;quantity\n{fleet.key};1.5\n')
+    with pytest.raises(ArgumentError) as raised:
+        read_stock(stock, decimal="dot")
+    assert str(raised.value) == f"{stock}: decimal mark: expected one of point, comma (got 'dot')"
+    with pytest.raises(ValueError) as refused:
+        read_stock(stock, decimal="comma")
+    neutral = COMMA.replace("--decimal-mark", "decimal mark").format(why="decimal mark comma")
+    assert str(refused.value) == f"{stock}, line 2: column quantity: expected {neutral} (got '1.5')"
+    fleet.refused(["stock", "import", stock, "--vessel", "TEST-ONE", "--decimal-mark", "comma"],
+                  f"{stock}, line 2: column quantity: expected {COMMA.format(why='--decimal-mark comma')} (got '1.5')")
+
+
 @pytest.mark.parametrize(("sep", "text", "shown", "expected"), [
     (",", '"1,250.00"', "1,250.00", COMMA_CSV),
     (";", "1.250,00", "1.250,00", SEMICOLON_CSV),

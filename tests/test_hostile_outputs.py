@@ -286,6 +286,29 @@ def demo(out) -> object:
     return invoke("demo", "--out", out, "--days", "30", "--check-days", "30")
 
 
+def test_the_demo_folder_is_named_neutrally_by_the_library(tmp_path):
+    """The library calls it the demo folder; ``kit demo`` (below) names its --out there."""
+    from kit.files.output_targets import check_demo_folder
+
+    (tmp_path / "notes.txt").write_text("the chief's notes")
+    with pytest.raises(OutputError) as refused:
+        check_demo_folder(tmp_path)
+    assert str(refused.value) == (f"{tmp_path}: demo folder: expected {DEMO_OUT} (got a folder kit demo did not make, "
+                                  "holding 1 entry (e.g. 'notes.txt'))")
+
+
+def test_the_option_is_named_when_kit_runs_as_a_module(tmp_path):
+    """``python -m kit`` has a program name of three words; the command is still found, so the
+    message names --out as ``kit demo`` does (before, the library's neutral word showed)."""
+    import subprocess
+    import sys
+
+    (tmp_path / "notes.txt").write_text("the chief's notes")
+    done = subprocess.run([sys.executable, "-m", "kit", "demo", "--out", str(tmp_path)], capture_output=True, text=True)
+    assert (done.returncode, done.stderr) == (2, f"kit: error: {tmp_path}: --out: expected {DEMO_OUT} (got a folder kit demo "
+                                                 "did not make, holding 1 entry (e.g. 'notes.txt'))\n")
+
+
 def test_demo_refuses_a_folder_it_did_not_make(tmp_path, monkeypatch):
     work = tmp_path / "work"
     work.mkdir()

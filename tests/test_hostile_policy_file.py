@@ -85,7 +85,8 @@ def test_a_policy_stored_by_another_program_with_an_unknown_key_is_refused_when_
 
 def test_the_default_policy_passes_its_own_checks():
     """kit's own file holds only known keys, positive ratings and packages a supplier sells."""
-    from kit.engine.spares import MIN_PACKAGE_L, SCHEMA, default_policy_data, load_policy
+    from kit.engine.spares import MIN_PACKAGE_L, SCHEMA, default_policy_data
+    from kit.files.policy_file import load_policy
 
     data = default_policy_data()
     assert set(data) <= set(SCHEMA)

@@ -20,7 +20,7 @@ from engine_helpers import cylinder_unit, ram_unit, vane_unit, vessel
 from kit.errors import KitError
 from kit.engine.report import vessel_json
 from kit.engine.requirements import assess_vessel
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 SETTINGS = settings(max_examples=200, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 POLICY = load_policy()

@@ -194,7 +194,7 @@ def test_a_vessel_row_the_database_refuses_names_the_file(engine, tmp_path):
     from catalog_schema.refusals import RefusedRowError
     from db_support import TOML_CYLINDER
     from kit.store.fleet_store import save_vessels
-    from kit.engine.particulars import load_vessel
+    from kit.files.particulars_file import load_vessel
 
     toml = tmp_path / "v.toml"
     toml.write_text(TOML_CYLINDER)

@@ -10,6 +10,7 @@ store or services; the files read no store or services; the store calls no servi
 from __future__ import annotations
 
 import ast
+import re
 import shutil
 import subprocess
 import sys
@@ -29,10 +30,6 @@ FORBIDDEN = {
 # Shared constants that import nothing (catalog_schema/conventions.py): the stock sheet's reader
 # fills in the same default location as the table's.
 SHARED = {"catalog_schema.conventions"}
-# Known, noted in kit/engine/__init__.py: particulars reads its TOML file and spares.load_policy the
-# company policy file through the files layer.
-ENGINE_READS_FILES = {"particulars": {"kit.files.input_files", "kit.files.toml_text", "kit.files.safe_text"},
-                      "spares": {"kit.files.input_files", "kit.files.toml_text", "kit.files.safe_text"}}
 
 
 def imported(path: Path) -> set[str]:
@@ -76,8 +73,7 @@ def test_each_layer_imports_only_those_below_it(layer):
     assert len(modules) > 5  # the layer is there
     found = {}
     for p in modules:
-        mods = imported(p) - ENGINE_READS_FILES.get(p.stem, set()) if layer == "engine" else imported(p)
-        bad = sorted(m for m in mods - SHARED if any(in_package(m, f) for f in FORBIDDEN[layer]))
+        bad = sorted(m for m in imported(p) - SHARED if any(in_package(m, f) for f in FORBIDDEN[layer]))
         if bad:
             found[p.stem] = bad
     assert found == {}
@@ -95,3 +91,32 @@ def test_only_the_store_runs_queries():
         if p.parent.name != "store" and hits:
             found[str(p.relative_to(ROOT))] = hits
     assert found == {}
+
+
+# An option name as the command line spells it: two dashes, then a lower-case word (``--out``,
+# ``--decimal-mark``).
+OPTION_NAME = re.compile(r"(?<![\w-])--[a-z][a-z0-9]*(?:-[a-z0-9]+)*")
+# Text kit writes that names an option and is no error message: the marker ``kit demo`` leaves in
+# its folder for the person who finds it.
+NOT_MESSAGES = {"kit demo made this folder; the next kit demo --out here replaces it.\n"}
+
+
+def option_names_in_strings(path: Path) -> list[str]:
+    """Each string literal of ``path`` (docstrings aside; f-strings' literal parts included) that
+    names a command-line option."""
+    tree = ast.parse(path.read_text(encoding="utf-8"))
+    docstrings = {id(node.body[0].value) for node in ast.walk(tree)
+                  if isinstance(node, (ast.Module, ast.ClassDef, ast.FunctionDef, ast.AsyncFunctionDef)) and node.body
+                  and isinstance(node.body[0], ast.Expr) and isinstance(node.body[0].value, ast.Constant)}
+    return [f"line {node.lineno}: {node.value!r}" for node in ast.walk(tree)
+            if isinstance(node, ast.Constant) and isinstance(node.value, str) and id(node) not in docstrings
+            and node.value not in NOT_MESSAGES and OPTION_NAME.search(node.value)]
+
+
+def test_option_names_only_in_the_command_line():
+    """Library errors name a value neutrally (``demo folder``, ``decimal mark``); the command line
+    adds its option (``OPTIONS`` in kit/commands/common.py), so no string outside it spells one."""
+    found = {str(p.relative_to(ROOT)): hits for p in library_modules() if (hits := option_names_in_strings(p))}
+    assert found == {}
+    # the scan sees option names where they belong: the faces spell them
+    assert option_names_in_strings(ROOT / "kit" / "commands" / "common.py")

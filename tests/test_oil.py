@@ -121,7 +121,7 @@ def test_stated_charge_below_the_reservoir_is_a_failed_check():
     # SOLAS II-1/29.12.3: the storage tank recharges one power actuating system including its
     # reservoir. By hand: 300 L reservoir + one ram pair pi/4 x 0.280^2 x 0.900 = 55.42 L.
     from kit.engine.requirements import assess_unit
-    from kit.engine.spares import load_policy
+    from kit.files.policy_file import load_policy
     from engine_helpers import vessel
 
     least = 0.300 + math.pi / 4 * 0.280**2 * 0.900

@@ -11,7 +11,8 @@ from pathlib import Path
 import pytest
 
 from kit.errors import InputError
-from kit.engine.particulars import load_folder, load_vessel, vessel_from_dict
+from kit.engine.particulars import vessel_from_dict
+from kit.files.particulars_file import load_folder, load_vessel
 
 DEMO = Path(__file__).resolve().parents[1] / "demo_fleet"
 

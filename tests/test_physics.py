@@ -11,7 +11,7 @@ from engine_helpers import cylinder_unit, ram_unit, unit, vane_unit, vessel
 from kit.engine import physics
 from kit.engine.checks import check_unit
 from kit.engine.particulars import CylinderGeometry, RamGeometry, VaneGeometry
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 P = 160e5  # 160 bar
 RAM = RamGeometry(ram_diameter=0.280, stroke=0.900, tiller_radius=0.600)

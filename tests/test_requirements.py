@@ -9,9 +9,9 @@ import pytest
 
 from engine_helpers import ram_unit, vessel
 from kit.engine import solas
-from kit.engine.particulars import load_vessel
+from kit.files.particulars_file import load_vessel
 from kit.engine.requirements import assess_vessel
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 DEMO = sorted((Path(__file__).resolve().parent.parent / "demo_fleet").glob("*.toml"))
 POLICY = load_policy()

@@ -16,7 +16,7 @@ from engine_helpers import ram_unit, vessel
 from kit.engine import rudder
 from kit.engine.checks import check_unit
 from kit.errors import InputError
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 KN = 1852 / 3600
 RUDDER = {"area": "20 m^2", "mean_height": "6 m", "area_forward": "4 m^2", "ahead_speed": "15 kn",

@@ -10,7 +10,7 @@ import pytest
 from engine_helpers import ram_unit, vane_unit, vessel
 from kit.engine import physics, solas
 from kit.engine.checks import check_unit
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 POLICY = load_policy()
 

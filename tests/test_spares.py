@@ -8,7 +8,8 @@ import dataclasses
 import pytest
 
 from kit.errors import InputError
-from kit.engine.spares import ITEM_KINDS, load_policy, policy_from_text
+from kit.engine.spares import ITEM_KINDS
+from kit.files.policy_file import load_policy, policy_from_text
 
 
 def write(tmp_path, text):

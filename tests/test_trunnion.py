@@ -13,7 +13,7 @@ from kit.engine import physics
 from kit.engine.checks import APPROXIMATION_WARNING, check_unit
 from kit.errors import InputError
 from kit.engine.particulars import CylinderGeometry
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 
 R, A = 0.280, 1.000  # tiller radius, trunnion axis to tiller pin at midships [m]
 GEOM = CylinderGeometry(bore=0.200, rod=0.140, stroke=0.450, tiller_radius=R, trunnion_distance=A)

@@ -13,7 +13,7 @@ from kit.engine import oil
 from kit.engine.checks import check_unit
 from kit.errors import InputError
 from kit.engine.seal_kit import build_seal_kit
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 from kit.engine.units import COMMON_FACTORS, KINDS, convert, to_si
 
 UREG = pint.UnitRegistry()  # independent of kit.engine.units.ureg: the reference the test checks against
@@ -109,7 +109,7 @@ def test_reading_a_demo_file_in_common_units_does_not_import_pint():
     from pathlib import Path
 
     demo = Path(__file__).resolve().parents[1] / "demo_fleet" / "corvina_bay.toml"
-    code = ("import sys; from kit.engine.particulars import load_vessel; load_vessel(sys.argv[1]); "
+    code = ("import sys; from kit.files.particulars_file import load_vessel; load_vessel(sys.argv[1]); "
             "print('pint' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code, str(demo)], capture_output=True, text=True, check=True)
     assert out.stdout.strip() == "False"

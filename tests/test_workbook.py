@@ -12,9 +12,9 @@ import pytest
 
 from kit.engine.bom import CatalogueMatch, consolidate
 from kit.errors import OutputError
-from kit.engine.particulars import load_vessel
+from kit.files.particulars_file import load_vessel
 from kit.engine.requirements import assess_vessel
-from kit.engine.spares import load_policy
+from kit.files.policy_file import load_policy
 from kit.files.workbook import ORDER_COLUMNS, write_workbook
 from spreadsheet_program import recalculated_sheets
 

@@ -21,18 +21,26 @@ FLEET_SELECTIONS = frozenset({"bom", "check", "parts register"})
 
 
 # The option each command takes a value by, for the neutral name the library gives it in an
-# ArgumentError (or a row the database refused for it); the message is otherwise the library's.
+# ArgumentError (or a row the database refused for it), an OutputError or an error's ``setting``
+# (the decimal mark a number is read with); the message is otherwise the library's.
 OPTIONS = {
     "policy set": {"company or vessel": "--company/--vessel", "days of cover": "--days", "policy name": "--name",
                    "company": "--company", "vessel": "--vessel", "note": "--note"},
-    "stock import": {"counting mode": "--mode", "vessel id": "--vessel"},
-    "catalogue import": {"supplier name": "--supplier"},
+    "stock import": {"counting mode": "--mode", "vessel id": "--vessel", "decimal mark": "--decimal-mark"},
+    "catalogue import": {"supplier name": "--supplier", "decimal mark": "--decimal-mark"},
+    "demo": {"demo folder": "--out"},
 }
 
 
 def _command() -> str:
+    """The command's words after the program's name ("policy set"), however kit was started
+    (``kit``, or ``python -m kit``, whose program name is three words)."""
     ctx = click.get_current_context(silent=True)
-    return "" if ctx is None else " ".join(ctx.command_path.split()[1:])
+    words = []
+    while ctx is not None and ctx.parent is not None:
+        words.append(ctx.info_name or "")
+        ctx = ctx.parent
+    return " ".join(reversed(words))
 
 
 def _with_option(exc: KitError) -> KitError:
@@ -41,10 +49,16 @@ def _with_option(exc: KitError) -> KitError:
     import dataclasses
 
     from catalog_schema.refusals import RefusedRowError
-    from kit.errors import ArgumentError
+    from kit.errors import ArgumentError, OutputError
 
     command = _command()
-    option = OPTIONS.get(command, {}).get(getattr(exc, "field", None))
+    options = OPTIONS.get(command, {})
+    setting = options.get(getattr(exc, "setting", None))
+    if setting is not None and dataclasses.is_dataclass(exc):
+        return dataclasses.replace(exc, setting=setting)
+    option = options.get(getattr(exc, "field", None))
+    if isinstance(exc, OutputError) and option is not None:
+        return dataclasses.replace(exc, field=option)
     if not isinstance(exc, (ArgumentError, RefusedRowError)) or option is None:
         return exc
     return dataclasses.replace(exc, field=option, source=exc.source or f"kit {command}")

@@ -4,7 +4,7 @@
 One module per idea, data flowing one way:
 
 ``units``  the one pint registry; strings with units -> SI floats
-``particulars``, ``rudder``  the particulars model and its checks (see below)
+``particulars``, ``rudder``  the particulars model and its checks, from a parsed TOML document
 ``standard_tables``  the standard data tables in ``kit/data``, each checked against its sha256
 ``series``, ``housings``, ``orings``, ``compounds``, ``seal_kit``  seals sized to the ISO series
 ``physics``, ``solas``, ``checks``  torque, swing time and the SOLAS II-1/29 rules
@@ -13,10 +13,10 @@ One module per idea, data flowing one way:
 ``purchasing``  offers, exchange rates, preferred suppliers and deliveries, as plain values
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall and what it covered
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in
+``text_checks``  the control-character check every stored text passes
 
-The engine imports no database (sqlalchemy, catalog_schema), no :mod:`kit.store`, no
-:mod:`kit.services` and no terminal library (``tests/test_lint.py`` checks it). Two modules still
-read a file through :mod:`kit.files`: ``particulars`` (the TOML reader is interleaved with the
-field-by-field checks that make the model; splitting it is left for later) and
-``spares.load_policy`` (the company's policy file).
+The engine reads no file a user gives: it takes parsed data (``particulars.vessel_from_dict``,
+``spares.policy_from_data``), and :mod:`kit.files` reads the files (``particulars_file``,
+``policy_file``). It imports no database (sqlalchemy, catalog_schema), no :mod:`kit.files`, no
+:mod:`kit.store`, no :mod:`kit.services` and no terminal library (``tests/test_lint.py`` checks it).
 """

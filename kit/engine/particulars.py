@@ -1,5 +1,5 @@
 # SPDX-License-Identifier: MIT
-"""A vessel's particulars file (TOML) read into plain dataclasses in SI units.
+"""A vessel's particulars (a parsed TOML file) checked into plain dataclasses in SI units.
 
 The file format is the scripting contract documented in the README. Every length, pressure,
 flow, volume and time is a string with a unit that pint parses; bare numbers are refused so
@@ -12,14 +12,11 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
-from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
-from kit.files.input_files import TOML_PARTICULARS, read_text
 from kit.engine.rudder import POSITION_K3, PROFILE_K2, Rudder
-from kit.files.safe_text import CONTROL
-from kit.files.toml_text import parse_toml
+from kit.engine.text_checks import CONTROL
 from kit.engine.units import a_kind, to_si
 
 # "chemical_tanker" and "gas_carrier" are cargo ships that SOLAS II-1/29.16 names beside tankers.
@@ -42,7 +39,7 @@ MAX_GROSS_TONNAGE = 1_000_000
 MAX_COUNT = 1000  # rams, cylinders, pumps, elements, coils, hoses: past this, a typing error
 MAX_TEXT = 200
 
-_CONTROL = CONTROL  # C0, DEL and C1: the one check of every stored text (kit.files.safe_text)
+_CONTROL = CONTROL  # C0, DEL and C1: the one check of every stored text (kit.engine.text_checks)
 
 
 @dataclass(frozen=True)
@@ -515,33 +512,3 @@ def vessel_from_dict(data: Any, source: str = "") -> Vessel:
         seen.add(u.id)
     top.finish()
     return Vessel(vid, name, ship_type, gt, units, company, source)
-
-
-def load_vessel(path: str | Path) -> Vessel:
-    """Read and check one particulars file (a regular file, see :mod:`kit.files.input_files`)."""
-    source = str(path)
-    return vessel_from_dict(parse_toml(read_text(path, TOML_PARTICULARS), source), source)
-
-
-def is_toml(path: Path) -> bool:
-    """A ``.toml`` file name, in any case (``.TOML`` too)."""
-    return path.suffix.lower() == ".toml"
-
-
-def load_folder(folder: str | Path) -> list[Vessel]:
-    """Read every ``*.toml`` particulars file in ``folder`` (sorted by name; any case of the
-    suffix). A vessel id in two files is refused, naming both."""
-    folder = Path(folder)
-    files = sorted(p for p in folder.iterdir() if is_toml(p))
-    if not files:
-        raise InputError(str(folder), "folder", "at least one *.toml particulars file", got="none")
-    vessels: list[Vessel] = []
-    first: dict[str, str] = {}
-    for f in files:
-        vessel = load_vessel(f)
-        if vessel.id in first:
-            raise InputError(str(f), "vessel.id", f"a vessel id no other file of this load has (also in {first[vessel.id]})",
-                             got=repr(vessel.id))
-        first[vessel.id] = str(f)
-        vessels.append(vessel)
-    return vessels

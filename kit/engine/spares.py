@@ -16,15 +16,12 @@ from __future__ import annotations
 import tomllib
 from dataclasses import dataclass
 from importlib import resources
-from pathlib import Path
 from typing import Any
 
 from kit.errors import InputError
 from kit.engine.housings import LENGTHS as HOUSING_LENGTHS
-from kit.files.input_files import TOML_POLICY, read_text
 from kit.engine.oil import Package
-from kit.files.toml_text import parse_toml
-from kit.files.safe_text import checked_text
+from kit.engine.text_checks import checked_text
 from kit.engine.units import to_si
 
 PER = ("unit", "actuator", "actuator_size", "voltage", "valve_block", "hose_size", "pump_model")
@@ -94,17 +91,6 @@ def _merge(base: dict[str, Any], override: dict[str, Any], source: str) -> dict[
         else:
             merged[key] = value
     return merged
-
-
-def read_policy_text(path: str | Path) -> str:
-    """The text of a company policy file (a regular file, see :mod:`kit.files.input_files`)."""
-    return read_text(path, TOML_POLICY)
-
-
-def _parse(text: str, source: str) -> dict[str, Any]:
-    data = parse_toml(text, source)
-    _refuse_unknown(data, SCHEMA, source, "")
-    return data
 
 
 def _refuse_unknown(data: Any, schema: Any, source: str, path: str) -> None:
@@ -188,17 +174,12 @@ def default_policy_data() -> dict[str, Any]:
     return tomllib.loads(resources.files("kit.data").joinpath("spares_policy.toml").read_text(encoding="utf-8"))
 
 
-def policy_from_text(text: str | None, source: str = DEFAULT_SOURCE) -> Policy:
-    """The default policy with ``text`` (a company policy file's TOML, e.g. as stored in the fleet
-    database) merged over it; ``None`` is the default policy itself. Errors name ``source``."""
-    data = default_policy_data()
-    if text is not None:
-        data = _merge(data, _parse(text, source), source)
-    return _build(data, source)
-
-
-def load_policy(override: str | Path | None = None) -> Policy:
-    """The default policy, with ``override`` (a company policy file) merged over it."""
-    if override is None:
-        return policy_from_text(None)
-    return policy_from_text(read_policy_text(override), str(override))
+def policy_from_data(data: dict[str, Any] | None, source: str = DEFAULT_SOURCE) -> Policy:
+    """The default policy with ``data`` (a company policy file's parsed TOML, from a file or as
+    stored in the fleet database; see :mod:`kit.files.policy_file`) merged over it; ``None`` is the
+    default policy itself. Errors name ``source``."""
+    merged = default_policy_data()
+    if data is not None:
+        _refuse_unknown(data, SCHEMA, source, "")
+        merged = _merge(merged, data, source)
+    return _build(merged, source)

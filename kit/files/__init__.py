@@ -2,12 +2,14 @@
 """The files kit reads and writes: every path a user gives is opened or written here.
 
 ``input_files``, ``file_types``, ``toml_text``  input opened as regular files only, bounded in size
+``particulars_file``, ``policy_file``  particulars and spares policy files (TOML) read and handed to the engine
 ``sheets``, ``xlsx_limits``  spreadsheets read safely (defusedxml, every part measured first)
 ``particulars_sheet``  the particulars sheet and its templates
 ``catalogue_sheet``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
     and checked (the store writes them); the columns that name a generic part
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
-``safe_text``  formula text and control characters: checked on the way in, visible on the way out
+``safe_text``  formula text and control characters: checked on the way in (with
+    :mod:`kit.engine.text_checks`), visible on the way out
 ``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
 ``check_workbook``  the pre-voyage check, one sheet laid out for one A4 page
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all

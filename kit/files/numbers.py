@@ -5,9 +5,11 @@ A number in a sheet is a plain decimal: an optional sign, digits and at most one
 Which mark is the decimal one is never guessed from the value: a semicolon-separated CSV is
 read with a decimal comma (the usual export of spreadsheet programs where the comma is the
 decimal mark), a comma- or tab-separated CSV and the text cells of a workbook with a decimal
-point, and ``--decimal-mark point|comma`` states it for a file. A value with a grouping
+point, and the caller states it for a file (the command line's ``--decimal-mark point|comma``). A value with a grouping
 separator (``1,250.00``, ``1.250,00``, ``1 250``, ``1'250``), the other decimal mark, an exponent,
-infinity or NaN is refused, naming the style in force and how to change it.
+infinity or NaN is refused, naming the style in force and how to change it: the setting by its
+neutral name, :data:`SETTING`, which the command line replaces with its option
+(``OPTIONS`` in kit/commands/common.py).
 
 Every number also has bounds, so nothing overflows a database column or a sum: the whole
 numbers (pack sizes, lead times, days) stay far inside a 32-bit signed integer, which is
@@ -21,7 +23,7 @@ import re
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
-from kit.errors import InputError
+from kit.errors import ArgumentError, InputError
 
 if TYPE_CHECKING:  # only for annotations: the CLI's option types import this module at start-up
     from kit.files.sheets import Row, Table
@@ -29,11 +31,11 @@ if TYPE_CHECKING:  # only for annotations: the CLI's option types import this mo
 # Decimal mark -> what it looks like, and the pattern of a plain decimal written with it.
 MARKS = {"point": ".", "comma": ","}
 _PLAIN = {name: re.compile(rf"[+-]?(?:[0-9]+(?:{re.escape(mark)}[0-9]*)?|{re.escape(mark)}[0-9]+)") for name, mark in MARKS.items()}
-# A CSV's separator -> the decimal mark its numbers are read with (unless --decimal-mark says).
+# A CSV's separator -> the decimal mark its numbers are read with (unless the caller states one).
 SEPARATOR_MARK = {";": "comma", ",": "point", "\t": "point"}
 SEPARATOR_NAMES = {";": "semicolon", ",": "comma", "\t": "tab"}
 EXAMPLES = {"point": "12.50", "comma": "12,50"}
-OPTION = "--decimal-mark"
+SETTING = "decimal mark"  # the setting's neutral name in messages; a face names it its own way
 # Longer text is no plain number a person typed (and Python's int() refuses past 4,300 digits).
 MAX_CHARS = 40
 
@@ -50,20 +52,36 @@ class DecimalMark:
     """The decimal mark in force for one file, and why (for the refusal message)."""
 
     name: str  # "point" or "comma"
-    why: str
+    why: str  # the default's reason; empty when the caller stated the mark
 
-    def expected(self) -> str:
+    def expected(self, setting: str = SETTING) -> str:
+        """What a number must look like, naming ``setting`` (how the mark is stated) as the way to change it."""
         other = "comma" if self.name == "point" else "point"
+        why = self.why or f"{setting} {self.name}"
         return (f"a plain number with a decimal {self.name}, e.g. {EXAMPLES[self.name]}, and no grouping separators "
-                f"(decimal {self.name}: {self.why}; {OPTION} {other} reads {EXAMPLES[other]})")
+                f"(decimal {self.name}: {why}; {setting} {other} reads {EXAMPLES[other]})")
+
+
+@dataclass
+class NotPlainNumberError(InputError):
+    """A number that is not plain under the decimal mark in force. The message names the setting
+    that states the mark by ``setting`` (:data:`SETTING`; the command line puts its option there)."""
+
+    mark: DecimalMark | None = None
+    setting: str = SETTING
+
+    def __str__(self) -> str:
+        if self.mark is None:
+            return super().__str__()
+        return str(InputError(self.source, self.field, self.mark.expected(self.setting), self.got))
 
 
 def decimal_mark(table: Table, given: str | None) -> DecimalMark:
     """The decimal mark for ``table``: ``given`` (the option), else the CSV separator's, else point."""
     if given is not None:
         if given not in MARKS:
-            raise InputError(table.path, OPTION, "one of " + ", ".join(MARKS), got=repr(given))
-        return DecimalMark(given, f"{OPTION} {given}")
+            raise ArgumentError(table.path, SETTING, "one of " + ", ".join(MARKS), got=repr(given))
+        return DecimalMark(given, "")
     separator = table.separator
     if separator is None:
         return DecimalMark("point", "the default for text in a workbook's cells")
@@ -90,7 +108,8 @@ def number(table: Table, row: Row, column: str, mark: DecimalMark, *, minimum: f
     if isinstance(value, str):
         parsed = parse_decimal(value, mark.name)
         if parsed is None:
-            raise table.error(row, column, mark.expected(), value if len(value) <= MAX_CHARS else value[:MAX_CHARS] + "...")
+            refused = table.error(row, column, mark.expected(), value if len(value) <= MAX_CHARS else value[:MAX_CHARS] + "...")
+            raise NotPlainNumberError(refused.source, refused.field, refused.expected, refused.got, mark)
         value = parsed
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
         raise table.error(row, column, "a finite number", value)

@@ -140,7 +140,7 @@ def check_outputs(targets: Mapping[str, str | os.PathLike | None]) -> None:
 # --- the demo folder ------------------------------------------------------------------------
 
 
-def check_demo_folder(folder: Path, option: str = "--out") -> None:
+def check_demo_folder(folder: Path, option: str = "demo folder") -> None:
     """Refuse ``folder`` unless it is new, empty, or a folder kit demo made (it holds the marker)."""
     expected = "a new folder, an empty one, or one kit demo made (with its " + DEMO_MARKER + " file)"
     try:
@@ -191,7 +191,7 @@ def record_demo_folder(folder: Path) -> None:
         marker.writelines(f"{name}\n" for name in names)
 
 
-def make_demo_folder(folder: Path, option: str = "--out") -> None:
+def make_demo_folder(folder: Path, option: str = "demo folder") -> None:
     """Empty ``folder`` (when :func:`check_demo_folder` allows it) and mark it as kit's."""
     check_demo_folder(folder, option)
     try:

@@ -6,35 +6,24 @@ or a carriage return as a formula (OWASP, "CSV Injection"). In an xlsx kit write
 string cell, which no program evaluates; in a CSV it is prefixed with a single quote.
 
 Control characters (C0 including NUL, DEL and C1) are refused in every text kit stores
-(:func:`checked_text`): PostgreSQL cannot store a NUL, openpyxl refuses most C0 characters in a
-cell, and an escape sequence on a terminal can rewrite what the user sees. Text already stored
-(written by another program) has each of them replaced by U+FFFD by every writer
-(:func:`visible`), so it can never crash a command or reach a file or terminal raw.
+(:func:`checked_text`, kept in :mod:`kit.engine.text_checks` so the engine's checks share it):
+PostgreSQL cannot store a NUL, openpyxl refuses most C0 characters in a cell, and an escape
+sequence on a terminal can rewrite what the user sees. Text already stored (written by another
+program) has each of them replaced by U+FFFD by every writer (:func:`visible`), so it can never
+crash a command or reach a file or terminal raw.
 """
 
 from __future__ import annotations
 
-import re
 from typing import Any, Callable
 
-from kit.errors import InputError
+from kit.engine.text_checks import CONTROL, NO_CONTROL, checked_text
+
+__all__ = ["CONTROL", "NO_CONTROL", "REPLACEMENT", "TRIGGERS", "checked_text", "csv_field", "each_text", "from_csv_field",
+           "is_risky", "visible"]
 
 TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
-# C0 (NUL to US), DEL and C1 (Unicode 15.0, 23.1); and the lone surrogates Python makes of bytes
-# that are not UTF-8 (in a command-line argument), which no database or file can encode.
-CONTROL = re.compile(r"[\x00-\x1f\x7f-\x9f\ud800-\udfff]")
 REPLACEMENT = "\ufffd"
-NO_CONTROL = "text without control characters (tab, newline, NUL, escape and the like) or bytes that are not UTF-8"
-
-
-def checked_text(value: str, *, source: str, field: str, error: type[InputError] = InputError) -> str:
-    """``value`` unchanged, or ``error`` (an :class:`InputError`) naming ``source`` and ``field`` if
-    it holds a control character (the one check every stored text passes)."""
-    found = CONTROL.search(value)
-    if found is not None:
-        shown = value if len(value) <= 40 else value[:40] + "..."
-        raise error(source, field, NO_CONTROL, got=f"{shown!r}, U+{ord(found.group()):04X} at character {found.start() + 1}")
-    return value
 
 
 def visible(value: Any) -> Any:

@@ -79,8 +79,8 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     from kit.services.fleet import load_particulars, read_particulars, register_parts
     from kit.services.imports import import_catalogue, import_stock
     from kit.services.orders import build_order, check_voyage
-    from kit.engine.spares import load_policy
     from kit.files.check_workbook import write_check_workbook
+    from kit.files.policy_file import load_policy
     from kit.files.workbook import write_workbook
 
     check_demo_folder(out)  # before any work

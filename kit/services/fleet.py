@@ -13,7 +13,7 @@ from kit.services import Progress, no_progress
 
 def read_particulars(path: str | Path) -> list:
     """The vessels of ``path``: a .toml file, a particulars workbook (.xlsx) or a folder of .toml."""
-    from kit.engine.particulars import load_folder, load_vessel
+    from kit.files.particulars_file import load_folder, load_vessel
 
     target = Path(path)
     if target.is_dir():
@@ -38,9 +38,9 @@ def load_particulars(engine: Engine, path: str | Path) -> list[str]:
 def work_out(path: str | Path, days: float, policy_file: str | None = None):
     """One vessel's particulars file worked out over ``days`` under ``policy_file`` (or kit's
     default policy): a :class:`kit.engine.requirements.VesselResult`. No database."""
-    from kit.engine.particulars import load_vessel
+    from kit.files.particulars_file import load_vessel
     from kit.engine.requirements import assess_vessel
-    from kit.engine.spares import load_policy
+    from kit.files.policy_file import load_policy
 
     vessel = load_vessel(path)
     return assess_vessel(vessel, days, load_policy(policy_file))

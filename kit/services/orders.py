@@ -41,7 +41,7 @@ def read_fleet(engine: Engine, vessel_ids: Iterable[str], policy_file: str | Non
     """The vessels (all, or ``vessel_ids``) and the spares policy of each by id: ``policy_file``
     for all when given, else each vessel's policy in force today in the fleet database."""
     from kit.store.policy_store import policies_in_force
-    from kit.engine.spares import load_policy
+    from kit.files.policy_file import load_policy
 
     ids = list(vessel_ids)
     with engine.connect() as conn:
@@ -63,8 +63,8 @@ def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, p
     if particulars:
         from pathlib import Path
 
-        from kit.engine.particulars import load_folder, load_vessel
-        from kit.engine.spares import load_policy
+        from kit.files.particulars_file import load_folder, load_vessel
+        from kit.files.policy_file import load_policy
 
         path = Path(particulars)
         vessels = load_folder(path) if path.is_dir() else [load_vessel(path)]

@@ -33,7 +33,7 @@ def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.
     its content is stored too, checked first (see :func:`kit.store.policy_store.set_policy`)."""
     from catalog_schema.engine import write_transaction
     from kit.store.policy_store import set_policy as record
-    from kit.engine.spares import read_policy_text
+    from kit.files.policy_file import read_policy_text
 
     content = read_policy_text(policy_file) if policy_file else None
     check_policy_values(name=name, cover_days=cover_days, company=company, vessel=vessel, note=note)
@@ -56,7 +56,7 @@ def show_policy(engine: Engine, vessel: str, on: dt.date | None = None) -> Polic
     """The spares policy in force for ``vessel`` (any letter case) on ``on`` (default today): its own,
     else its company's, else kit's default."""
     from kit.store.policy_store import policy_in_force
-    from kit.engine.spares import load_policy
+    from kit.files.policy_file import load_policy
 
     day = on or dt.date.today()
     from kit.store.vessel_ids import resolve_vessel_id

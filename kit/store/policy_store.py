@@ -18,7 +18,8 @@ from sqlalchemy.engine import Connection
 from catalog_schema.core_tables import SPARES_POLICIES
 from catalog_schema.sql import upsert
 from kit.store.fleet_store import VESSELS, company_id, vessel_company
-from kit.engine.spares import Policy, policy_from_text
+from kit.engine.spares import Policy
+from kit.files.policy_file import policy_from_text
 
 POLICIES = SPARES_POLICIES
 
