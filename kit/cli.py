@@ -35,6 +35,7 @@ COMMANDS: dict[str, tuple[str, str, str]] = {
     "rates": ("kit.commands.rates", "rates", "Enter exchange rates into the base currency (by hand or CSV); list them."),
     "supplier": ("kit.commands.supplier", "supplier", "List suppliers; prefer one over price, for everything or one part."),
     "delivery": ("kit.commands.delivery", "delivery", "Set, list or remove where and when an order must be on board."),
+    "vessels": ("kit.commands.vessels", "vessels", "List the fleet's vessels: units, last stock count, next delivery."),
 }
 
 

@@ -92,9 +92,9 @@ def required_in_check(kit, tmp_path, *extra) -> dict[str, float]:
     out = tmp_path / "check.xlsx"
     result = kit("check", "TEST-ONE", "--days", "0", "--out", str(out), *extra)
     assert result.exit_code == 1, result.output  # nothing is on board
-    rows = openpyxl.load_workbook(out)["Order lines"].iter_rows(values_only=True)
-    head = next(rows)
-    return {r[head.index("Part key")]: r[head.index("Required")] for r in rows if r[0] is not None}
+    rows = list(openpyxl.load_workbook(out)["Pre-voyage check"].iter_rows(values_only=True))
+    # each table's rows carry the part key right of the print area (column G), "Needed" in column C
+    return {r[6]: r[2] for r in rows if r[6] is not None and r[6] != "Part key"}
 
 
 def test_check_uses_the_stored_policy_unless_a_file_is_given(fleet, tmp_path):

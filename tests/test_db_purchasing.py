@@ -215,14 +215,14 @@ def test_delivery_set_replaces_the_port_of_the_same_day_and_lists_by_date(fleet)
 def test_delivery_refusals(fleet):
     ok(fleet, "delivery", "set", "TEST-ONE", "--port", "Gdansk", "--on", day(5))
     fleet.refused(["delivery", "set", "TEST-NINE", "--port", "Gdansk", "--on", day(5)],
-                  "kit delivery set: VESSEL: expected the id of a vessel in the database (kit load adds them) (got 'TEST-NINE')")
+                  "kit delivery set: VESSEL: expected the id of a vessel in the database (kit vessels lists them; letter case does not matter) (got 'TEST-NINE')")
     fleet.refused(["delivery", "set", "TEST-ONE", "--port", "Gdansk", "--on", day(-1)],
                   f"kit delivery set: --on: expected today ({TODAY.isoformat()}) or later (got {day(-1)})")
     fleet.refused(["delivery", "set", "TEST-ONE", "--port", "", "--on", day(6)], "kit delivery set: --port: expected a port (got an empty text)")
     fleet.refused(["delivery", "set", "TEST-ONE", "--port", "Gdansk", "--on", "2026-1-5"],
                   "kit delivery set: --on: expected a date, YYYY-MM-DD (ISO 8601) (got '2026-1-5')")
     fleet.refused(["delivery", "list", "--vessel", "TEST-NINE"],
-                  "kit delivery list: --vessel: expected the id of a vessel in the database (kit load adds them) (got 'TEST-NINE')")
+                  "kit delivery list: --vessel: expected the id of a vessel in the database (kit vessels lists them; letter case does not matter) (got 'TEST-NINE')")
     fleet.refused(["delivery", "remove", "TEST-ONE", "--on", day(6)],
                   f"kit delivery remove: --on: expected the day of one of TEST-ONE's deliveries (kit delivery list shows them) (got {day(6)})")
 
@@ -257,7 +257,7 @@ def test_check_days_default_to_the_vessels_policy(fleet):
     done = fleet.kit("check", "TEST-ONE", "--out", out)
     assert done.exit_code == 1, done.output  # nothing on board, so something is short
     texts = [c for ws in openpyxl.load_workbook(out) for row in ws.iter_rows(values_only=True) for c in row if isinstance(c, str)]
-    assert any("shortfall for 45 days" in t for t in texts)
+    assert any("Voyage: 45 days." in t for t in texts)
     fleet.refused(["check", "TEST-TWO"], "kit check: --days: expected a number of days (no spares policy with days of "
                                          "cover is in force for TEST-TWO; kit policy set records one)")
 

@@ -33,10 +33,12 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     own, else its company's, else kit's default; see kit policy show) unless --policy is given.
     The oil packages are those of the first vessel's policy. Without --days the order covers the
     days of cover of the policies in force (the largest where the vessels' differ, said on stderr).
+    Ends with the totals (lines, lines to order, the priced lines' total per currency) and the
+    warnings that matter: lines to order with no catalogue price and rule checks of the gear not met.
 
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
-    from kit.commands.terminal import progress_bar
+    from kit.commands.terminal import order_summary, progress_bar
     from kit.files.output_targets import check_outputs
     from kit.services.orders import build_order
     from kit.files.workbook import write_workbook
@@ -54,7 +56,7 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
         from kit.files.bom_export import write_json
 
         written.append(str(write_json(order, json_out, days)))
-    to_order = sum(1 for line in order.lines if line.to_order > 0)
-    click.echo(f"{len(order.lines)} order line(s) for {len(order.results)} vessel(s), {to_order} with something to order")
     for w in written:
         click.echo(f"wrote {w}")
+    for line in order_summary(order):
+        click.echo(line)

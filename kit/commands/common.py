@@ -15,8 +15,8 @@ if TYPE_CHECKING:
 
 
 # How the command line names a vessel id it was given that the database does not hold: the
-# commands that pick vessels of the fleet say so; the others name the command. Same words as
-# before the service layer, which the tests assert.
+# command, then the argument or option the id came by (see _given_as); the commands that pick
+# vessels of the fleet say "fleet database", the others "database" (words the tests assert).
 FLEET_SELECTIONS = frozenset({"bom", "check", "parts register"})
 
 
@@ -41,9 +41,6 @@ OPTIONS = {
     "delivery remove": {"delivery date": "--on"},
 }
 # Commands that take a vessel's id as an argument rather than by --vessel, and its name there.
-VESSEL_ARGUMENTS = {"delivery set": "VESSEL", "delivery remove": "VESSEL"}
-
-
 def _command() -> str:
     """The command's words after the program's name ("policy set"), however kit was started
     (``kit``, or ``python -m kit``, whose program name is three words)."""
@@ -76,19 +73,25 @@ def _with_option(exc: KitError) -> KitError:
     return dataclasses.replace(exc, field=option, source=exc.source or f"kit {command}")
 
 
+def _given_as(vessel_id: str) -> str:
+    """How the user gave ``vessel_id`` to the running command: the argument (``VESSEL_ID``) or the
+    option (``--vessel``) whose value it is; ``--vessel`` when none is found."""
+    ctx = click.get_current_context(silent=True)
+    for param in [] if ctx is None else ctx.command.params:
+        value = ctx.params.get(param.name or "")
+        if value == vessel_id or (isinstance(value, (tuple, list)) and vessel_id in value):
+            return param.human_readable_name if isinstance(param, click.Argument) else param.opts[0]
+    return "--vessel"
+
+
 def _unknown_vessel(exc: UnknownVesselErrorType) -> str:
     from kit.errors import InputError
 
     command = _command()
-    if command in VESSEL_ARGUMENTS:
-        hint = InputError(f"kit {command}", VESSEL_ARGUMENTS[command],
-                          "the id of a vessel in the database (kit load adds them)", got=repr(exc.vessel_id))
-    elif command in FLEET_SELECTIONS:
-        hint = InputError("--vessel", "vessel", "the id of a vessel in the fleet database (kit load adds them)",
-                          got=repr(exc.vessel_id))
-    else:
-        hint = InputError(f"kit {command}", "--vessel", "the id of a vessel in the database (kit load adds them)",
-                          got=repr(exc.vessel_id))
+    where = "fleet database" if command in FLEET_SELECTIONS else "database"
+    hint = InputError(f"kit {command}", _given_as(exc.vessel_id),
+                      f"the id of a vessel in the {where} (kit vessels lists them; letter case does not matter)",
+                      got=repr(exc.vessel_id))
     return str(hint)
 
 

@@ -55,7 +55,7 @@ def show(engine, vessel, on) -> None:
     from kit.services.policies import show_policy
 
     shown = show_policy(engine, vessel, on)  # the policy checked before anything is printed
-    found, rules, day = shown.record, shown.rules, shown.on
+    found, rules, day, vessel = shown.record, shown.rules, shown.on, shown.vessel
     if found is None:
         click.echo(visible(f"{vessel}: no spares policy in force on {day.isoformat()}"))
     else:

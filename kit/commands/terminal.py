@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import math
 import sys
+from dataclasses import dataclass
 from typing import Any, Iterable
 
 VERDICT_STYLE = {"met": "[green]{}[/green]", "not met": "[red]NOT MET[/red]", "not shown": "[yellow]{}[/yellow]"}
@@ -34,19 +35,125 @@ def progress_bar(items: list, label: str) -> Iterable:
     yield from track(items, description=label, console=Console(stderr=True), transient=True)
 
 
-def shortfall_table(check) -> Any:
-    """The rich table of a :class:`kit.services.orders.VoyageCheck` with lines short."""
+WRAP_MIN = 24  # a wrapped column narrower than this reads one or two words a line
+
+
+@dataclass(frozen=True)
+class Col:
+    """A column of a :func:`fitted_table`: its heading, its rank (0 is kept longest; the highest
+    rank is left out first on a narrow console), right-aligned or not, and whether its text wraps
+    (at spaces, never narrower than its longest word nor ``least``)."""
+
+    name: str
+    rank: int = 0
+    right: bool = False
+    wraps: bool = False
+    least: int = WRAP_MIN
+
+
+def _cell_width(text: str) -> int:
+    from rich.text import Text
+
+    return max((Text.from_markup(line).cell_len for line in str(text).split("\n")), default=0)
+
+
+def fitted_table(columns: list[Col], rows: list[list[str]], width: int, **table_options: Any) -> Any:
+    """A rich table of ``rows`` that fits ``width`` console columns: a column that does not wrap
+    keeps its cells on one line, one that wraps keeps at least its longest word (or ``least``) a
+    line, and columns are left out, highest rank first, until the rest fit (the caption names
+    them). Text already escaped for rich (:func:`shown`)."""
     from rich.table import Table
 
-    vessel, days = check.vessel, check.days
-    table = Table(title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage", title_justify="left")
-    for col in ("no", "designation", "required", "on board", "short", "uom", "basis"):
-        table.add_column(col, justify="right" if col in ("no", "required", "on board", "short") else "left")
-    for line in check.short.lines:
-        nd = 1 if line.uom == "L" else 0
-        table.add_row(str(line.number), shown(line.designation), f"{line.required:.{nd}f}", f"{line.on_board:.{nd}f}",
-                      f"{line.to_order:.{nd}f}", shown(line.uom), shown(line.basis))
+    def natural(i: int, col: Col) -> int:
+        return max([_cell_width(r[i]) for r in rows] + [_cell_width(col.name)])
+
+    def need(i: int, col: Col) -> int:
+        if not col.wraps:
+            return natural(i, col)
+        words = [_cell_width(w) for r in rows for w in str(r[i]).split()] + [_cell_width(col.name)]
+        return min(natural(i, col), max(col.least, *words))
+
+    widths = [need(i, c) for i, c in enumerate(columns)]
+    kept = list(range(len(columns)))
+    # a table with the default box: one rule between columns and at each edge, one space of padding either side
+    while len(kept) > 1 and sum(widths[i] + 3 for i in kept) + 1 > width:
+        kept.remove(max(kept, key=lambda i: (columns[i].rank, i)))
+    # what is left over widens the wrapping columns, each up to its longest cell, in turn
+    spare = width - sum(widths[i] + 3 for i in kept) - 1
+    for i in kept:
+        if columns[i].wraps and spare > 0:
+            grow = min(spare, natural(i, columns[i]) - widths[i])
+            widths[i] += grow
+            spare -= grow
+    left_out = [columns[i].name for i in range(len(columns)) if i not in kept]
+    caption = f"left out at {width} columns: {', '.join(left_out)} (a wider terminal shows them)" if left_out else None
+    table = Table(caption=caption, caption_justify="left", title_justify="left", **table_options)
+    for i in kept:
+        col = columns[i]
+        # a fixed width: rich's own narrowing could take a wrapping column below its longest word
+        table.add_column(col.name, justify="right" if col.right else "left", no_wrap=not col.wraps,
+                         width=widths[i], overflow="fold")
+    for r in rows:
+        table.add_row(*(r[i] for i in kept))
     return table
+
+
+SHORTFALL_COLUMNS = [Col("no", 1, right=True), Col("part", wraps=True), Col("uom"), Col("needed", right=True),
+                     Col("on board", right=True), Col("short", right=True), Col("basis", 2)]
+
+
+def shortfall_table(check, width: int = 80) -> Any:
+    """The rich table of a :class:`kit.services.orders.VoyageCheck` with lines short, fitted to ``width``."""
+    from kit.engine.preflight import shortfall_rows
+
+    vessel, days = check.vessel, check.days
+    rows = []
+    for n, row in enumerate(shortfall_rows(check.short), 1):
+        nd = 1 if row.uom == "L" else 0
+        rows.append([str(n), shown(row.part), shown(row.uom), f"{row.needed:,.{nd}f}", f"{row.on_board:,.{nd}f}",
+                     f"{row.short:,.{nd}f}", shown(row.basis)])
+    return fitted_table(SHORTFALL_COLUMNS, rows, width,
+                        title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage")
+
+
+VESSEL_COLUMNS = [Col("id"), Col("name", 1, wraps=True), Col("type", 4), Col("GT", 5, right=True), Col("units", 3, right=True),
+                  Col("last count"), Col("next delivery", 2, wraps=True)]
+
+
+def vessels_table(vessels: list, width: int = 80) -> Any:
+    """The fleet at a glance (:func:`kit.services.fleet.list_vessels`), fitted to ``width``."""
+    rows = [[shown(v.id), shown(v.name), shown(v.ship_type), f"{v.gross_tonnage:,.0f}", str(v.units),
+             v.last_count.isoformat() if v.last_count else "",
+             f"{shown(v.next_port)}, {v.next_due.isoformat()}" if v.next_due else ""] for v in vessels]
+    return fitted_table(VESSEL_COLUMNS, rows, width, title=f"{len(vessels)} vessel(s) in the fleet database")
+
+
+RULES_LISTED = 10  # rule checks not met listed one a line; past this, a count
+
+
+def order_summary(order) -> list[str]:
+    """The lines ``kit bom`` ends with (plain text, stored text made visible): the order's lines
+    and those with something to order, the total of the priced lines per currency (as the
+    workbook's cover sums them), then the warnings that matter: lines to order with no catalogue
+    price, and each rule check of the gear that is not met."""
+    from kit.files.safe_text import visible
+
+    to_order = [line for line in order.lines if line.to_order > 0]
+    out = [f"{len(order.lines)} order line(s) for {len(order.results)} vessel(s), {len(to_order)} with something to order"]
+    totals = order.totals_by_currency()
+    if totals:
+        out.append("total of priced lines: " + "; ".join(f"{totals[c]:,.2f} {visible(c) or '(no currency)'}" for c in sorted(totals)))
+    unpriced = [line for line in to_order if line.line_total is None]
+    if unpriced:
+        kinds = ", ".join(dict.fromkeys(line.kind.replace("_", " ") for line in unpriced))
+        out.append(f"warning: {len(unpriced)} of the {len(to_order)} line(s) to order have no catalogue price ({kinds})")
+    failed = [(r.vessel.id, u.unit.id, rule.clause) for r in order.results for u in r.units
+              for rule in u.checks.rules if rule.verdict == "not met"]
+    for vessel_id, unit_id, clause in failed[:RULES_LISTED]:
+        out.append(visible(f"warning: {vessel_id} unit {unit_id}: {clause} not met (see the Gear checks sheet)"))
+    if len(failed) > RULES_LISTED:
+        out.append(f"warning: {len(failed) - RULES_LISTED} more rule check(s) not met (see the Gear checks sheet)")
+    return out
 
 
 def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:
@@ -55,22 +162,37 @@ def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:
     return f"{x:,.{nd}f}{unit}"
 
 
-def render(r, console) -> None:
-    """Print the readable report of ``r`` on a rich ``console``."""
-    from rich.table import Table
+class _Rows:
+    """The rows of a titled table, gathered before it is fitted (:func:`fitted_table`)."""
 
+    def __init__(self, title: str):
+        self.title, self.rows = title, []
+
+    def add_row(self, *cells: str) -> None:
+        self.rows.append(list(cells))
+
+
+# The calculation report's tables: which columns give way first on a narrow terminal.
+CHECK_COLUMNS = [Col("check", wraps=True, least=20), Col("value", right=True), Col("against", wraps=True, least=20)]
+RULE_COLUMNS = [Col("clause", wraps=True, least=12), Col("verdict"), Col("judged on", wraps=True)]
+SEAL_COLUMNS = [Col("role", 1), Col("part", wraps=True, least=16), Col("d mm", right=True), Col("D mm", right=True),
+                Col("L mm", right=True), Col("qty", right=True), Col("compound", wraps=True, least=10), Col("from", 2, wraps=True, least=12)]
+LINE_COLUMNS = [Col("unit"), Col("designation", wraps=True), Col("standard", 2, wraps=True, least=20),
+                Col("compound", 1, wraps=True, least=10), Col("qty", right=True), Col("uom"), Col("basis", 3, wraps=True, least=20)]
+
+
+def render(r, console) -> None:
+    """Print the readable report of ``r`` on a rich ``console``, its tables fitted to its width."""
     from kit.engine.report import vessel_json
     from kit.files.safe_text import each_text
 
+    width = console.width
     data = each_text(vessel_json(r), shown)  # text from files as it is: no markup, no control characters
     v = data["vessel"]
     console.print(f"[bold]{v['name']}[/bold] ({v['id']}), {v['ship_type']}, {v['gross_tonnage']:,.0f} GT"
                   f" -- period {r.days:g} days -- spares policy: {data['policy']}")
     for u in data["units"]:
-        t = Table(title=f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}", title_justify="left")
-        t.add_column("check")
-        t.add_column("value", justify="right")
-        t.add_column("against")
+        t = _Rows(f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}")
         if u["torque_knm"]["midships"] is not None:
             t.add_row("torque at relief setting, midships", _fmt(u["torque_knm"]["midships"], " kNm"), "")
             t.add_row("torque at relief setting, max angle (least of both directions)", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
@@ -94,32 +216,21 @@ def render(r, console) -> None:
         if u["storage_tank_min_l"] is not None:
             t.add_row("storage tank minimum", _fmt(u["storage_tank_min_l"], " L"), "SOLAS II-1/29.12.3")
         t.add_row("top-up for the period", _fmt(u["top_up_l"], " L", 2), "leakage rate x period")
-        console.print(t)
+        console.print(fitted_table(CHECK_COLUMNS, t.rows, width, title=t.title))
         if u["rules"]:
-            rules = Table(title=f"SOLAS II-1/29 verdicts of unit {u['id']}", title_justify="left")
-            for col in ("clause", "verdict", "judged on"):
-                rules.add_column(col)
-            for rule in u["rules"]:
-                rules.add_row(rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"])
-            console.print(rules)
-        seals = Table(title=f"Seal kit of unit {u['id']} (per unit)", title_justify="left")
-        for col in ("role", "part", "d mm", "D mm", "L mm", "qty", "compound", "from"):
-            seals.add_column(col, justify="right" if col.endswith("mm") or col == "qty" else "left")
-        for s in u["seals"]:
-            seals.add_row(s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
-                          str(s["qty"]), s["compound"], s["origin"])
-        console.print(seals)
+            rules = [[rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"]]
+                     for rule in u["rules"]]
+            console.print(fitted_table(RULE_COLUMNS, rules, width, title=f"SOLAS II-1/29 verdicts of unit {u['id']}"))
+        seals = [[s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
+                  str(s["qty"]), s["compound"], s["origin"]] for s in u["seals"]]
+        console.print(fitted_table(SEAL_COLUMNS, seals, width, title=f"Seal kit of unit {u['id']} (per unit)"))
         for line in u["inspections"]:
             console.print(f"inspect {u['id']}: {line}")
         for w in u["warnings"]:
             console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
-    lines = Table(title="Requirement list (to keep on board)", title_justify="left")
-    for col in ("unit", "designation", "standard", "compound", "qty", "uom", "basis"):
-        lines.add_column(col, justify="right" if col == "qty" else "left")
-    for li in data["lines"]:
-        lines.add_row(li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
-                      li["uom"], li["basis"])
-    console.print(lines)
+    lines = [[li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
+              li["uom"], li["basis"]] for li in data["lines"]]
+    console.print(fitted_table(LINE_COLUMNS, lines, width, title="Requirement list (to keep on board)"))
     for o in data["oil"]:
         packs = ", ".join(f"{p['count']} x {p['name']} ({p['volume_l']:g} L)" for p in o["packages"]) or "none"
         console.print(f"oil {o['fluid']}: need {o['need_l']:,.1f} L = {o['need_kg']:,.1f} kg = {o['need_us_gal']:,.1f} US gal;"

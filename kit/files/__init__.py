@@ -12,6 +12,7 @@
 ``safe_text``  formula text and control characters: checked on the way in (with
     :mod:`kit.engine.text_checks`), visible on the way out
 ``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
+``check_workbook``  the pre-voyage check, one sheet laid out for one A4 page
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
 
 The files layer may use the engine and ``catalog_schema.conventions`` (shared constants that

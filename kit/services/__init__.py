@@ -7,7 +7,7 @@ opens the unit of work itself (a read in ``engine.connect()``, a write in
 the engine and returns plain results. The faces (the command line, the demo, a web page) call one
 service and show or write what it returns; they never open a transaction or run a query.
 
-``fleet``      load particulars, register parts, list parts, work out one vessel's particulars
+``fleet``      load particulars, register parts, list parts, list the vessels, work out one vessel's particulars
 ``imports``    a supplier's catalogue, a vessel's stock
 ``orders``     the bill of materials, the pre-voyage check
 ``policies``   set and show the spares policy in force; the days of cover an order defaults to

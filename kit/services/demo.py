@@ -79,6 +79,7 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     from kit.services.fleet import load_particulars, read_particulars, register_parts
     from kit.services.imports import import_catalogue, import_stock
     from kit.services.orders import build_order, check_voyage
+    from kit.files.check_workbook import write_check_workbook
     from kit.files.policy_file import load_policy
     from kit.files.workbook import write_workbook
 
@@ -107,8 +108,7 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
         ids = order.vessel_ids
         workbook = write_workbook(order, out / "fleet-bom.xlsx", days, f"whole fleet, {len(ids)} vessels")
         check = check_voyage(engine, CHECK_VESSEL if CHECK_VESSEL in ids else ids[0], check_days)
-        check_workbook = write_workbook(check.short, out / f"{check.vessel.id.lower()}-voyage-check.xlsx", check_days,
-                                        f"pre-voyage check of {check.vessel.name}: shortfall for {check_days:g} days")
+        check_workbook = write_check_workbook(check, out / f"{check.vessel.id.lower()}-voyage-check.xlsx")
     finally:
         engine.dispose()
         record_demo_folder(out)  # even after a failure: all it holds is kit's, as it was new or emptied

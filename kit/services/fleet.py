@@ -1,5 +1,5 @@
 # SPDX-License-Identifier: MIT
-"""Vessels and generic parts: load particulars, register parts, list parts, work out a vessel."""
+"""Vessels and generic parts: load particulars, register parts, list parts, list the vessels, work out a vessel."""
 
 from __future__ import annotations
 
@@ -73,3 +73,14 @@ def list_parts(engine: Engine, kind: str | None = None) -> list[tuple[str, str]]
 
     with engine.connect() as conn:
         return listed(conn, kind)
+
+
+def list_vessels(engine: Engine, today=None) -> list:
+    """The fleet at a glance, sorted by id: :class:`kit.store.fleet_overview.VesselGlance` rows with
+    the units, last stock count and next delivery due on or after ``today`` (default today)."""
+    import datetime as dt
+
+    from kit.store.fleet_overview import fleet_glance
+
+    with engine.connect() as conn:
+        return fleet_glance(conn, today or dt.date.today())

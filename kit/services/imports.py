@@ -34,7 +34,7 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
 
 
 def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count", decimal: str | None = None):
-    """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
+    """Write the stock rows of ``path`` for ``vessel_id`` (any letter case; ``mode`` "count" or "adjust"): a
     :class:`kit.store.stock_import.StockReport`."""
     from catalog_schema.engine import write_transaction
     from kit.files.stock_sheet import MODES, read_stock
@@ -42,5 +42,7 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "
 
     if mode not in MODES:
         raise ArgumentError(str(path), "counting mode", "one of " + ", ".join(MODES), got=repr(mode))
+    from kit.store.vessel_ids import resolve_vessel_id
+
     stock = read_stock(path, mode, decimal)
-    return write_transaction(engine, lambda conn: write_stock(conn, stock, vessel_id))
+    return write_transaction(engine, lambda conn: write_stock(conn, stock, resolve_vessel_id(conn, vessel_id)))

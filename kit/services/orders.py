@@ -26,14 +26,12 @@ def assess_all(vessels: list, days: float, policies: Mapping, progress: Progress
 
 
 def _vessels(conn: Connection, vessel_ids: list[str], database: str) -> list:
-    """The vessels asked for (all when none are), each known, at least one."""
-    from kit.errors import InputError, UnknownVesselError
+    """The vessels asked for (all when none are; ids in any letter case), each known, at least one."""
+    from kit.errors import InputError
     from kit.store.fleet_store import read_vessels
+    from kit.store.vessel_ids import resolve_vessel_ids
 
-    vessels = read_vessels(conn, vessel_ids or None)
-    missing = sorted(set(vessel_ids) - {v.id for v in vessels})
-    if missing:
-        raise UnknownVesselError(missing[0])
+    vessels = read_vessels(conn, list(dict.fromkeys(resolve_vessel_ids(conn, vessel_ids))) if vessel_ids else None)
     if not vessels:
         raise InputError(database, "vessels", "at least one vessel (load some with kit load PATH)", got="none")
     return vessels
@@ -91,12 +89,13 @@ class VoyageCheck:
     vessel: object  # the kit.engine.particulars.Vessel checked
     days: float
     short: object  # a kit.engine.bom.Order of the lines short (empty: everything is on board)
+    full: object = None  # the vessel's whole kit.engine.bom.Order less its stock, every line short or not
 
 
 def check_voyage(engine: Engine, vessel_id: str, days: float, policy_file: str | None = None) -> VoyageCheck:
-    """``vessel_id``'s on-board stock against what a voyage of ``days`` needs."""
+    """``vessel_id``'s (any letter case) on-board stock against what a voyage of ``days`` needs."""
     from kit.store.order_sources import catalogue_offers, stock_on_board
-    from kit.engine.preflight import preflight_order
+    from kit.engine.preflight import shortfall_of, vessel_order
     from kit.engine.requirements import assess_vessel
 
     (vessel,), policies = read_fleet(engine, [vessel_id], policy_file)
@@ -104,4 +103,5 @@ def check_voyage(engine: Engine, vessel_id: str, days: float, policy_file: str |
     with engine.connect() as conn:
         on_board = stock_on_board(conn, [vessel.id])
         offers = catalogue_offers(conn, {li.key for li in result.lines})
-    return VoyageCheck(vessel, days, preflight_order(result, on_board, offers))
+    full = vessel_order(result, on_board, offers)
+    return VoyageCheck(vessel, days, shortfall_of(full), full)

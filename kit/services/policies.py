@@ -37,9 +37,11 @@ def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.
 
     content = read_policy_text(policy_file) if policy_file else None
     check_policy_values(name=name, cover_days=cover_days, company=company, vessel=vessel, note=note)
+    from kit.store.vessel_ids import resolve_vessel_id
+
     write_transaction(engine, lambda conn: record(conn, name=name, cover_days=cover_days, in_force_from=in_force_from,
-                                                  company=company, vessel=vessel, note=note,
-                                                  content=content, content_source=str(policy_file)))
+                                                  company=company, vessel=vessel and resolve_vessel_id(conn, vessel),
+                                                  note=note, content=content, content_source=str(policy_file)))
 
 
 @dataclass(frozen=True)
@@ -51,13 +53,16 @@ class PolicyShown:
 
 
 def show_policy(engine: Engine, vessel: str, on: dt.date | None = None) -> PolicyShown:
-    """The spares policy in force for ``vessel`` on ``on`` (default today): its own, else its
-    company's, else kit's default."""
+    """The spares policy in force for ``vessel`` (any letter case) on ``on`` (default today): its own,
+    else its company's, else kit's default."""
     from kit.store.policy_store import policy_in_force
     from kit.files.policy_file import load_policy
 
     day = on or dt.date.today()
+    from kit.store.vessel_ids import resolve_vessel_id
+
     with engine.connect() as conn:
+        vessel = resolve_vessel_id(conn, vessel)
         found = policy_in_force(conn, vessel, day)
     return PolicyShown(vessel, day, found, load_policy() if found is None else found.policy())
 
@@ -87,11 +92,13 @@ def days_of_cover(engine: Engine, vessel_ids=(), *, particulars: str | None = No
     vessel with no policy in force, are refused by the neutral name "days" (:class:`ArgumentError`)."""
     from kit.errors import InputError
     from kit.store.policy_store import cover_days_in_force
+    from kit.store.vessel_ids import resolve_vessel_ids
 
     if particulars or policy_file:
         raise ArgumentError("", "days", NO_COVER_IN_FILES)
     with engine.connect() as conn:
-        found = cover_days_in_force(conn, list(vessel_ids) or None, dt.date.today())
+        ids = list(dict.fromkeys(resolve_vessel_ids(conn, vessel_ids))) if vessel_ids else None
+        found = cover_days_in_force(conn, ids, dt.date.today())
     if not found:
         raise InputError(str(engine.url.database or engine.url), "vessels",
                          "at least one vessel (load some with kit load PATH)", got="none")

@@ -253,8 +253,14 @@ def set_delivery(engine: Engine, vessel_id: str, port: str, due_on: dt.date, not
     where = _text(port, "port", required=True)
     remark = _text(note, "note")
     vessel = _text(vessel_id, "vessel id", required=True)
-    replaced = write_transaction(engine, lambda conn: record(conn, vessel, where, due_on, remark))
-    return DeliverySet(vessel, where, due_on, replaced)
+    from kit.store.vessel_ids import resolve_vessel_id
+
+    def write(conn):
+        stored = resolve_vessel_id(conn, vessel)  # any letter case, as every command takes an id
+        return stored, record(conn, stored, where, due_on, remark)
+
+    stored, replaced = write_transaction(engine, write)
+    return DeliverySet(stored, where, due_on, replaced)
 
 
 def remove_delivery(engine: Engine, vessel_id: str, due_on: dt.date) -> str:
@@ -263,7 +269,9 @@ def remove_delivery(engine: Engine, vessel_id: str, due_on: dt.date) -> str:
     from catalog_schema.engine import write_transaction
     from kit.store.purchasing_records import remove_delivery as remove
 
-    port = write_transaction(engine, lambda conn: remove(conn, vessel_id, due_on))
+    from kit.store.vessel_ids import resolve_vessel_id
+
+    port = write_transaction(engine, lambda conn: remove(conn, resolve_vessel_id(conn, vessel_id), due_on))
     if port is None:
         raise ArgumentError("", "delivery date", f"the day of one of {vessel_id}'s deliveries (kit delivery list shows them)",
                             got=due_on.isoformat())
@@ -275,5 +283,8 @@ def list_deliveries(engine: Engine, vessel_id: str | None = None, include_past: 
     (today or later), or all with ``include_past``; every vessel's, or ``vessel_id``'s."""
     from kit.store.purchasing_records import list_deliveries as listed
 
+    from kit.store.vessel_ids import resolve_vessel_id
+
     with engine.connect() as conn:
-        return listed(conn, vessel_id, None if include_past else dt.date.today())
+        stored = None if vessel_id is None else resolve_vessel_id(conn, vessel_id)
+        return listed(conn, stored, None if include_past else dt.date.today())

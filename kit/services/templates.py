@@ -22,8 +22,10 @@ def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = N
     from kit.files.stock_sheet import stock_sheet
     from kit.store.stock_import import stock_rows
 
+    from kit.store.vessel_ids import resolve_vessel_id
+
     with engine.connect() as conn:
-        sheet = stock_sheet(stock_rows(conn, vessel))
+        sheet = stock_sheet(stock_rows(conn, vessel and resolve_vessel_id(conn, vessel)))
     write_sheet(out, sheet)
     return len(sheet.rows)
 

@@ -10,6 +10,8 @@
 ``purchasing_records``  base currency and handling margin, exchange rates, preferred suppliers and
     deliveries written and listed
 ``database_status``  rows per table
+``vessel_ids``  a vessel id as typed resolved to the stored one (any letter case); case twins refused
+``fleet_overview``  the fleet at a glance: units, last count, next delivery, in one query
 
 Only the store runs queries. A store function takes a Connection and leaves the transaction
 to its caller (a function in :mod:`kit.services`). The store may use the engine and the files;

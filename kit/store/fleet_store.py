@@ -30,6 +30,7 @@ from catalog_schema.core_tables import (
 from catalog_schema.refusals import located
 from catalog_schema.sql import in_batches, upsert
 from kit.errors import UnknownVesselError
+from kit.store.vessel_ids import refuse_case_twins
 from kit.engine.particulars import (
     CylinderGeometry,
     FilterPosition,
@@ -125,6 +126,7 @@ def save_vessels(conn: Connection, vessels: Iterable[Vessel]) -> list[str]:
     latest = list({v.id: v for v in given}.values())
     if not latest:
         return ids
+    refuse_case_twins(conn, latest)
     companies = {name: company_id(conn, name) for name in dict.fromkeys(v.company for v in given if v.company is not None)}
     rows = [{"id": v.id, "name": v.name, "ship_type": v.ship_type, "gross_tonnage": v.gross_tonnage,
              "company_id": companies.get(v.company), "source": v.source or None} for v in latest]
