@@ -10,7 +10,8 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from kit.engine.bom import CatalogueMatch, consolidate
+from kit.engine.bom import consolidate
+from kit.engine.purchasing import Offer
 from kit.errors import OutputError
 from kit.engine.particulars import load_vessel
 from kit.engine.requirements import assess_vessel
@@ -35,8 +36,8 @@ def case(tmp_path_factory):
     rod = next(li for li in result.lines if li.kind == "rod_seal")
     on_board = {("CORVINA-BAY", filt.key): 1.0, ("CORVINA-BAY", "oil:hm 46"): 100.0}
     catalogue = {
-        filt.key: CatalogueMatch("=HYPERLINK(\"http://x\",\"click\")", "@SUM(1)", 2, 31.40, "EUR", 10),
-        rod.key: CatalogueMatch("+Northgate Seals", "-RS-200", 1, 88.00, "EUR", 21),
+        filt.key: [Offer("=HYPERLINK(\"http://x\",\"click\")", "@SUM(1)", 2, "2 pcs", 31.40, "EUR", 10)],
+        rod.key: [Offer("+Northgate Seals", "-RS-200", 1, "1 pcs", 88.00, "EUR", 21)],
     }
     order = consolidate([result], on_board, catalogue)
     path = write_workbook(order, work / "corvina.xlsx", 90, "Corvina Bay pre-voyage")
@@ -86,8 +87,7 @@ def test_every_order_line_matches_the_engine(case):
         assert row[col("On board")] == pytest.approx(line.on_board, abs=1e-3)
         assert str(row[col("To order")]).startswith("=MAX(")  # a live formula, not a number
         assert as_float(calc[col("To order")]) == pytest.approx(line.to_order, abs=1e-3)
-        if line.kind != "oil" or line.match:
-            assert as_float(calc[col("Packs")]) == line.packs
+        assert as_float(calc[col("Packs")]) == line.packs  # oil too: the sum of its plan's packs
         if line.line_total is not None:
             assert as_float(calc[col("Line total")]) == pytest.approx(line.line_total)
         else:
@@ -107,14 +107,18 @@ def test_oil_plan_matches_the_engine(case):
     order, _, lo, _ = case
     sheet = lo["Oil and filters"]
     head = sheet[0]
-    for oil, row in zip(order.oil, sheet[1:]):
-        assert float(row[head.index("To order [L]")]) == pytest.approx(oil.to_order_l, abs=1e-3)
-        for package, count in oil.plan.counts:
-            name = f"{package.name} {package.volume * 1000:g} L"
-            assert int(float(row[head.index(name)])) == count
-        assert float(row[head.index("Supply [L]")]) == pytest.approx(oil.plan.supply * 1000)
+    rows = sheet[1:]
+    for oil in order.oil:
+        mine = [r for r in rows if r[0] == oil.designation]
+        assert len(mine) == len(oil.plan.packs)
+        for pack, row in zip(oil.plan.packs, mine):
+            assert float(row[head.index("To order [L]")]) == pytest.approx(oil.to_order_l, abs=1e-3)
+            assert (row[head.index("Pack")], int(float(row[head.index("Packs")]))) == (pack.label, pack.count)
+            assert float(row[head.index("Short [L]")]) == 0
+        supply = sum(float(r[head.index("Supply [L]")]) for r in mine)
+        assert supply == pytest.approx(oil.plan.supply)
         # supply is never short and overshoots by less than the smallest package (20 L pail)
-        assert oil.to_order_l <= float(row[head.index("Supply [L]")]) < oil.to_order_l + 20
+        assert oil.to_order_l <= supply < oil.to_order_l + 20
 
 
 def test_filter_sheet_matches_the_engine(case):

@@ -7,20 +7,14 @@ short; the command exits with status 1 when it is not empty, so scripts can act 
 
 from __future__ import annotations
 
-from typing import Mapping
+from typing import Mapping, Sequence
 
-from kit.engine.bom import CatalogueMatch, Order, consolidate
+from kit.engine.bom import Order, consolidate, only_to_order
+from kit.engine.purchasing import Offer, Purchasing
 from kit.engine.requirements import VesselResult
-
-EPS = 1e-9
 
 
 def preflight_order(result: VesselResult, on_board: Mapping[tuple[str, str], float],
-                    catalogue: Mapping[str, CatalogueMatch] | None = None) -> Order:
+                    offers: Mapping[str, Sequence[Offer]] | None = None, purchasing: Purchasing | None = None) -> Order:
     """The shortfall of ``result`` against ``on_board`` as an order (lines renumbered)."""
-    full = consolidate([result], on_board, catalogue)
-    short = [line for line in full.lines if line.to_order > EPS]
-    for n, line in enumerate(short, 1):
-        line.number = n
-    oil = [o for o in full.oil if o.to_order_l > EPS]
-    return Order(full.results, short, oil, full.packages)
+    return only_to_order(consolidate([result], on_board, offers, purchasing))
