@@ -90,7 +90,8 @@ def cheapest_mix(need: float, packs: Sequence[tuple[float, float]]) -> tuple[int
     be of use down to none, a branch is cut when its cost plus what is still needed at the lowest
     cost per unit cannot beat the best mix found, and the smallest pack then rounds the rest up
     (more of it could only cost more). Using the smallest pack alone is always a valid mix, so
-    one is found; past ``MAX_SEARCH_STEPS`` the best found so far is kept (never short either).
+    it is the first bound to beat; past ``MAX_SEARCH_STEPS`` the best found so far is kept (never
+    short either).
 
     >>> cheapest_mix(410, [(208, 900.0), (20, 95.0)])  # 2 drums (1800) beat 1 drum + 11 pails (1945)
     (2, 0)
@@ -104,7 +105,9 @@ def cheapest_mix(need: float, packs: Sequence[tuple[float, float]]) -> tuple[int
     tol = EPS * max(1.0, need)
     # lowest cost per unit among packs i.. (the bound on what is still needed)
     floor = [min(costs[j] / sizes[j] for j in range(i, len(sizes))) for i in range(len(sizes))]
-    best_cost, best = math.inf, None
+    # the smallest pack alone is always a valid mix: the first bound to beat
+    alone = max(0, math.ceil(round(need / smallest, 9)))
+    best_cost, best = alone * costs[-1], [0] * (len(sizes) - 1) + [alone]
     steps = 0
 
     def search(i: int, supplied: float, cost: float, counts: list[int]) -> None:
@@ -114,23 +117,22 @@ def cheapest_mix(need: float, packs: Sequence[tuple[float, float]]) -> tuple[int
         if i == len(sizes) - 1:
             n = max(0, math.ceil(round(remaining / sizes[i], 9)))
             total = cost + n * costs[i]
-            if supplied + n * sizes[i] - need < smallest - tol and total < best_cost - 1e-12:
+            if supplied + n * sizes[i] - need < smallest - tol and total < best_cost - 1e-9 * max(1.0, best_cost):
                 best_cost, best = total, counts + [n]
             return
         most = max(0, math.ceil(round(remaining / sizes[i], 9)))
         for k in range(most, -1, -1):
-            if steps > MAX_SEARCH_STEPS and best is not None:
+            if steps > MAX_SEARCH_STEPS:
                 return
             s = supplied + k * sizes[i]
             if s - need >= smallest - tol:
                 continue
             c = cost + k * costs[i]
-            if c + max(0.0, need - s) * floor[i + 1] >= best_cost - 1e-12:
+            if c + max(0.0, need - s) * floor[i + 1] >= best_cost - 1e-9 * max(1.0, best_cost):
                 continue
             search(i + 1, s, c, counts + [k])
 
     search(0, 0.0, 0.0, [])
-    assert best is not None  # the smallest pack alone is always a valid mix
     out = [0] * len(packs)
     for pos, i in enumerate(order):
         out[i] = best[pos]

@@ -4,7 +4,7 @@
 ``input_files``, ``file_types``, ``toml_text``  input opened as regular files only, bounded in size
 ``sheets``, ``xlsx_limits``  spreadsheets read safely (defusedxml, every part measured first)
 ``particulars_sheet``  the particulars sheet and its templates
-``catalogue_sheet``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
+``catalogue_sheet``, ``packs``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
     and checked (the store writes them); the columns that name a generic part
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
 ``safe_text``  formula text and control characters: checked on the way in, visible on the way out

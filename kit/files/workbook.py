@@ -415,8 +415,8 @@ def _money_rows(sheet: _Sheet, order: Order, n: int) -> None:
     if base:
         sheet.append(["Base currency", base])
     elif cur:
-        _long(sheet, "Base currency", f"none set: offers compared in {cur}, the currency of most offers; "
-                                      "offers in other currencies were not compared on price")
+        _long(sheet, "Base currency", f"none set: offers compared in {cur}, the currency of most offers"
+              + ("; offers in other currencies were not compared on price" if order.missing_rates else ""))
     else:
         sheet.append(["Base currency", "none set"])
     if cur:
