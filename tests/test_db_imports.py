@@ -99,8 +99,8 @@ def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path
     with fleet.connect() as conn:
         offers = catalogue_offers(conn, [later, ROD_SEAL])
         unmatched = conn.execute(select(ENTRIES.c.supplier_ref).where(ENTRIES.c.part_id.is_(None))).all()
-    assert {k: (m.supplier, m.part_number) for k, m in offers.items()} == {later: ("Other Seals", "RS-99"),
-                                                                            ROD_SEAL: ("Other Seals", "RS-11")}
+    assert {k: [(o.supplier, o.part_number) for o in found] for k, found in offers.items()} == {
+        later: [("Other Seals", "RS-99"), ("Test Seals", "RS-99")], ROD_SEAL: [("Other Seals", "RS-11"), ("Test Seals", "RS-11")]}
     assert unmatched == []
 
 
@@ -116,7 +116,7 @@ def test_offers_for_more_parts_than_one_statement_takes(fleet, tmp_path):
     import_catalogue(fleet, path, "Test Seals")
     with fleet.connect() as conn:
         offers = catalogue_offers(conn, keys + [OIL])  # OIL is registered but no supplier lists it
-    assert {k: m.price for k, m in offers.items()} == {k: float(i) for i, k in enumerate(keys)}
+    assert {k: [o.price for o in found] for k, found in offers.items()} == {k: [float(i)] for i, k in enumerate(keys)}
 
 
 def test_reimport_replaces_the_suppliers_catalogue(fleet, tmp_path):

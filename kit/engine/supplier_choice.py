@@ -296,7 +296,12 @@ def _pick(pool: list[Candidate], due: dt.date | None, purchasing: Purchasing, co
     in_time = [c for c in top_tier if (a := _arrival(c, purchasing)) is not None and a <= due]
     if in_time:
         chosen = in_time[0]
-        return chosen, _why_cheapest(chosen, in_time, comparing, "cheapest in time"), False
+        reason = _why_cheapest(chosen, in_time, comparing, "cheapest in time")
+        cheaper = [c for c in top_tier if c.value is not None and chosen.value is not None and c.value < chosen.value
+                   and c not in in_time]
+        if cheaper:
+            reason += f"; {_money(comparing, cheaper[0].value)} ({cheaper[0].supplier}) arrives too late"
+        return chosen, reason, False
     fastest = min(top_tier, key=lambda c: (c.lead_time_days if c.lead_time_days is not None else math.inf,
                                            c.value if c.value is not None else 0.0, c.supplier))
     if fastest.lead_time_days is None:
