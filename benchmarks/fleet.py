@@ -38,7 +38,7 @@ BORES = ((5_000, (100, 125)), (20_000, (125, 140, 160)), (60_000, (160, 180, 200
 RODS = {100: 56, 125: 70, 140: 80, 160: 90, 180: 100, 200: 110, 220: 125, 250: 140}
 VANE_BORES = ((5_000, 600), (20_000, 800), (60_000, 1100), (10**9, 1400))
 CATALOGUE_COLUMNS = ("supplier_ref", "part_kind", "d", "D", "L", "t", "cut", "id", "cs", "length", "h", "spec",
-                     "part_key", "description", "pack_qty", "price", "currency", "lead_time_days")
+                     "part_key", "description", "pack", "pack_qty", "price", "currency", "lead_time_days")
 
 
 def _band(table, gt: float):
@@ -232,7 +232,8 @@ def catalogue_rows(lines: list, rows: int, seed: int = SEED) -> list[tuple]:
         n = len(out) + 1
         pack = 1 if uom == "pcs" and rnd.random() < 0.8 else (rnd.choice((2, 5, 10)) if uom == "pcs" else rnd.choice((20, 208, 1000)))
         cells = {"supplier_ref": f"SYN-{n:06d}", "part_kind": kind if not key else "", **dims, "spec": spec,
-                 "part_key": key, "description": description, "pack_qty": pack,
+                 "part_key": key, "description": description, "pack_qty": pack if uom == "pcs" else "",
+                 "pack": "" if uom == "pcs" else f"{pack} L",  # oil's pack is a volume (issue 13)
                  "price": f"{rnd.uniform(2, 900) * pack:.2f}", "currency": rnd.choice(("EUR", "EUR", "USD")),
                  "lead_time_days": rnd.randint(2, 60)}
         out.append(tuple(cells.get(c, "") for c in CATALOGUE_COLUMNS))

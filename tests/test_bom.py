@@ -8,7 +8,8 @@ import math
 
 import pytest
 
-from kit.engine.bom import CatalogueMatch, consolidate
+from kit.engine.bom import consolidate
+from kit.engine.purchasing import Offer
 from kit.engine.preflight import preflight_order
 from kit.engine.particulars import vessel_from_dict
 from kit.engine.requirements import assess_vessel
@@ -61,7 +62,7 @@ def test_oil_rounded_once_over_the_order(policy):
     # 3 x (310 L storage + 15 L top-up) = 975 L: one rounding of the total, never short,
     # and over by less than the smallest package (20 L pail)
     assert oil.required_l == pytest.approx(3 * (310 + 0.5 * 30))
-    supply_l = oil.plan.supply * 1000
+    supply_l = oil.plan.supply
     assert oil.required_l <= supply_l < oil.required_l + 20
     # the order holds one oil line per fluid, not one per vessel
     assert len([line for line in order.lines if line.kind == "oil"]) == 1
@@ -71,7 +72,7 @@ def test_stock_reduces_the_order_and_packs_round_up(policy):
     a = assess_vessel(vessel("ALPHA"), 90, policy)
     key = next(li.key for li in a.lines if li.kind == "filter_element")
     need = next(li.quantity for li in a.lines if li.kind == "filter_element")
-    order = consolidate([a], {("ALPHA", key): 1}, {key: CatalogueMatch("Northgate Supply", "NG-RF10", 4, 12.5, "EUR", 14)})
+    order = consolidate([a], {("ALPHA", key): 1}, {key: [Offer("Northgate Supply", "NG-RF10", 4, "4 pcs", 12.5, "EUR", 14)]})
     line = next(li for li in order.lines if li.key == key)
     assert line.to_order == need - 1
     assert line.packs == math.ceil((need - 1) / 4)

@@ -46,7 +46,7 @@ def test_everyday_database_commands_run_on_core_tables_without_sqlmodel(tmp_path
     toml.write_text(TOML_CYLINDER)
     db = str(tmp_path / "fleet.sqlite")
     catalogue = tmp_path / "c.csv"
-    catalogue.write_text("supplier_ref,part_key,currency\nA,oil:hm 46,EUR\n")
+    catalogue.write_text("supplier_ref,part_key,pack,currency\nA,oil:hm 46,208 L,EUR\n")
     assert CliRunner().invoke(main, ["db", "upgrade", "--db", db]).exit_code == 0  # the migrations use the models
     code = ("import sys; from click.testing import CliRunner; from kit.cli import main; r = CliRunner(); "
             f"args = [['load', {str(toml)!r}], ['parts', 'register'], ['bom', '--days', '90', '--out', {str(tmp_path / 'b.xlsx')!r}], "

@@ -64,11 +64,11 @@ CATALOGUE_HEADER = ["supplier_ref", "part_kind", "d", "D", "L", "id", "cs", "spe
 
 def test_catalogue_rows_match_parts_by_their_dimensions(fleet, tmp_path):
     # 1 in = 25.4 mm exactly (international inch, 1959), so 11 in x 12 in x 25 mm is 279.4 x 304.8 x 25.
-    path = write_csv(tmp_path / "cat.csv", CATALOGUE_HEADER, [
-        ["RS-11", "rod_seal", "11 in", "12 in", "25 mm", "", "", "AU", 1, "182.50", "EUR", 21],
-        ["OR-236", "o_ring", "", "", "", "236 mm", "5.3 mm", "NBR", 10, 9.9, "eur", 3],
-        ["OIL-20", "oil", "", "", "", "", "", "HM 46", 20, 95, "EUR", ""],
-        ["RS-99", "rod_seal", "99 mm", "120 mm", "20 mm", "", "", "AU", 1, 50, "EUR", 7],
+    path = write_csv(tmp_path / "cat.csv", CATALOGUE_HEADER + ["pack"], [
+        ["RS-11", "rod_seal", "11 in", "12 in", "25 mm", "", "", "AU", 1, "182.50", "EUR", 21, ""],
+        ["OR-236", "o_ring", "", "", "", "236 mm", "5.3 mm", "NBR", 10, 9.9, "eur", 3, ""],
+        ["OIL-20", "oil", "", "", "", "", "", "HM 46", "", 95, "EUR", "", "20 L"],
+        ["RS-99", "rod_seal", "99 mm", "120 mm", "20 mm", "", "", "AU", 1, 50, "EUR", 7, ""],
     ])
     report = import_catalogue(fleet, path, "Test Seals")
     assert (report.rows, report.matched) == (4, 3)
@@ -77,6 +77,8 @@ def test_catalogue_rows_match_parts_by_their_dimensions(fleet, tmp_path):
         rows = {r.supplier_ref: r for r in conn.execute(select(ENTRIES))}
     assert rows["RS-11"].part_key == ROD_SEAL and rows["RS-11"].price == 182.5 and rows["RS-11"].lead_time_days == 21
     assert rows["OR-236"].currency == "EUR" and rows["OR-236"].pack_qty == 10
+    assert (rows["OIL-20"].pack_content, rows["OIL-20"].pack_label) == (20.0, "20 L")
+    assert rows["OR-236"].pack_content is None  # counted by pack_qty
     assert rows["RS-99"].part_id is None
 
 
@@ -97,8 +99,8 @@ def test_a_part_registered_after_the_catalogue_finds_its_entries(fleet, tmp_path
     with fleet.connect() as conn:
         offers = catalogue_offers(conn, [later, ROD_SEAL])
         unmatched = conn.execute(select(ENTRIES.c.supplier_ref).where(ENTRIES.c.part_id.is_(None))).all()
-    assert {k: (m.supplier, m.part_number) for k, m in offers.items()} == {later: ("Other Seals", "RS-99"),
-                                                                            ROD_SEAL: ("Other Seals", "RS-11")}
+    assert {k: [(o.supplier, o.part_number) for o in found] for k, found in offers.items()} == {
+        later: [("Other Seals", "RS-99"), ("Test Seals", "RS-99")], ROD_SEAL: [("Other Seals", "RS-11"), ("Test Seals", "RS-11")]}
     assert unmatched == []
 
 
@@ -114,11 +116,11 @@ def test_offers_for_more_parts_than_one_statement_takes(fleet, tmp_path):
     import_catalogue(fleet, path, "Test Seals")
     with fleet.connect() as conn:
         offers = catalogue_offers(conn, keys + [OIL])  # OIL is registered but no supplier lists it
-    assert {k: m.price for k, m in offers.items()} == {k: float(i) for i, k in enumerate(keys)}
+    assert {k: [o.price for o in found] for k, found in offers.items()} == {k: [float(i)] for i, k in enumerate(keys)}
 
 
 def test_reimport_replaces_the_suppliers_catalogue(fleet, tmp_path):
-    first = write_csv(tmp_path / "a.csv", ["supplier_ref", "part_key", "currency"], [["A", OIL, "EUR"], ["B", O_RING, "EUR"]])
+    first = write_csv(tmp_path / "a.csv", ["supplier_ref", "part_key", "currency"], [["A", ROD_SEAL, "EUR"], ["B", O_RING, "EUR"]])
     second = write_csv(tmp_path / "b.csv", ["supplier_ref", "part_key", "currency"], [["B", O_RING, "USD"]])
     import_catalogue(fleet, first, "Test Seals")
     import_catalogue(fleet, first, "Other Seals")
@@ -133,7 +135,7 @@ def test_reimport_replaces_the_suppliers_catalogue(fleet, tmp_path):
 
 
 def test_one_bad_catalogue_row_refuses_the_whole_file(fleet, tmp_path):
-    good = write_csv(tmp_path / "good.csv", ["supplier_ref", "part_key", "currency"], [["A", OIL, "EUR"]])
+    good = write_csv(tmp_path / "good.csv", ["supplier_ref", "part_key", "currency", "pack"], [["A", OIL, "EUR", "208 L"]])
     import_catalogue(fleet, good, "Test Seals")
     before = dump(fleet)
     book = tmp_path / "cat.xlsx"
@@ -154,7 +156,7 @@ def test_one_bad_catalogue_row_refuses_the_whole_file(fleet, tmp_path):
 @pytest.mark.parametrize("cells, message", [
     (["A", OIL, "EURO"], "line 2: column currency: expected an ISO 4217 currency code such as EUR, USD, NOK or JPY (got 'EURO')"),
     (["A", "seal:x", "EUR"], "line 2: column part_key: expected a part key starting with a part kind"),
-    (["A", OIL, "EUR", "²"], "line 2: column pack_qty: expected a whole number from 1 to 1,000,000 (got '²')"),  # isdigit() but not int()
+    (["A", O_RING, "EUR", "²"], "line 2: column pack_qty: expected a whole number from 1 to 1,000,000 (got '²')"),  # isdigit() but not int()
 ])
 def test_catalogue_cell_errors_name_line_and_column(fleet, tmp_path, cells, message):
     path = write_csv(tmp_path / "c.csv", ["supplier_ref", "part_key", "currency", "pack_qty"][:len(cells)], [cells])
@@ -167,7 +169,7 @@ def test_unknown_column_and_duplicate_part_number_are_refused(fleet, tmp_path):
     path = write_csv(tmp_path / "c.csv", ["supplier_ref", "colour", "currency"], [["A", "red", "EUR"]])
     with pytest.raises(InputError, match=r"column colour: expected one of supplier_ref, part_key"):
         import_catalogue(fleet, path, "Test Seals")
-    path = write_csv(tmp_path / "d.csv", ["supplier_ref", "part_key", "currency"], [["A", OIL, "EUR"], ["A", OIL, "EUR"]])
+    path = write_csv(tmp_path / "d.csv", ["supplier_ref", "part_key", "currency"], [["A", O_RING, "EUR"], ["A", O_RING, "EUR"]])
     with pytest.raises(InputError, match=r"line 3: column supplier_ref: expected each part number once \(already on .*line 2\)"):
         import_catalogue(fleet, path, "Test Seals")
 

@@ -181,7 +181,7 @@ def test_oil_packages_come_from_the_first_vessels_policy(fleet, tmp_path):
 
     def packages():
         assert fleet("bom", "--days", "30", "--out", str(tmp_path / "o.xlsx"), "--json", str(out)).exit_code == 0
-        return {p["name"] for oil in json.loads(out.read_text())["oil"] for p in oil["packages"]}
+        return {p["pack"].split()[0] for oil in json.loads(out.read_text())["oil"] for p in oil["packs"] if p["count"]}
 
     set_policy(fleet, "--vessel", "TEST-TWO", drums)
     assert "pail" in packages()  # TEST-ONE, first by id, is under kit's default, which has pails

@@ -13,7 +13,8 @@ import pytest
 from click.testing import CliRunner
 
 from db_support import TOML_CYLINDER
-from kit.engine.bom import CatalogueMatch, consolidate
+from kit.engine.bom import consolidate
+from kit.engine.purchasing import Offer
 from kit.files.bom_export import write_order_csv
 from kit.cli import main
 from kit.files.particulars_file import load_vessel
@@ -127,7 +128,7 @@ def test_tab_and_carriage_return_too(tmp_path):
     assert formulas(tmp_path / "s.xlsx") == []
     result = assess_vessel(load_vessel(Path(__file__).resolve().parents[1] / "demo_fleet" / "corvina_bay.toml"), 90, load_policy())
     line = result.lines[0]
-    order = consolidate([result], {}, {line.key: CatalogueMatch("\t=cmd", "\r=cmd", 1, 1.0, "EUR", 1)})
+    order = consolidate([result], {}, {line.key: [Offer("\t=cmd", "\r=cmd", 1, "\t=1 pcs", 1.0, "EUR", 1)]})
     write_order_csv(order, tmp_path / "o.csv")
     assert {"\ufffd=cmd"} <= set(csv_fields(tmp_path / "o.csv"))
     assert [f for f in csv_fields(tmp_path / "o.csv") if f.startswith(TRIGGERS_OWASP)] == []

@@ -92,7 +92,8 @@ def test_a_lookup_argument_that_is_not_utf8_gets_one_line(fleet):
 
 def store_nasty_rows(fleet) -> None:
     """What another program could write straight into the database: every text kit shows."""
-    path = fleet.file("c.csv", "supplier_ref,part_key,price,currency\n" + "".join(f"R{i},{k},2.5,EUR\n" for i, k in enumerate(fleet.keys)))
+    path = fleet.file("c.csv", "supplier_ref,part_key,pack,price,currency\n"
+                      + "".join(f"R{i},{k},{'20 L' if k.startswith('oil:') else ''},2.5,EUR\n" for i, k in enumerate(fleet.keys)))
     assert fleet.kit("catalogue", "import", path, "--supplier", "S").exit_code == 0
     stock = fleet.file("s.csv", f"part_key,quantity\n{fleet.key},1\n")
     assert fleet.kit("stock", "import", stock, "--vessel", "TEST-ONE").exit_code == 0

@@ -10,7 +10,8 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from kit.engine.bom import CatalogueMatch, consolidate
+from kit.engine.bom import consolidate
+from kit.engine.purchasing import Offer
 from kit.errors import OutputError
 from kit.files.particulars_file import load_vessel
 from kit.engine.requirements import assess_vessel
@@ -35,8 +36,8 @@ def case(tmp_path_factory):
     rod = next(li for li in result.lines if li.kind == "rod_seal")
     on_board = {("CORVINA-BAY", filt.key): 1.0, ("CORVINA-BAY", "oil:hm 46"): 100.0}
     catalogue = {
-        filt.key: CatalogueMatch("=HYPERLINK(\"http://x\",\"click\")", "@SUM(1)", 2, 31.40, "EUR", 10),
-        rod.key: CatalogueMatch("+Northgate Seals", "-RS-200", 1, 88.00, "EUR", 21),
+        filt.key: [Offer("=HYPERLINK(\"http://x\",\"click\")", "@SUM(1)", 2, "2 pcs", 31.40, "EUR", 10)],
+        rod.key: [Offer("+Northgate Seals", "-RS-200", 1, "1 pcs", 88.00, "EUR", 21)],
     }
     order = consolidate([result], on_board, catalogue)
     path = write_workbook(order, work / "corvina.xlsx", 90, "Corvina Bay pre-voyage")
@@ -86,8 +87,7 @@ def test_every_order_line_matches_the_engine(case):
         assert row[col("On board")] == pytest.approx(line.on_board, abs=1e-3)
         assert str(row[col("To order")]).startswith("=MAX(")  # a live formula, not a number
         assert as_float(calc[col("To order")]) == pytest.approx(line.to_order, abs=1e-3)
-        if line.kind != "oil" or line.match:
-            assert as_float(calc[col("Packs")]) == line.packs
+        assert as_float(calc[col("Packs")]) == line.packs  # oil too: the sum of its plan's packs
         if line.line_total is not None:
             assert as_float(calc[col("Line total")]) == pytest.approx(line.line_total)
         else:
@@ -107,14 +107,18 @@ def test_oil_plan_matches_the_engine(case):
     order, _, lo, _ = case
     sheet = lo["Oil and filters"]
     head = sheet[0]
-    for oil, row in zip(order.oil, sheet[1:]):
-        assert float(row[head.index("To order [L]")]) == pytest.approx(oil.to_order_l, abs=1e-3)
-        for package, count in oil.plan.counts:
-            name = f"{package.name} {package.volume * 1000:g} L"
-            assert int(float(row[head.index(name)])) == count
-        assert float(row[head.index("Supply [L]")]) == pytest.approx(oil.plan.supply * 1000)
+    rows = sheet[1:]
+    for oil in order.oil:
+        mine = [r for r in rows if r[0] == oil.designation]
+        assert len(mine) == len(oil.plan.packs)
+        for pack, row in zip(oil.plan.packs, mine):
+            assert float(row[head.index("To order [L]")]) == pytest.approx(oil.to_order_l, abs=1e-3)
+            assert (row[head.index("Pack")], int(float(row[head.index("Packs")]))) == (pack.label, pack.count)
+            assert float(row[head.index("Short [L]")]) == 0
+        supply = sum(float(r[head.index("Supply [L]")]) for r in mine)
+        assert supply == pytest.approx(oil.plan.supply)
         # supply is never short and overshoots by less than the smallest package (20 L pail)
-        assert oil.to_order_l <= float(row[head.index("Supply [L]")]) < oil.to_order_l + 20
+        assert oil.to_order_l <= supply < oil.to_order_l + 20
 
 
 def test_filter_sheet_matches_the_engine(case):
@@ -170,3 +174,89 @@ def test_failed_write_leaves_the_old_file_whole(case, monkeypatch, tmp_path, sto
         write_workbook(order, target, 90, "again")
     assert target.read_bytes() == before
     assert [p.name for p in tmp_path.iterdir()] == ["bom.xlsx"]
+
+
+@pytest.fixture(scope="module")
+def priced(tmp_path_factory):
+    """Corvina Bay with oil offered in three packs, a seal priced in USD at a rate, another in USD
+    with no rate, and a delivery date: written as workbook, CSV and JSON (prices invented)."""
+    import datetime as dt
+
+    from kit.engine.purchasing import Delivery, Purchasing, Rate
+    from kit.files.bom_export import write_json, write_order_csv
+
+    work = tmp_path_factory.mktemp("priced")
+    result = assess_vessel(load_vessel(DEMO / "corvina_bay.toml"), 90, load_policy())
+    rod = next(li for li in result.lines if li.kind == "rod_seal")
+    other = next(li for li in result.lines if li.kind not in ("rod_seal", "oil", "filter_element"))
+    oil = next(li for li in result.lines if li.kind == "oil")
+    today = dt.date(2026, 3, 2)
+    offers = {
+        oil.key: [Offer("Oil House", f"OH-{n}", c, label, p, "EUR", 12) for n, (c, label, p) in
+                  enumerate(((20.0, "20 L", 96.0), (208.0, "208 L", 905.0), (5 * 3.785411784, "5 US_gal", 88.0)))],
+        rod.key: [Offer("Dollar Seals", "D-1", 1, "1 pcs", 79.0, "USD", 40), Offer("Euro Seals", "E-1", 1, "1 pcs", 86.5, "EUR", 5)],
+        other.key: [Offer("Krone Seals", "K-1", 1, "1 pcs", 300.0, "NOK", 5)],
+    }
+    purchasing = Purchasing(today, "EUR", {"USD": Rate("USD", "EUR", 0.92, today, "test")},
+                            deliveries={"CORVINA-BAY": Delivery("CORVINA-BAY", "Rotterdam", today + dt.timedelta(days=30))})
+    order = consolidate([result], {("CORVINA-BAY", oil.key): 100.0}, offers, purchasing)
+    path = write_workbook(order, work / "priced.xlsx", 90, "priced")
+    return order, path, recalculated_sheets(path, work), write_order_csv(order, work / "o.csv"), write_json(order, work / "o.json", 90)
+
+
+def test_priced_lines_and_base_totals_match_after_recalculation(priced):
+    order, path, lo, _, _ = priced
+    rows = lo["Order lines"][1:]
+    for line, calc in zip(order.lines, rows):
+        assert as_float(calc[col("Packs")]) == line.packs
+        if line.line_total is None:
+            assert calc[col("Line total")] == ""
+        else:
+            assert as_float(calc[col("Line total")]) == pytest.approx(line.line_total)
+        if line.line_total_base is None:
+            assert calc[col("Line total in base")] == ""
+        else:
+            assert as_float(calc[col("Line total in base")]) == pytest.approx(line.line_total_base)
+        assert calc[col("Order by")] == (line.order_by.isoformat() if line.order_by else "")
+        assert calc[col("Late")] == ("late" if line.late else "")
+        assert calc[col("Why this supplier")] == line.reason
+    rod = next(li for li in order.lines if li.kind == "rod_seal")
+    # USD 79 x 0.92 = EUR 72.68 beats EUR 86.50, but 40 + 7 days misses the delivery in 30: Euro Seals in time
+    assert (rod.supplier, rod.late, rod.reason) == ("Euro Seals", False, "cheapest in time; EUR 72.68 (Dollar Seals) arrives too late")
+    cover = {r[0]: r[1] for r in lo["Cover"] if r and r[0]}
+    assert float(cover["Total in base currency [EUR]"]) == pytest.approx(order.total_in_currency())
+    for cur, total in order.totals_by_currency().items():
+        assert float(cover[f"Total of priced lines [{cur}]"]) == pytest.approx(total)
+    assert order.missing_rates == ("NOK",) and "NOK" in cover["Missing exchange rates"]
+    assert int(cover["Priced lines left out of the base total"]) == 1
+    ws = openpyxl.load_workbook(path)["Order lines"]
+    assert ws.cell(2, col("Order by") + 1).number_format == "yyyy-mm-dd"  # a real date cell, sortable
+
+
+def test_one_oil_plan_in_workbook_csv_and_json(priced):
+    import csv
+    import json
+
+    order, _, lo, csv_path, json_path = priced
+    (oil,) = order.oil
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert line.plan is oil.plan and line.supplier == "Oil House"
+    bought = {p.label: p.count for p in oil.plan.packs}
+    assert oil.to_order_l <= oil.plan.supply < oil.to_order_l + 5 * 3.785411784  # smallest pack: 5 US gal
+    sheet = lo["Oil and filters"]
+    head = sheet[0]
+    in_sheet = {r[head.index("Pack")]: int(float(r[head.index("Packs")])) for r in sheet[1:] if r[0] == oil.designation}
+    assert in_sheet == bought
+    calc = lo["Order lines"][line.number]
+    assert as_float(calc[col("Packs")]) == sum(bought.values())
+    assert as_float(calc[col("Line total")]) == pytest.approx(oil.plan.price)
+    with open(csv_path, newline="", encoding="utf-8") as fh:
+        rec = next(r for r in csv.DictReader(fh) if r["part_key"] == line.key)
+    assert (rec["pack"], int(rec["packs"]), float(rec["line_total"])) == (oil.plan.describe(), sum(bought.values()),
+                                                                           pytest.approx(oil.plan.price))
+    doc = json.loads(json_path.read_text(encoding="utf-8"))
+    (fluid,) = doc["oil"]
+    assert {p["pack"]: p["count"] for p in fluid["packs"]} == bought
+    jline = next(li for li in doc["lines"] if li["part_key"] == line.key)
+    assert {p["pack"]: p["count"] for p in jline["packs_planned"]} == bought and jline["packs"] == sum(bought.values())
+    assert doc["missing_rates"] == ["NOK"] and doc["total_in_base"] == pytest.approx(order.total_in_currency(), abs=0.01)

@@ -22,12 +22,19 @@ from kit.commands.common import Days, db_option, default_days
               "the database (no stock, no catalogue: a first list for a new-build series).")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
+@click.option("--only-to-order", "to_order_only", is_flag=True,
+              help="Leave out the lines with nothing to order (workbook, CSV and JSON).")
 @db_option()
-def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file) -> None:
+def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file, to_order_only) -> None:
     """Write the bill of materials: what the vessels need for the period, less what is on board,
     with the same generic part across units and vessels on one line and its split per vessel, oil
     and filter elements rounded to packs over the whole order, and supplier part numbers, prices
     and lead times where a catalogue matched. "To order", packs and totals are live formulas.
+
+    Each line's supplier: one preferred for the part, else a preferred supplier, else the cheapest
+    offer in the base currency that arrives by the vessel's next delivery (else the fastest,
+    marked late); each line shows why, and the date it must be ordered by. Oil is planned once per
+    fluid in the chosen supplier's packs (the cheapest mix that is never short).
 
     Each vessel is worked out under its spares policy in force today in the fleet database (its
     own, else its company's, else kit's default; see kit policy show) unless --policy is given.
@@ -45,7 +52,7 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
 
     check_outputs({"--out": out, "--csv": csv_out, "--json": json_out})
     days = default_days(engine, days, vessel_ids, particulars, policy_file)
-    order, scope = build_order(engine, vessel_ids, days, particulars, policy_file, progress_bar)
+    order, scope = build_order(engine, vessel_ids, days, particulars, policy_file, progress_bar, to_order_only)
     path = write_workbook(order, out, days, scope)
     written = [str(path)]
     if csv_out:

@@ -28,7 +28,9 @@ def import_(engine, file: str, supplier: str, show_unmatched: int, decimal: str 
 
     Columns: supplier_ref, part_kind with the dimension columns of that kind (d, D, L, t, cut,
     id, cs, length, h; lengths with a unit, "280 mm") or part_key, spec (seal compound, oil
-    grade or element reference), description, pack_qty (1 to 1,000,000), price (0 to 10^12),
+    grade or element reference), description, pack (one pack with its unit in the part's unit:
+    "208 L", "5 US_gal" for oil, required there; "10 pcs" for pieces), pack_qty (pieces per pack,
+    1 to 1,000,000, for parts counted in pieces), price per pack (0 to 10^12),
     currency (ISO 4217), lead_time_days (0 to 3650). Numbers are plain decimals: a semicolon-
     separated CSV has a decimal comma, a comma- or tab-separated one a decimal point (see
     --decimal-mark). The whole file is refused if one row is bad. Rows that match no generic

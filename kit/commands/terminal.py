@@ -143,10 +143,18 @@ def order_summary(order) -> list[str]:
     totals = order.totals_by_currency()
     if totals:
         out.append("total of priced lines: " + "; ".join(f"{totals[c]:,.2f} {visible(c) or '(no currency)'}" for c in sorted(totals)))
+    if order.base_currency:
+        out.append(f"total in the base currency: {order.total_in_currency():,.2f} {visible(order.base_currency)}")
     unpriced = [line for line in to_order if line.line_total is None]
     if unpriced:
         kinds = ", ".join(dict.fromkeys(line.kind.replace("_", " ") for line in unpriced))
         out.append(f"warning: {len(unpriced)} of the {len(to_order)} line(s) to order have no catalogue price ({kinds})")
+    late = order.late_lines()
+    if late:
+        out.append(f"warning: {len(late)} line(s) late: no offer arrives by the delivery date (see the Late column)")
+    if order.missing_rates:
+        out.append(visible(f"warning: no exchange rate into {order.currency} for {', '.join(order.missing_rates)}: "
+                           "those offers were not compared on price (kit rates set)"))
     failed = [(r.vessel.id, u.unit.id, rule.clause) for r in order.results for u in r.units
               for rule in u.checks.rules if rule.verdict == "not met"]
     for vessel_id, unit_id, clause in failed[:RULES_LISTED]:

@@ -11,6 +11,7 @@ One module per idea, data flowing one way:
 ``oil``, ``oil_grades``, ``filters``, ``spares``  quantities to keep on board and the spares policy
 ``parts``, ``requirements``  a vessel and a period -> results and line items
 ``purchasing``  offers, exchange rates, preferred suppliers and deliveries, as plain values
+``supplier_choice``  each line's supplier (money, preference, time), order-by dates, oil in offered packs
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall and what it covered
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in
 ``text_checks``  the control-character check every stored text passes

@@ -9,34 +9,31 @@ filter element line, short or not.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
-from typing import Mapping
+from dataclasses import dataclass
+from typing import Mapping, Sequence
 
-from kit.engine.bom import KIND_ORDER, CatalogueMatch, Order, OrderLine, consolidate
+from kit.engine.bom import EPS, KIND_ORDER, Order, OrderLine, consolidate, only_to_order
 from kit.engine.display_units import L_PER_M3
+from kit.engine.purchasing import Offer, Purchasing
 from kit.engine.requirements import VesselResult
-
-EPS = 1e-9
 
 
 def preflight_order(result: VesselResult, on_board: Mapping[tuple[str, str], float],
-                    catalogue: Mapping[str, CatalogueMatch] | None = None) -> Order:
+                    offers: Mapping[str, Sequence[Offer]] | None = None, purchasing: Purchasing | None = None) -> Order:
     """The shortfall of ``result`` against ``on_board`` as an order (lines renumbered)."""
-    return shortfall_of(vessel_order(result, on_board, catalogue))
+    return shortfall_of(vessel_order(result, on_board, offers, purchasing))
 
 
 def vessel_order(result: VesselResult, on_board: Mapping[tuple[str, str], float],
-                 catalogue: Mapping[str, CatalogueMatch] | None = None) -> Order:
+                 offers: Mapping[str, Sequence[Offer]] | None = None, purchasing: Purchasing | None = None) -> Order:
     """One vessel's whole order less its stock: every line, short or not."""
-    return consolidate([result], on_board, catalogue)
+    return consolidate([result], on_board, offers, purchasing)
 
 
 def shortfall_of(full: Order) -> Order:
     """The lines of ``full`` (one vessel's order less its stock) with something short, renumbered
     (copies: ``full`` keeps its numbers)."""
-    short = [replace(line, number=n) for n, line in enumerate((li for li in full.lines if li.to_order > EPS), 1)]
-    oil = [o for o in full.oil if o.to_order_l > EPS]
-    return Order(full.results, short, oil, full.packages)
+    return only_to_order(full)
 
 
 @dataclass(frozen=True)

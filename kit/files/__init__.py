@@ -5,7 +5,7 @@
 ``particulars_file``, ``policy_file``  particulars and spares policy files (TOML) read and handed to the engine
 ``sheets``, ``xlsx_limits``  spreadsheets read safely (defusedxml, every part measured first)
 ``particulars_sheet``  the particulars sheet and its templates
-``catalogue_sheet``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
+``catalogue_sheet``, ``packs``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
     and checked (the store writes them); the columns that name a generic part
 ``rates_sheet``  a small CSV of exchange rates read and checked
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates

@@ -8,7 +8,11 @@ One row per supplier part. Columns (sheet ``catalogue`` of a workbook, or a CSV 
 ``part_kind`` ...   the generic part by kind and dimensions, or ``part_key`` (see
                     :mod:`kit.files.part_keys`)
 ``description``     the supplier's own text (optional)
-``pack_qty``        pieces (or litres, metres) per pack, a whole number 1 to 1,000,000 (default 1)
+``pack``            the pack's content with its unit, in the part's unit of measure: a volume for
+                    oil ("20 L", "208 L", "5 US_gal"), pieces for the rest ("10 pcs"); required for
+                    oil (see :mod:`kit.files.packs`)
+``pack_qty``        pieces per pack for parts counted in pieces, a whole number 1 to 1,000,000
+                    (default 1); never for oil, whose pack is a volume
 ``price``           price per pack, a number 0 to 10**12 (optional)
 ``currency``        an ISO 4217 alphabetic code (required; see :mod:`kit.files.currencies`)
 ``lead_time_days``  whole days from order to dispatch, 0 to 3,650 (optional)
@@ -33,7 +37,7 @@ from kit.files.safe_text import NO_CONTROL, CONTROL
 from kit.files.sheets import Table, read_table
 
 SHEET = "catalogue"
-COLUMNS = ("supplier_ref", *PART_COLUMNS, "description", "pack_qty", "price", "currency", "lead_time_days")
+COLUMNS = ("supplier_ref", *PART_COLUMNS, "description", "pack", "pack_qty", "price", "currency", "lead_time_days")
 NOTES = {
     "supplier_ref": "your part number, once per sheet",
     "part_key": "the generic part's key, if you have it (then the part columns may stay empty)",
@@ -44,21 +48,41 @@ NOTES = {
     "t": "guide strip thickness", "cut": "cut length of a strip or cord", "id": "O-ring inside diameter",
     "cs": "O-ring cross-section", "length": "vane strip length", "h": "vane height",
     "spec": "seal compound (NBR, AU ...), oil grade (HM 46) or element/spare reference, as in the part key",
-    "pack_qty": "pieces (or L, m) per pack, a whole number, default 1",
+    "pack": 'one pack with its unit: "20 L", "208 L", "5 US_gal" for oil (required), "10 pcs" for pieces',
+    "pack_qty": "pieces per pack (not for oil: use pack), a whole number, default 1",
     "price": "price per pack, a number", "currency": "ISO 4217 code, e.g. EUR",
     "lead_time_days": "whole days from order to dispatch",
 }
 
 
 # A checked row: its line, then the values of ENTRY_COLUMNS from supplier_ref on.
-Entry = tuple[int, str, str, str | None, int, float | None, str, int | None]
+Entry = tuple[int, str, str, str | None, int, float | None, str, int | None, float | None, str | None]
 ENTRY_COLUMNS = ("supplier_id", "part_id", "supplier_ref", "part_key", "description", "pack_qty", "price", "currency",
-                 "lead_time_days")
+                 "lead_time_days", "pack_content", "pack_label")
+OIL_PACK = 'a pack with its volume for oil, e.g. "208 L" (pack_qty counts pieces)'
+
+
+def _pack(table: Table, row, key: str, pack_qty: int | None) -> tuple[int, float | None, str | None]:
+    """(pack_qty, pack_content, pack_label) of a row: the ``pack`` column read in the part's unit
+    of measure (:func:`kit.files.packs.read_pack`), or ``pack_qty`` for parts counted in pieces."""
+    from kit.files.packs import read_pack, uom_of_kind
+
+    uom = uom_of_kind(key.split(":", 1)[0])
+    text = row.values.get("pack")
+    if text is None:
+        if uom != "pcs":
+            raise table.error(row, "pack", OIL_PACK, "an empty cell" if pack_qty is None else f"pack_qty {pack_qty}")
+        return pack_qty or 1, None, None
+    if pack_qty is not None:
+        raise table.error(row, "pack_qty", "an empty cell when pack is given (one of the two)", pack_qty)
+    where = table.where(row.line)
+    content, label = read_pack(text if isinstance(text, str) else str(text), uom, where, "column pack")
+    return max(1, round(content)), content, label
 
 
 def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
     """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
-    currency, lead_time_days); the first bad cell refuses the file. ``mark_option`` is the
+    currency, lead_time_days, pack_content, pack_label); the first bad cell refuses the file. ``mark_option`` is the
     decimal mark the user stated (None: the file's default, see :mod:`kit.files.numbers`)."""
     from kit.files.currencies import codes, currency_code
 
@@ -90,18 +114,18 @@ def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
             description = str(description)
             if control(description):
                 raise table.error(row, "description", NO_CONTROL, description)
+        key = keys.key(row)
         pack = v.get("pack_qty")
-        if pack is None:
-            pack = 1
-        elif not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
-                  and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
-            pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY, default=1)
+        if not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
+                and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
+            pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY)
+        pack_qty, content, label = _pack(table, row, key, pack)
         lead = v.get("lead_time_days")
         if lead is not None and not (lead.__class__ is str and lead.isascii() and lead.isdigit() and len(lead) < 5
                                      and (lead := int(lead)) <= MAX_DAYS):
             lead = whole_number(table, row, "lead_time_days", 0, MAX_DAYS)
-        out.append((row.line, ref, keys.key(row), description, pack,
-                    number(table, row, "price", mark, maximum=MAX_PRICE), currency, lead))
+        out.append((row.line, ref, key, description, pack_qty,
+                    number(table, row, "price", mark, maximum=MAX_PRICE), currency, lead, content, label))
     return out
 
 

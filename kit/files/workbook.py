@@ -40,13 +40,17 @@ HEADER_LINE_PT = 13.0  # one line of the bold heading font, with its leading
 # Number formats only on money, which a purchaser reads to the cent; quantities kit rounds itself
 # (and the formulas over them) read as they are in General. A styled cell costs several times a
 # plain one to write: in a 1,000-vessel order the quantity formats alone took about 0.5 s.
+DATE = "yyyy-mm-dd"
 ORDER_COLUMNS = (
     ("No", 6, None), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
     ("Required", 11, None), ("On board", 11, None), ("To order", 11, None), ("UoM", 6, None),
     ("Pack size", 10, None), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
     ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
-    ("Lead time [days]", 10, None), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
+    ("Rate to base", 10, None), ("Line total in base", 13, "#,##0.00"), ("Order by", 11, DATE), ("Late", 6, None),
+    ("Earliest arrival", 11, DATE), ("Delivery", 24, None), ("Lead time [days]", 10, None),
+    ("Why this supplier", 44, None), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
 )
+LATE = "late"
 COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS, 1)}
 
 
@@ -144,24 +148,49 @@ def _roundup(ratio: str) -> str:
     return f"ROUNDUP(MAX(0,{ratio}-0.000000001),0)"
 
 
-def _order_sheet(wb: Workbook, order: Order) -> dict[str, int]:
+def _oil_layout(order: Order) -> dict[str, tuple[int, int]]:
+    """Fluid key -> the first and last row of its packs on the Oil and filters sheet (one row a pack)."""
+    rows, r = {}, 2
+    for oil in order.oil:
+        n = max(1, len(oil.plan.packs))
+        rows[oil.fluid_key] = (r, r + n - 1)
+        r += n
+    return rows
+
+
+def _delivery_text(line) -> str | None:
+    d = line.delivery
+    return None if d is None else f"{d.port}, {d.due_on.isoformat()} ({d.vessel_id})"
+
+
+def _order_sheet(wb: Workbook, order: Order, oil_rows: dict[str, tuple[int, int]]) -> dict[str, int]:
     sheet = _Sheet(wb, "Order lines", ORDER_COLUMNS)
     rows: dict[str, int] = {}
+    c = COL
     for line in order.lines:
         r = sheet.rows + 1
-        m = line.match
-        pack = m.pack_quantity if m else (None if line.kind == "oil" else 1)
-        c = COL
-        packs = _roundup(f"{c['To order']}{r}/{c['Pack size']}{r}")
+        offer = line.offer
+        if line.plan is not None:  # oil: the fluid's one plan, its packs on the Oil and filters sheet
+            first, last = oil_rows[line.key]
+            pack: Any = line.pack_label
+            packs_cell: Any = Formula(f"=SUM('Oil and filters'!{OIL_COL['Packs']}{first}:{OIL_COL['Packs']}{last})")
+            total: Any = (Formula(f"=SUM('Oil and filters'!{OIL_COL['Subtotal']}{first}:{OIL_COL['Subtotal']}{last})")
+                          if line.line_total is not None else None)
+        else:
+            pack = line.pack_size
+            packs = _roundup(f"{c['To order']}{r}/{c['Pack size']}{r}")
+            packs_cell = Formula(f'=IF({c["Pack size"]}{r}="","",{packs})')
+            total = Formula(f'=IF(OR({c["Price per pack"]}{r}="",{c["Packs"]}{r}=""),"",'
+                            f'{c["Packs"]}{r}*{c["Price per pack"]}{r})')
+        base_total = Formula(f'=IF(OR({c["Line total"]}{r}="",{c["Rate to base"]}{r}=""),"",'
+                             f'{c["Line total"]}{r}*{c["Rate to base"]}{r})')
         sheet.append([
             line.number, line.designation, line.standard, line.compound,
             round(line.required, 3), round(line.on_board, 3),
-            Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), line.uom, pack,
-            Formula(f'=IF({c["Pack size"]}{r}="","",{packs})'),
-            m.supplier if m else None, m.part_number if m else None, m.price if m else None,
-            m.currency if m else None,
-            Formula(f'=IF(OR({c["Price per pack"]}{r}="",{c["Packs"]}{r}=""),"",{c["Packs"]}{r}*{c["Price per pack"]}{r})'),
-            m.lead_time_days if m else None, line.basis,
+            Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), line.uom, pack, packs_cell,
+            line.supplier, offer.part_number if offer else None, line.price, line.currency, total,
+            line.rate, base_total, line.order_by, LATE if line.late else None, line.earliest_arrival,
+            _delivery_text(line), line.lead_time_days, line.reason or None, line.basis,
             "; ".join(f"{v}: {q:g}" for v, q in line.split.items()), line.key,
         ])
         rows[line.key] = r
@@ -197,36 +226,39 @@ def _seal_sheet(wb: Workbook, order: Order) -> None:
     sheet.finish()
 
 
-def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int]) -> None:
-    packages = sorted(order.packages, key=lambda p: -p.volume)
-    cols = [("Fluid", 30, None), ("Required [L]", 12, "#,##0.0"), ("On board [L]", 12, "#,##0.0"),
-            ("To order [L]", 12, "#,##0.0"), ("To order [kg]", 12, "#,##0.0"), ("To order [US gal]", 12, "#,##0.0")]
-    cols += [(f"{p.name} {p.volume * L_PER_M3:g} L", 11, None) for p in packages] + [("Supply [L]", 12, "#,##0.0")]
-    sheet = _Sheet(wb, "Oil and filters", cols)
-    smallest = packages[-1].volume * L_PER_M3 if packages else 1.0
+OIL_COLUMNS = (
+    ("Fluid", 30, None), ("Required [L]", 12, "#,##0.0"), ("On board [L]", 12, "#,##0.0"), ("To order [L]", 12, "#,##0.0"),
+    ("To order [kg]", 12, "#,##0.0"), ("To order [US gal]", 12, "#,##0.0"), ("Pack", 16, None), ("Pack content [L]", 10, None),
+    ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 16, None), ("Price per pack", 12, "#,##0.00"),
+    ("Currency", 9, None), ("Subtotal", 13, "#,##0.00"), ("Supply [L]", 12, "#,##0.0"), ("Short [L]", 10, None),
+)
+OIL_COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(OIL_COLUMNS, 1)}
+
+
+def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int], oil_rows: dict[str, tuple[int, int]]) -> None:
+    """One row per pack of each fluid's plan (the engine's, :mod:`kit.engine.supplier_choice`): the
+    counts are the plan; subtotal, supply and what is still short are formulas over them."""
+    sheet = _Sheet(wb, "Oil and filters", OIL_COLUMNS)
+    k = OIL_COL
     for oil in order.oil:
-        r = sheet.rows + 1
         o = order_rows[oil.fluid_key]
+        first, last = oil_rows[oil.fluid_key]
         category = oil.fluid_key.split(":")[1].split()[0].upper()
-        to_order = f"D{r}"
-        row: list[Any] = [oil.designation, Formula(f"='Order lines'!{COL['Required']}{o}"),
-                          Formula(f"='Order lines'!{COL['On board']}{o}"), Formula(f"='Order lines'!{COL['To order']}{o}"),
-                          Formula(f"={to_order}*{density_kg_per_l(category)}"), Formula(f"={to_order}/{L_PER_M3 / US_GAL_PER_M3}")]
-        # The package rule of kit.engine.oil.plan_packages, cell by cell: remaining = to order less what is planned so far.
-        planned = []
-        for i, p in enumerate(packages):
-            size = p.volume * L_PER_M3
-            rem = f"({to_order}-{'-'.join(planned) or '0'})" if planned else to_order
-            letter = get_column_letter(7 + i)
-            up = _roundup(f"{rem}/{size:g}")
-            if i == len(packages) - 1:
-                row.append(Formula(f"={up}"))
-            else:
-                down = f"ROUNDDOWN(MAX(0,{rem}/{size:g}+0.000000001),0)"
-                row.append(Formula(f"=IF({up}*{size:g}-{rem}<{smallest:g},{up},{down})"))
-            planned.append(f"{letter}{r}*{size:g}")
-        row.append(Formula("=" + "+".join(planned)))
-        sheet.append(row)
+        for pack in oil.plan.packs or (None,):
+            r = sheet.rows + 1
+            to_order = f"{k['To order [L]']}{r}"
+            offer = pack.offer if pack else None
+            sheet.append([
+                oil.designation, Formula(f"='Order lines'!{COL['Required']}{o}"), Formula(f"='Order lines'!{COL['On board']}{o}"),
+                Formula(f"='Order lines'!{COL['To order']}{o}"), Formula(f"={to_order}*{density_kg_per_l(category)}"),
+                Formula(f"={to_order}/{L_PER_M3 / US_GAL_PER_M3}"),
+                pack.label if pack else None, pack.content if pack else None, pack.count if pack else 0,
+                offer.supplier if offer else None, offer.part_number if offer else None,
+                offer.price if offer else None, offer.currency if offer else None,
+                Formula(f'=IF({k["Price per pack"]}{r}="","",{k["Packs"]}{r}*{k["Price per pack"]}{r})'),
+                Formula(f"={k['Packs']}{r}*N({k['Pack content [L]']}{r})"),
+                Formula(f"=MAX(0,{to_order}-SUM({k['Supply [L]']}{first}:{k['Supply [L]']}{last}))"),
+            ])
     sheet.finish()
     filters = _Sheet(wb, "Filter elements", (("Vessel", 18, None), ("Unit", 10, None), ("Position", 12, None),
                                              ("Element", 20, None), ("Elements per change", 10, None), ("Changes due", 10, None),
@@ -342,13 +374,8 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     n = len(order.lines) + 1
     sheet.append(["Order lines", len(order.lines)])
     sheet.append(["Lines with something to order", Formula(f"=COUNTIF('Order lines'!{COL['To order']}2:{COL['To order']}{n},\">0\")")])
-    currencies = sorted({line.match.currency for line in order.lines if line.match and line.match.currency})
-    for cur in currencies:
-        sheet.append([f"Total of priced lines [{cur}]",
-                      Formula(f"=SUMIF('Order lines'!{COL['Currency']}2:{COL['Currency']}{n},{_equal_to(cur)},"
-                              f"'Order lines'!{COL['Line total']}2:{COL['Line total']}{n})")])
-    unpriced = sum(1 for line in order.lines if not (line.match and line.match.price is not None))
-    sheet.append(["Lines with no catalogue price", unpriced])
+    _money_rows(sheet, order, n)
+    _date_rows(sheet, order, n)
     sheet.append([])
     _long(sheet, "CAUTION", SAFETY, header=True)
     notes = [
@@ -359,12 +386,68 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
                                "its reservoir. 'common practice': a trade rule of thumb. 'company policy': the company's "
                                "spares policy file."),
         ("Live formulas", "To order = MAX(0, Required - On board); Packs = To order / Pack size, rounded up; "
-                          "Line total = Packs x Price per pack. Edit 'On board' and the order follows."),
-        ("Oil packages", "Largest package first: as many as fit, or one more when it overshoots by less than the smallest "
-                         "package; the smallest package rounds up. Supply is never short."),
+                          "Line total = Packs x Price per pack; Line total in base = Line total x Rate to base. "
+                          "Edit 'On board' and the order follows."),
+        ("Oil packs", "Planned once per fluid over the whole order in the chosen supplier's packs: the cheapest mix that "
+                      "is never short and overshoots by less than the smallest pack; the spares policy's packages where "
+                      "no supplier offers the oil. The counts are the plan (Oil and filters sheet); if an edited "
+                      "on-board count needs more, 'Short [L]' there says how much."),
+        ("Supplier choice", "A supplier preferred for the part, then a preferred supplier, wins over price; otherwise "
+                            "the cheapest offer in the base currency that arrives in time (today + lead time + handling "
+                            "days by the delivery date), else the fastest, marked late. Order by = delivery date - lead "
+                            "time - handling days. Sort the Order lines sheet by 'Order by' with its filter."),
     ]
     for item, text in notes:
         _long(sheet, item, text)
+
+
+def _range(name: str, n: int) -> str:
+    return f"'Order lines'!{COL[name]}2:{COL[name]}{n}"
+
+
+def _money_rows(sheet: _Sheet, order: Order, n: int) -> None:
+    """Totals per currency and in the base currency, the rates used and those missing."""
+    currencies = sorted({line.currency for line in order.lines if line.currency})
+    for cur in currencies:
+        sheet.append([f"Total of priced lines [{cur}]",
+                      Formula(f"=SUMIF({_range('Currency', n)},{_equal_to(cur)},{_range('Line total', n)})")])
+    base, cur = order.base_currency, order.currency
+    if base:
+        sheet.append(["Base currency", base])
+    elif cur:
+        _long(sheet, "Base currency", f"none set: offers compared in {cur}, the currency of most offers"
+              + ("; offers in other currencies were not compared on price" if order.missing_rates else ""))
+    else:
+        sheet.append(["Base currency", "none set"])
+    if cur:
+        sheet.append([f"Total in base currency [{cur}]", Formula(f"=SUM({_range('Line total in base', n)})")])
+        rated = sorted({line.currency for line in order.lines if line.currency and line.currency != cur and line.rate})
+        if rated and order.purchasing:
+            rates = order.purchasing.rates
+            _long(sheet, "Exchange rates used", "; ".join(
+                f"1 {c} = {rates[c].rate:g} {cur} (set {rates[c].set_on.isoformat()}, {rates[c].source})" for c in rated if c in rates))
+    unconverted = sum(1 for line in order.lines if line.line_total is not None and line.line_total_base is None)
+    sheet.append(["Priced lines left out of the base total", unconverted])
+    if order.missing_rates:
+        _long(sheet, "Missing exchange rates", f"no rate into {cur} for {', '.join(order.missing_rates)}: offers in "
+              f"{'it' if len(order.missing_rates) == 1 else 'them'} were ranked after the offers compared on price "
+              "(set the rates, then write the order again)")
+    unpriced = sum(1 for line in order.lines if line.line_total is None)
+    sheet.append(["Lines with no catalogue price", unpriced])
+
+
+def _date_rows(sheet: _Sheet, order: Order, n: int) -> None:
+    """Handling margin, late lines and the first order-by date."""
+    purchasing = order.purchasing
+    if purchasing is None:
+        return
+    sheet.append(["Handling days (dispatch to on board)", purchasing.handling_days])
+    sheet.append(["Late lines (cannot arrive in time)", Formula(f'=COUNTIF({_range("Late", n)},"{LATE}")')])
+    dates = [line.order_by for line in order.lines if line.order_by]
+    if dates:
+        sheet.append(["First order-by date", min(dates).isoformat()])
+    elif not purchasing.deliveries:
+        sheet.append(["Order-by dates", "no delivery set for these vessels (kit delivery set)"])
 
 
 def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> Path:
@@ -372,10 +455,11 @@ def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> P
     path = Path(path)
     wb = Workbook(write_only=True)
     _cover(wb, order, days, scope)
-    rows = _order_sheet(wb, order)
+    oil_rows = _oil_layout(order)
+    rows = _order_sheet(wb, order, oil_rows)
     _split_sheet(wb, order)
     _seal_sheet(wb, order)
-    _oil_filter_sheet(wb, order, rows)
+    _oil_filter_sheet(wb, order, rows, oil_rows)
     _checks_sheet(wb, order)
     save_atomically(wb, path)
     return path

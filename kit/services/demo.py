@@ -1,6 +1,6 @@
 # SPDX-License-Identifier: MIT
 """The demo: a throwaway fleet database built from ``demo_fleet/``, with invented stock and an
-invented supplier catalogue, then the fleet's bill of materials and one vessel's pre-voyage check.
+invented supplier catalogues (oil in several packs), then the fleet's bill of materials and one vessel's pre-voyage check.
 
 Everything goes through the services a user's commands call (particulars, parts, catalogue CSV,
 stock CSV, the order, the check), so the demo exercises the real paths. The stock and the catalogue are invented here by a
@@ -50,15 +50,30 @@ def _invented_stock(lines, index_seed: int) -> list[dict]:
     return rows
 
 
-def _invented_catalogue(lines) -> list[dict]:
+# Oil packs of the invented suppliers: (pack, price per pack in EUR, lead time in days).
+DEMO_OIL_PACKS = {DEMO_SUPPLIER: (("20 L", 96.0, 7), ("208 L", 905.0, 10), ("1000 L", 4150.0, 21)),
+                  "Harbourline Fluid Power (invented)": (("20 L", 92.5, 14), ("208 L", 930.0, 14))}
+
+
+def _invented_catalogue(lines, supplier: str = DEMO_SUPPLIER) -> list[dict]:
+    """Seals, O-rings and filter elements in pieces (``pack_qty``) from the first supplier, and oil
+    in several packs (``pack``) from both, each at its own prices and lead times."""
     rows = []
+    oils = sorted({li.key for li in lines if li.kind == "oil"})
+    prefix = "NMS" if supplier == DEMO_SUPPLIER else "HFP"
+    for key in oils:
+        for pack, price, lead in DEMO_OIL_PACKS[supplier]:
+            rows.append({"supplier_ref": f"{prefix}-OIL-{len(rows) + 1:03d}", "part_key": key, "description": "hydraulic oil",
+                         "pack": pack, "pack_qty": "", "price": price, "currency": "EUR", "lead_time_days": lead})
+    if supplier != DEMO_SUPPLIER:
+        return rows
     for n, line in enumerate(sorted({li.key: li for li in lines if li.kind not in ("oil", "spare")}.values(),
                                     key=lambda li: li.key), 1):
         size = max(line.dims.values()) if line.dims else 100.0
         pack = 2 if line.kind == "filter_element" else 1
         price = round(18 + 0.25 * size, 2) if line.kind != "filter_element" else 64.0
         rows.append({"supplier_ref": f"NMS-{n:05d}", "part_key": line.key, "description": line.designation,
-                     "pack_qty": pack, "price": price, "currency": "EUR", "lead_time_days": 10 + (n % 4) * 7})
+                     "pack": "", "pack_qty": pack, "price": price, "currency": "EUR", "lead_time_days": 10 + (n % 4) * 7})
     return rows
 
 
@@ -97,9 +112,10 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
         results = {v.id: assess_vessel(v, days, policy) for v in vessels}  # what the invented files are made from
         all_lines = [li for r in results.values() for li in r.lines]
         register_parts(engine, days=days)
-        catalogue_csv = out / "imports" / "catalogue.csv"
-        _write_csv(catalogue_csv, _invented_catalogue(all_lines))
-        import_catalogue(engine, catalogue_csv, DEMO_SUPPLIER)
+        for n, supplier in enumerate(DEMO_OIL_PACKS):
+            catalogue_csv = out / "imports" / ("catalogue.csv" if n == 0 else f"catalogue-{n + 1}.csv")
+            _write_csv(catalogue_csv, _invented_catalogue(all_lines, supplier))
+            import_catalogue(engine, catalogue_csv, supplier)
         for i, v in enumerate(vessels):
             stock_csv = out / "imports" / f"stock-{v.id.lower()}.csv"
             _write_csv(stock_csv, _invented_stock(results[v.id].lines, i))

@@ -53,11 +53,21 @@ def read_fleet(engine: Engine, vessel_ids: Iterable[str], policy_file: str | Non
 
 
 def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, particulars: str | None = None,
-                policy_file: str | None = None, progress: Progress = no_progress) -> tuple:
+                policy_file: str | None = None, progress: Progress = no_progress, to_order_only: bool = False) -> tuple:
     """The consolidated order (:class:`kit.engine.bom.Order`) and a line saying what it covers: the
     vessels of the fleet database (all, or ``vessel_ids``) less their stock on board, with the
-    catalogue's offers; or, with ``particulars`` (a .toml file or folder), those vessels alone,
-    under ``policy_file`` (or kit's default), no stock counted and no database."""
+    catalogue's offers, rates, preferred suppliers and deliveries; or, with ``particulars`` (a .toml
+    file or folder), those vessels alone, under ``policy_file`` (or kit's default), no stock counted
+    and no database. ``to_order_only`` leaves out the lines with nothing to order."""
+    order, scope = _build_order(engine, vessel_ids, days, particulars, policy_file, progress)
+    if to_order_only:
+        from kit.engine.bom import only_to_order
+
+        return only_to_order(order), scope + ", only lines with something to order"
+    return order, scope
+
+
+def _build_order(engine, vessel_ids, days, particulars, policy_file, progress) -> tuple:
     from kit.engine.bom import consolidate
 
     if particulars:
@@ -73,15 +83,23 @@ def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, p
         policy = load_policy(policy_file)
         results = assess_all(vessels, days, {v.id: policy for v in vessels}, progress)
         return consolidate(results), f"{len(vessels)} vessel(s) from {particulars}, no stock counted"
-    from kit.store.order_sources import catalogue_offers, stock_on_board
-
     vessels, policies = read_fleet(engine, vessel_ids, policy_file)
     results = assess_all(vessels, days, policies, progress)
-    with engine.connect() as conn:
-        on_board = stock_on_board(conn, [v.id for v in vessels])
-        offers = catalogue_offers(conn, {li.key for r in results for li in r.lines})
+    on_board, offers, purchasing = _order_sources(engine, [v.id for v in vessels], {li.key for r in results for li in r.lines})
     scope = "whole fleet" if not vessel_ids else "selected vessels"
-    return consolidate(results, on_board, offers), f"{scope}, {len(vessels)} vessel(s), stock from the fleet database"
+    return (consolidate(results, on_board, offers, purchasing),
+            f"{scope}, {len(vessels)} vessel(s), stock from the fleet database")
+
+
+def _order_sources(engine: Engine, vessel_ids: list[str], keys: set[str]) -> tuple:
+    """Stock on board, every offer for ``keys`` and the purchasing records as of today, read in one
+    transaction so they agree with each other."""
+    from kit.store.order_sources import catalogue_offers, stock_on_board
+    from kit.store.purchasing_store import purchasing_context
+
+    with engine.connect() as conn, conn.begin():
+        return (stock_on_board(conn, vessel_ids), catalogue_offers(conn, keys),
+                purchasing_context(conn, vessel_ids, dt.date.today()))
 
 
 @dataclass(frozen=True)
@@ -94,14 +112,11 @@ class VoyageCheck:
 
 def check_voyage(engine: Engine, vessel_id: str, days: float, policy_file: str | None = None) -> VoyageCheck:
     """``vessel_id``'s (any letter case) on-board stock against what a voyage of ``days`` needs."""
-    from kit.store.order_sources import catalogue_offers, stock_on_board
     from kit.engine.preflight import shortfall_of, vessel_order
     from kit.engine.requirements import assess_vessel
 
     (vessel,), policies = read_fleet(engine, [vessel_id], policy_file)
     result = assess_vessel(vessel, days, policies[vessel.id])
-    with engine.connect() as conn:
-        on_board = stock_on_board(conn, [vessel.id])
-        offers = catalogue_offers(conn, {li.key for li in result.lines})
-    full = vessel_order(result, on_board, offers)
+    on_board, offers, purchasing = _order_sources(engine, [vessel.id], {li.key for li in result.lines})
+    full = vessel_order(result, on_board, offers, purchasing)
     return VoyageCheck(vessel, days, shortfall_of(full), full)

@@ -7,6 +7,7 @@
 ``stock_import``, ``catalogue_import``  a vessel's stock and a supplier's catalogue written (read and
     checked by :mod:`kit.files.stock_sheet` and :mod:`kit.files.catalogue_sheet`)
 ``order_sources``  stock and catalogue offers read for an order
+``purchasing_store``  the purchasing records an order reads: base currency, rates in force, preferences, deliveries
 ``purchasing_records``  base currency and handling margin, exchange rates, preferred suppliers and
     deliveries written and listed
 ``database_status``  rows per table
