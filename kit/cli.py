@@ -31,6 +31,7 @@ COMMANDS: dict[str, tuple[str, str, str]] = {
     "stock": ("kit.commands.stock", "stock", "Import a vessel's on-board stock count or receipts and issues."),
     "template": ("kit.commands.template", "template", "Write the particulars, stock or catalogue spreadsheet to fill in."),
     "policy": ("kit.commands.policy", "policy", "Set or show the spares policy in force for a company or vessel."),
+    "enquiry": ("kit.commands.enquiry", "enquiry", "Write enquiries to suppliers from the order; read their replies back."),
 }
 
 
