@@ -12,6 +12,7 @@ One module per idea, data flowing one way:
 ``parts``, ``requirements``  a vessel and a period -> results and line items
 ``purchasing``  offers, exchange rates, preferred suppliers and deliveries, as plain values
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall
+``enquiry``  an order shaped into enquiries, one per supplier and one open; what a reply answers
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in
 
 The engine imports no database (sqlalchemy, catalog_schema), no :mod:`kit.store`, no

@@ -9,6 +9,8 @@
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
 ``safe_text``  formula text and control characters: checked on the way in, visible on the way out
 ``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
+``enquiry_workbook``, ``enquiry_reply``, ``packs``  enquiries written, replies read and checked; a
+    supplier's pack ("20 L") read in the part's unit
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
 
 The files layer may use the engine and ``catalog_schema.conventions`` (shared constants that

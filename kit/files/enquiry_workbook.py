@@ -34,10 +34,10 @@ LINES = "Lines"
 ASKED_COLUMNS = (
     ("Line ref", 19, False), ("Designation", 40, True), ("Standard", 14, True), ("Compound", 10, True),
     ("Service conditions", 14, True), ("Quantity", 8, False), ("UoM", 5, False), ("Pack", 8, False), ("Packs", 6, False),
-    ("Vessels (units)", 18, True), ("Delivery port", 13, True), ("Deliver by", 11, False),
+    ("Vessels (units)", 18, True), ("Delivery port", 13, True), ("Deliver by", 12, False),
 )
 REPLY_COLUMNS = (
-    ("Your part number", 14, True), ("Unit price (per your pack)", 11, False), ("Currency", 8, False),
+    ("Your part number", 14, True), ("Unit price (per your pack)", 11, False), ("Currency", 9, False),
     ("Your pack", 9, False), ("Lead time [days]", 8, False), ("Remarks", 18, True),
 )
 COLUMNS = ASKED_COLUMNS + REPLY_COLUMNS

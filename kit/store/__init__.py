@@ -7,6 +7,7 @@
 ``stock_import``, ``catalogue_import``  a vessel's stock and a supplier's catalogue written (read and
     checked by :mod:`kit.files.stock_sheet` and :mod:`kit.files.catalogue_sheet`)
 ``order_sources``  stock and catalogue offers read for an order
+``enquiries``  enquiries recorded and read back for their replies; the next delivery of each vessel
 ``database_status``  rows per table
 
 Only the store runs queries. A store function takes a Connection and leaves the transaction
