@@ -33,6 +33,16 @@ COMPANIES = Table(
     UniqueConstraint("name", name=conv("uq_companies_name")),
 )
 
+ENQUIRIES = Table(
+    "enquiries",
+    metadata,
+    Column("id", String, nullable=False),
+    Column("supplier", String, nullable=True),
+    Column("written_on", Date, nullable=False),
+    Column("reply_by", Date, nullable=False),
+    PrimaryKeyConstraint("id", name=conv("pk_enquiries")),
+)
+
 EXCHANGE_RATES = Table(
     "exchange_rates",
     metadata,
@@ -107,6 +117,22 @@ CATALOGUE_ENTRIES = Table(
     CheckConstraint("pack_qty >= 1", name=conv("ck_catalogue_entries_pack_qty")),
     CheckConstraint("price IS NULL OR price >= 0", name=conv("ck_catalogue_entries_price")),
     Index(conv("ix_catalogue_entries_part_key"), "part_key", unique=False),
+)
+
+ENQUIRY_LINES = Table(
+    "enquiry_lines",
+    metadata,
+    Column("enquiry_id", String, nullable=False),
+    Column("line", Integer, nullable=False),
+    Column("ref", String, nullable=False),
+    Column("part_key", String, nullable=False),
+    Column("designation", String, nullable=False),
+    Column("quantity", Float, nullable=False),
+    Column("uom", String, nullable=False),
+    PrimaryKeyConstraint("enquiry_id", "line", name=conv("pk_enquiry_lines")),
+    ForeignKeyConstraint(["enquiry_id"], ["enquiries.id"], ondelete="CASCADE", name=conv("fk_enquiry_lines_enquiry_id_enquiries")),
+    UniqueConstraint("ref", name=conv("uq_enquiry_lines_ref")),
+    CheckConstraint("quantity > 0", name=conv("ck_enquiry_lines_quantity")),
 )
 
 PART_SUPPLIERS = Table(

@@ -375,3 +375,33 @@ class DeliveryRow(SQLModel, table=True):
     port: str
     due_on: dt.date
     note: Optional[str] = None
+
+
+class EnquiryRow(SQLModel, table=True):
+    """An enquiry kit wrote (request for quotation): its reference, the supplier it asks (null: an
+    open enquiry, for any supplier), the day it was written and the day a reply is asked by.
+    (Revision 0007.)"""
+
+    __tablename__ = "enquiries"
+
+    id: str = Field(primary_key=True)
+    supplier: Optional[str] = None
+    written_on: dt.date
+    reply_by: dt.date
+
+
+class EnquiryLineRow(SQLModel, table=True):
+    """One line of an enquiry: our line reference as the workbook shows it, the generic part it
+    asks for, and the designation and quantity written (a reply must hand them back unchanged).
+    (Revision 0007.)"""
+
+    __tablename__ = "enquiry_lines"
+    __table_args__ = (CheckConstraint("quantity > 0", name="quantity"),)
+
+    enquiry_id: str = Field(foreign_key="enquiries.id", ondelete="CASCADE", primary_key=True)
+    line: int = Field(primary_key=True)
+    ref: str = Field(sa_column_kwargs={"unique": True, "nullable": False})
+    part_key: str
+    designation: str
+    quantity: float
+    uom: str

@@ -80,13 +80,13 @@ def table_rows(text: str) -> list[list[str]]:
     return [[c.strip() for c in line.split("│")[1:-1]] for line in text.splitlines() if line.startswith("│")]
 
 
-def test_check_table_at_80_and_160_columns(demo, corvina_order):
+def test_check_table_at_80_and_240_columns(demo, corvina_order):
     db = demo / "fleet.sqlite"
-    narrow, wide = run("check", "CORVINA-BAY", "--days", DAYS, "--db", db), run("check", "CORVINA-BAY", "--days", DAYS, "--db", db, width=160)
+    narrow, wide = run("check", "CORVINA-BAY", "--days", DAYS, "--db", db), run("check", "CORVINA-BAY", "--days", DAYS, "--db", db, width=240)
     assert all(len(line) <= 80 for line in narrow.output.splitlines()), narrow.output
     assert "left out at 80 columns: basis" in narrow.output and "left out" not in wide.output
     short = short_lines(corvina_order)
-    # at 160 columns each line of the shortfall is one row of the table, its part whole
+    # at 240 columns (designations name the valve block maker and model) each line of the shortfall is one row of the table, its part whole
     rows = table_rows(wide.output)
     assert [r[1] for r in rows] == [line["designation"].split(",")[0] if kind(line) == "oil" else line["designation"] for line in short]
     assert [float(r[5].replace(",", "")) for r in rows] == [round(line["to_order"], 1) for line in short]

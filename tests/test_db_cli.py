@@ -13,7 +13,7 @@ from catalog_schema.engine import default_path, resolve_url
 from db_support import TOML_CYLINDER, db_url  # noqa: F401  (fixtures)
 from kit.cli import main
 
-GROUPS = ["db", "catalogue", "stock", "template", "parts", "policy"]
+GROUPS = ["db", "catalogue", "stock", "template", "parts", "policy", "enquiry"]
 
 
 def subcommands():
@@ -71,7 +71,7 @@ def test_where_the_database_is(monkeypatch, tmp_path):
 def test_upgrade_status_and_load_through_the_cli(db_url, tmp_path):
     runner = CliRunner()
     result = runner.invoke(main, ["db", "upgrade", "--db", db_url])
-    assert (result.exit_code, result.output) == (0, "schema at revision 0006 (was empty)\n")
+    assert (result.exit_code, result.output) == (0, "schema at revision 0007 (was empty)\n")
     toml = tmp_path / "v.toml"
     toml.write_text(TOML_CYLINDER)
     book = tmp_path / "v.xlsx"
@@ -79,7 +79,7 @@ def test_upgrade_status_and_load_through_the_cli(db_url, tmp_path):
     result = runner.invoke(main, ["load", str(book)], env={"KIT_DB": db_url})
     assert (result.exit_code, result.output) == (0, "loaded 1 vessel(s): TEST-ONE\n")
     result = runner.invoke(main, ["db", "status", "--db", db_url])
-    assert "revision: 0006" in result.output
+    assert "revision: 0007" in result.output
     assert [line.split() for line in result.output.splitlines() if line.split()[0] in ("vessels", "units")] == [
         ["vessels", "1"], ["units", "1"]]
 

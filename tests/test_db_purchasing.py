@@ -40,7 +40,7 @@ def fleet(db_url, tmp_path):  # noqa: F811
     assert f.kit("load", tmp_path / "two.toml").exit_code == 0
     rows = "".join(f"H-{i},{key},10,EUR,5\n" for i, key in enumerate(f.keys[:2]))
     f.file("cat.csv", "supplier_ref,part_key,price,currency,lead_time_days\n" + rows + "H-X,rod_seal:d=1mm:D=2mm:L=3mm,1,EUR,\n")
-    assert f.kit("catalogue", "import", tmp_path / "cat.csv", "--supplier", "Harlow Seal Supply").exit_code == 0
+    assert f.kit("catalogue", "import", tmp_path / "cat.csv", "--supplier", "Skerrow Seal Supply").exit_code == 0
     f.file("cat2.csv", f"supplier_ref,part_key,price,currency\nQ-1,{f.keys[0]},9,USD\n")
     assert f.kit("catalogue", "import", tmp_path / "cat2.csv", "--supplier", "Quillon Marine").exit_code == 0
     yield f
@@ -158,16 +158,16 @@ def test_rates_import_reads_a_semicolon_file_with_a_decimal_comma(fleet):
 
 def test_supplier_list_prefer_and_undo(fleet):
     key = fleet.keys[0]
-    assert ok(fleet, "supplier", "list") == ("Harlow Seal Supply\t3 entries, 2 matched\t-\n"
-                                             "Quillon Marine\t1 entries, 1 matched\t-\n")
+    assert ok(fleet, "supplier", "list") == ("Quillon Marine\t1 entries, 1 matched\t-\n"
+                                             "Skerrow Seal Supply\t3 entries, 2 matched\t-\n")
     assert ok(fleet, "supplier", "prefer", "Quillon Marine") == "Quillon Marine: preferred for everything it offers\n"
     assert ok(fleet, "supplier", "prefer", "Quillon Marine").endswith("(already)\n")
-    ok(fleet, "supplier", "prefer", "Harlow Seal Supply", "--part", key, "--note", "maker-approved")
+    ok(fleet, "supplier", "prefer", "Skerrow Seal Supply", "--part", key, "--note", "maker-approved")
     assert ok(fleet, "supplier", "prefer", "Quillon Marine", "--part", key) == (
-        f"Quillon Marine: preferred for {key} (instead of Harlow Seal Supply)\n")  # one supplier per part
-    assert ok(fleet, "supplier", "list") == ("Harlow Seal Supply\t3 entries, 2 matched\t-\n"
-                                             "Quillon Marine\t1 entries, 1 matched\tpreferred\n"
-                                             f"  preferred for {key}\n")
+        f"Quillon Marine: preferred for {key} (instead of Skerrow Seal Supply)\n")  # one supplier per part
+    assert ok(fleet, "supplier", "list") == ("Quillon Marine\t1 entries, 1 matched\tpreferred\n"
+                                             f"  preferred for {key}\n"
+                                             "Skerrow Seal Supply\t3 entries, 2 matched\t-\n")
     assert ok(fleet, "supplier", "unprefer", "Quillon Marine", "--part", key) == f"Quillon Marine: no longer preferred for {key}\n"
     assert ok(fleet, "supplier", "unprefer", "Quillon Marine", "--part", key) == (
         f"Quillon Marine: was not preferred for {key}; nothing changed\n")
@@ -177,11 +177,11 @@ def test_supplier_list_prefer_and_undo(fleet):
 
 
 def test_supplier_refusals_name_what_to_look_at(fleet):
-    ok(fleet, "supplier", "prefer", "Harlow Seal Supply", "--part", fleet.keys[1], "--note", "kept")
+    ok(fleet, "supplier", "prefer", "Skerrow Seal Supply", "--part", fleet.keys[1], "--note", "kept")
     fleet.refused(["supplier", "prefer", "Harlow Seals"],
                   "kit supplier prefer: NAME: expected the name of a supplier in the fleet database (kit supplier list "
                   "shows them; kit catalogue import adds them) (got 'Harlow Seals')")
-    fleet.refused(["supplier", "prefer", "Harlow Seal Supply", "--part", "o_ring:nothing"],
+    fleet.refused(["supplier", "prefer", "Skerrow Seal Supply", "--part", "o_ring:nothing"],
                   "kit supplier prefer: --part: expected the key of a generic part in the fleet database (kit parts list "
                   "shows them; kit parts register adds them) (got 'o_ring:nothing')")
     fleet.refused(["supplier", "unprefer", "Nobody", "--part", fleet.keys[1]],

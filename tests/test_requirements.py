@@ -94,3 +94,56 @@ def test_zero_days():
 def test_negative_days_are_refused():
     with pytest.raises(ValueError, match="days must not be negative"):
         assess_vessel(vessel(ram_unit()), -1, POLICY)
+
+
+def _fleet_order(*units: dict) -> dict[str, list]:
+    """Two or more one-unit vessels consolidated: designation -> (quantity, vessels) of each spare and filter line."""
+    from dataclasses import replace
+
+    from kit.engine.bom import consolidate
+
+    results = [assess_vessel(replace(vessel(u), id=f"V{i}"), 90, POLICY) for i, u in enumerate(units, 1)]
+    return {line.designation: (line.required, sorted(line.split)) for line in consolidate(results).lines
+            if line.kind in ("spare", "filter_element")}
+
+
+BLOCK = {"valve_maker": "Tarnwick Hydraulik", "valve_model": "TVB-16", "maker": "Quillmarsh Steering Gear", "model": "QR2"}
+FILTER = [{"position": "return", "elements": 1, "change_interval": "2000 h"}]
+
+
+def test_identical_valve_blocks_consolidate_across_vessels_and_name_their_maker():
+    coils = [{"voltage": "24 V DC", "count": 2}]
+    lines = _fleet_order(ram_unit(**BLOCK, solenoid=coils), ram_unit(**BLOCK, solenoid=coils))
+    # One kit a block (kit default policy), one block each: one line for both vessels.
+    assert lines["valve block seal kit, valve block Tarnwick Hydraulik TVB-16"] == (2, ["V1", "V2"])
+    bar = f"{float(ram_unit()['working_pressure'].split()[0]):g} bar"
+    assert lines[f"relief valve cartridge, set to the working pressure, {bar}, valve block Tarnwick Hydraulik TVB-16"] == (2, ["V1", "V2"])
+    assert lines["solenoid coil, 24 V DC, for valve block Tarnwick Hydraulik TVB-16"][1] == ["V1", "V2"]
+
+
+def test_without_makers_each_units_valve_kit_is_its_own_line_naming_vessel_and_unit():
+    lines = _fleet_order(ram_unit(), ram_unit())
+    assert lines["valve block seal kit, steering unit SG1, vessel V1"] == (1, ["V1"])
+    assert lines["valve block seal kit, steering unit SG1, vessel V2"] == (1, ["V2"])
+
+
+def test_pump_shaft_seals_of_two_makers_stay_apart_and_name_them():
+    lines = _fleet_order(ram_unit(pump_model="PX-36", pump_maker="Fennowby Pumpworks"), ram_unit(pump_model="PX-36", pump_maker="Ardley Pumps"))
+    assert lines["pump shaft seal, Fennowby Pumpworks PX-36"] == (1, ["V1"])
+    assert lines["pump shaft seal, Ardley Pumps PX-36"] == (1, ["V2"])
+
+
+def test_hoses_of_one_bore_at_two_pressures_are_two_lines():
+    hose = [{"bore": "19 mm", "count": 2}]
+    lines = _fleet_order(ram_unit(hose=hose, working_pressure="125 bar"), ram_unit(hose=hose, working_pressure="180 bar"))
+    assert lines["hydraulic hose assembly, bore 19 mm, 125 bar working"] == (1, ["V1"])
+    assert lines["hydraulic hose assembly, bore 19 mm, 180 bar working"] == (1, ["V2"])
+
+
+def test_filter_elements_carry_the_vessel_or_consolidate_by_reference():
+    referenced = [{**FILTER[0], "element": "Tarnwick RF-160-10"}]
+    lines = _fleet_order(ram_unit(filter=FILTER), ram_unit(filter=FILTER), ram_unit(filter=referenced), ram_unit(filter=referenced))
+    # 2160 h on 2000 h elements: 2 changes + 1 spare set (as test_unit_lines_by_hand), one element each.
+    assert lines["filter element, return filter, steering unit SG1, vessel V1"] == (3, ["V1"])
+    assert lines["filter element, return filter, steering unit SG1, vessel V2"] == (3, ["V2"])
+    assert lines["filter element, return filter, element Tarnwick RF-160-10"] == (6, ["V3", "V4"])

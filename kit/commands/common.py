@@ -32,6 +32,7 @@ OPTIONS = {
     "demo": {"demo folder": "--out"},
     "bom": {"days": "--days"},
     "check": {"days": "--days"},
+    "enquiry write": {"days": "--days"},
     "purchasing set": {"base currency or handling days": "--base-currency/--handling-days",
                        "base currency": "--base-currency", "handling days": "--handling-days"},
     "rates set": {"currency": "CURRENCY", "rate": "RATE", "date set": "--on", "source": "--source"},

@@ -29,7 +29,7 @@ def prefer(engine, name, part_key, note) -> None:
     """Prefer the supplier NAME (as imported with kit catalogue import) over price: for everything
     it offers, or with --part for one generic part.
 
-    Example: kit supplier prefer "Harlow Seal Supply" --part "o_ring:id=100.00mm:cs=3.55mm:spec=NBR" --note "maker-approved"
+    Example: kit supplier prefer "Skerrow Seal Supply" --part "o_ring:id=100.00mm:cs=3.55mm:spec=NBR" --note "maker-approved"
     """
     from kit.files.safe_text import visible
     from kit.services.purchasing import prefer_supplier
@@ -50,7 +50,7 @@ def unprefer(engine, name, part_key) -> None:
     """Undo kit supplier prefer: NAME is no longer preferred for everything it offers, or with
     --part for that part (its other preferences stay).
 
-    Example: kit supplier unprefer "Harlow Seal Supply"
+    Example: kit supplier unprefer "Skerrow Seal Supply"
     """
     from kit.files.safe_text import visible
     from kit.services.purchasing import unprefer_supplier

@@ -13,6 +13,7 @@ One module per idea, data flowing one way:
 ``purchasing``  offers, exchange rates, preferred suppliers and deliveries, as plain values
 ``supplier_choice``  each line's supplier (money, preference, time), order-by dates, oil in offered packs
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall and what it covered
+``enquiry``  an order shaped into enquiries, one per supplier and one open; what a reply answers
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in
 ``text_checks``  the control-character check every stored text passes
 

@@ -158,6 +158,12 @@ class Unit:
     stock_diameter: float | None = None  # rudder stock at the tiller (SOLAS II-1/29.3.3, 29.4.3)
     max_working_pressure: float | None = None  # Pa, the most the gear sees in service (SOLAS II-1/29.2.2)
     design_pressure: float | None = None  # Pa (SOLAS II-1/29.2.2, 29.2.3)
+    # As the name plates give them, for the lines a supplier quotes (policy items name them).
+    maker: str | None = None  # the gear's (or unit's) maker and model
+    model: str | None = None
+    pump_maker: str | None = None  # the pump's maker; its model is pump_model
+    valve_maker: str | None = None  # the valve block's maker and model
+    valve_model: str | None = None
 
     @property
     def is_steering(self) -> bool:
@@ -355,6 +361,11 @@ def _unit(r: _Reader) -> Unit:
         oil_leakage=r.quantity("oil_leakage", "flow", None, positive=False),
         isolation_valves=r.boolean("isolation_valves", False),
         pump_model=r.text("pump_model", None),
+        maker=r.text("maker", None),
+        model=r.text("model", None),
+        pump_maker=r.text("pump_maker", None),
+        valve_maker=r.text("valve_maker", None),
+        valve_model=r.text("valve_model", None),
         valve_blocks=r.integer("valve_blocks", 1, minimum=0),
         geometry=_geometry(r, actuator, steering),
         filters=tuple(_filter(f) for f in r.tables("filter")),

@@ -114,27 +114,62 @@ def _spare(unit: Unit, item: PolicyItem, what: str, quantity: int, extra: str) -
                     part_key("spare", {}, f"{item.kind}:{extra}"), part=item.text)
 
 
+def name_plate(maker: str | None, model: str | None) -> str:
+    """A maker and model as a supplier quotes by them ("Tarnwick Hydraulik TVB-16"); empty when neither is known."""
+    return " ".join(x for x in (maker, model) if x)
+
+
 def spare_lines(unit: Unit, policy: Policy, vessel_id: str) -> list[LineItem]:
-    """The policy's non-seal items for ``unit``. Parts only this unit has carry ``vessel_id`` in their key."""
+    """The policy's non-seal items for ``unit``, each naming the makers and models the particulars give.
+
+    A part only this unit has carries ``vessel_id`` and the unit in its key and its designation.
+    A valve block's seal kit and relief cartridge whose block maker and model are both known are
+    the same part on every vessel with that block (key by maker, model and, for the cartridge, its
+    setting); a maker or model given joins the key of a coil, a hose or a pump shaft seal, so two
+    makers' parts are never one line. A hose's key holds its working pressure, which its designation
+    states: hoses of one bore at two pressures are two lines.
+    """
     lines: list[LineItem] = []
+    where = f"{unit.service} unit {unit.id}, vessel {vessel_id}"
+    gear = name_plate(unit.maker, unit.model)
+    block = name_plate(unit.valve_maker, unit.valve_model)
+    block_known = bool(unit.valve_maker and unit.valve_model)
+    bar = f"{unit.working_pressure / PA_PER_BAR:g} bar"
     for item in policy.items:
         if item.kind == "solenoid_coil":
+            on = f", for valve block {block}" if block else ""
             for s in unit.solenoids:
-                lines.append(_spare(unit, item, s.voltage, item.quantity, s.voltage))
+                lines.append(_spare(unit, item, s.voltage + on, item.quantity, ":".join(filter(None, (s.voltage, block)))))
         elif item.kind == "valve_seal_kit" and unit.valve_blocks:
-            lines.append(_spare(unit, item, f"{unit.service} unit {unit.id}", item.quantity * unit.valve_blocks, f"{vessel_id}:{unit.id}"))
+            if block_known:
+                lines.append(_spare(unit, item, f"valve block {block}", item.quantity * unit.valve_blocks,
+                                    f"{unit.valve_maker}:{unit.valve_model}"))
+            else:
+                what = ", ".join(filter(None, (f"valve block {block}" if block else "", where, f"gear {gear}" if gear else "")))
+                lines.append(_spare(unit, item, what, item.quantity * unit.valve_blocks, f"{vessel_id}:{unit.id}"))
         elif item.kind == "relief_cartridge":
-            lines.append(_spare(unit, item, f"{unit.working_pressure / PA_PER_BAR:g} bar", item.quantity, f"{vessel_id}:{unit.id}"))
+            if block_known:
+                lines.append(_spare(unit, item, f"{bar}, valve block {block}", item.quantity,
+                                    f"{unit.valve_maker}:{unit.valve_model}:{bar}"))
+            else:
+                what = ", ".join(filter(None, (bar, f"valve block {block}" if block else "", where, f"gear {gear}" if gear else "")))
+                lines.append(_spare(unit, item, what, item.quantity, f"{vessel_id}:{unit.id}"))
         elif item.kind == "hose":
             for bore in sorted({h.bore for h in unit.hoses}):
-                lines.append(_spare(unit, item, f"bore {fmt_mm(bore * 1000)} mm, {unit.working_pressure / PA_PER_BAR:g} bar working",
-                                    item.quantity, f"{fmt_mm(bore * 1000)}mm"))
+                size = f"{fmt_mm(bore * 1000)}mm"
+                text = f"bore {fmt_mm(bore * 1000)} mm, {bar} working" + (f", for gear {gear}" if gear else "")
+                lines.append(_spare(unit, item, text, item.quantity, ":".join(filter(None, (size, bar, gear)))))
         elif item.kind == "pump_shaft_seal":
-            model = unit.pump_model or f"pump of unit {unit.id} (model not stated)"
-            lines.append(_spare(unit, item, model, item.quantity, model))
+            if unit.pump_model:
+                pump = name_plate(unit.pump_maker, unit.pump_model)
+                lines.append(_spare(unit, item, pump, item.quantity, pump))
+            else:
+                maker = f", pump maker {unit.pump_maker}" if unit.pump_maker else ""
+                model = f"pump of unit {unit.id} (model not stated){maker}"
+                lines.append(_spare(unit, item, model, item.quantity, model))
         elif item.kind in CARRIER_KINDS and unit.is_steering:
-            lines.append(_spare(unit, item, f"{CARRIER_PLACE[unit.rudder_carrier]} of {unit.service} unit {unit.id}",
-                                item.quantity, f"{vessel_id}:{unit.id}"))
+            text = f"{CARRIER_PLACE[unit.rudder_carrier]} of {where}" + (f", gear {gear}" if gear else "")
+            lines.append(_spare(unit, item, text, item.quantity, f"{vessel_id}:{unit.id}"))
     return lines
 
 
@@ -185,7 +220,8 @@ def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> Unit
         changes = filters.changes_due(days, f.duty_hours_per_day, f.change_interval)
         total = filters.elements_needed(f.elements, days, f.duty_hours_per_day, f.change_interval, policy.spare_filter_sets)
         needs.append(FilterNeed(f.position, f.elements, changes, policy.spare_filter_sets, total, f.element_ref))
-        ref = f", element {f.element_ref}" if f.element_ref else f", unit {unit.id}"
+        # An element by its reference is one part wherever it is fitted; without one, it is this unit's.
+        ref = f", element {f.element_ref}" if f.element_ref else f", {unit.service} unit {unit.id}, vessel {vessel.id}"
         lines.append(LineItem(unit.id, "filter_element", f.position, _designation("filter_element", position=f.position, ref=ref),
                               "", total, "pcs", f"{changes} change(s) due + {policy.spare_filter_sets} spare set(s)",
                               part_key("filter_element", {}, f.element_ref or f"{vessel.id}:{unit.id}:{f.position}"), part=f"{f.position} filter"))

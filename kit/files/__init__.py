@@ -13,6 +13,8 @@
     :mod:`kit.engine.text_checks`), visible on the way out
 ``workbook``, ``bom_export``  the .xlsx with live formulas; CSV and JSON
 ``check_workbook``  the pre-voyage check, one sheet laid out for one A4 page
+``enquiry_workbook``, ``enquiry_reply``, ``packs``  enquiries written, replies read and checked; a
+    supplier's pack ("20 L") read in the part's unit
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
 
 The files layer may use the engine and ``catalog_schema.conventions`` (shared constants that

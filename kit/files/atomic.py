@@ -4,6 +4,7 @@ then renamed into place (``os.replace`` is atomic on one file system)."""
 
 from __future__ import annotations
 
+import contextlib
 import errno
 import gc
 import os
@@ -11,7 +12,7 @@ import sys
 import tempfile
 import uuid
 from pathlib import Path
-from typing import Callable
+from typing import Callable, Iterator, Sequence
 
 from kit.errors import OutputError
 from kit.files.output_targets import refuse_bad_target
@@ -149,3 +150,46 @@ def _write_named(path: Path, write: Callable[[Path], object]) -> None:
     finally:
         if os.path.exists(tmp):
             os.unlink(tmp)
+
+
+@contextlib.contextmanager
+def staged(writes: Sequence[tuple[Path, Callable[[Path], object]]]) -> Iterator[Callable[[], list[Path]]]:
+    """Several files that appear all together or not at all.
+
+    Each ``write(tmp)`` fills a temporary file beside its target (every target refused first as
+    :func:`replace_atomically` refuses one); the block gets a ``publish`` function that renames them
+    all into place, to call when everything else the files stand for is done (a database record,
+    in the same transaction). If any write fails, or the block ends without publishing, every
+    temporary file is removed and no target changes.
+    """
+    for path, _ in writes:
+        refuse_bad_target(path)
+    temps: list[tuple[Path, Path]] = []
+    try:
+        for path, write in writes:
+            try:
+                path.parent.mkdir(parents=True, exist_ok=True)
+                fd, name = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".part")
+            except OSError as exc:
+                raise OutputError(str(path), f"a writable folder ({exc.strerror})") from None
+            os.close(fd)
+            temps.append((path, Path(name)))
+            _refuse_quietly(path, lambda write=write, name=name: write(Path(name)), write)
+
+        def publish() -> list[Path]:
+            for path, _ in temps:
+                refuse_bad_target(path)
+            while temps:
+                path, tmp = temps[0]
+                try:
+                    os.replace(tmp, path)
+                except OSError as exc:
+                    raise OutputError(str(path), f"room and permission to write the file ({exc.strerror})") from None
+                temps.pop(0)
+            return [path for path, _ in writes]
+
+        yield publish
+    finally:
+        for _, tmp in temps:
+            with contextlib.suppress(FileNotFoundError):
+                os.unlink(tmp)

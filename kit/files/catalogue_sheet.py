@@ -137,6 +137,7 @@ class CatalogueFile:
     supplier: str
     table: Table
     entries: list[Entry]
+    columns: tuple[str, ...] = ENTRY_COLUMNS  # the columns each entry's values after its line fill
 
 
 def read_catalogue(path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueFile:

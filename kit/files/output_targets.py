@@ -137,6 +137,18 @@ def check_outputs(targets: Mapping[str, str | os.PathLike | None]) -> None:
         given[name] = guard.options[name] = option
 
 
+def check_folder(folder: str | os.PathLike, option: str = "output") -> None:
+    """Refuse ``folder`` as the place for a command's files unless it is new or a folder (links followed)."""
+    try:
+        st = os.stat(folder)
+    except FileNotFoundError:
+        return
+    except OSError as exc:
+        raise OutputError(str(folder), "a folder kit can write files into", option, got=exc.strerror) from None
+    if not stat.S_ISDIR(st.st_mode):
+        raise OutputError(str(folder), "a new folder or an existing one", option, got=described(Path(folder), st))
+
+
 # --- the demo folder ------------------------------------------------------------------------
 
 

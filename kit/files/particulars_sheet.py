@@ -34,7 +34,8 @@ from kit.files.toml_text import parse_toml
 VESSEL_FIELDS = ("id", "name", "ship_type", "gross_tonnage", "company")
 UNIT_COLUMNS = (
     "id", "service", "actuator", "count", "working_pressure", "fluid", "pumps", "pump_flow", "reservoir",
-    "max_rudder_angle", "system_oil", "oil_leakage", "isolation_valves", "pump_model", "valve_blocks",
+    "max_rudder_angle", "system_oil", "oil_leakage", "isolation_valves", "maker", "model", "pump_maker", "pump_model",
+    "valve_blocks", "valve_maker", "valve_model",
     "ram_diameter", "bore", "rod", "stroke", "tiller_radius",
     "vanes", "vane_height", "housing_bore", "hub_diameter", "stock_diameter",
     "vane_angle", "max_working_pressure", "design_pressure", "trunnion_distance", "gland_spigot_bore", "rudder_carrier",
@@ -62,6 +63,11 @@ NOTES = {
     "pump_flow": 'per pump, e.g. "120 L/min"',
     "reservoir": 'e.g. "400 L"',
     "isolation_valves": "TRUE or FALSE",
+    "maker": "the gear's (or unit's) maker as on its name plate, optional; suppliers quote spares by it",
+    "model": "the gear's (or unit's) model as on its name plate, optional",
+    "pump_maker": "the pumps' maker, optional (pump_model: their model)",
+    "valve_maker": "the valve block's maker, optional; valve seal kits, relief cartridges and coils name it",
+    "valve_model": "the valve block's model, optional",
     "unit": "the id of the unit on the units sheet",
     "change_interval": 'e.g. "2000 h"',
     "duty": 'hours a day the filter sees flow, 0 to 24, e.g. "12 h/day" or 12',

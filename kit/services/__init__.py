@@ -10,6 +10,7 @@ service and show or write what it returns; they never open a transaction or run 
 ``fleet``      load particulars, register parts, list parts, list the vessels, work out one vessel's particulars
 ``imports``    a supplier's catalogue, a vessel's stock
 ``orders``     the bill of materials, the pre-voyage check
+``enquiries``  enquiries to suppliers written from the order, and their replies read back
 ``policies``   set and show the spares policy in force; the days of cover an order defaults to
 ``purchasing`` base currency, handling margin, exchange rates, preferred suppliers, deliveries
 ``templates``  the sheets kit reads, written empty or filled

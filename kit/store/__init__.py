@@ -10,6 +10,7 @@
 ``purchasing_store``  the purchasing records an order reads: base currency, rates in force, preferences, deliveries
 ``purchasing_records``  base currency and handling margin, exchange rates, preferred suppliers and
     deliveries written and listed
+``enquiries``  enquiries recorded and read back for their replies; the next delivery of each vessel
 ``database_status``  rows per table
 ``vessel_ids``  a vessel id as typed resolved to the stored one (any letter case); case twins refused
 ``fleet_overview``  the fleet at a glance: units, last count, next delivery, in one query

@@ -89,6 +89,7 @@ def _unit_row(u: Unit, seq: int) -> dict:
         "ref": u.id, "seq": seq, "service": u.service, "actuator": u.actuator, "count": u.count,
         "working_pressure": u.working_pressure, "fluid_category": u.fluid.category, "fluid_grade": u.fluid.grade,
         "max_rudder_angle": u.max_rudder_angle, "isolation_valves": u.isolation_valves, "rudder_carrier": u.rudder_carrier,
+        "maker": u.maker, "model": u.model,
     }
 
 
@@ -111,6 +112,7 @@ def _geometry_row(u: Unit) -> dict:
 def _power_row(u: Unit) -> dict:
     return {"pumps": u.pumps, "pump_flow": u.pump_flow, "reservoir": u.reservoir, "system_oil": u.system_oil,
             "oil_leakage": u.oil_leakage, "pump_model": u.pump_model, "valve_blocks": u.valve_blocks,
+            "pump_maker": u.pump_maker, "valve_maker": u.valve_maker, "valve_model": u.valve_model,
             "max_working_pressure": u.max_working_pressure, "design_pressure": u.design_pressure}
 
 
@@ -230,6 +232,7 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
             rudder=_rudder(rudders.get(u.id)), rudder_carrier=u.rudder_carrier,
             pump_model=p.pump_model, valve_blocks=p.valve_blocks, stock_diameter=geometry[u.id][0].stock_diameter,
             max_working_pressure=p.max_working_pressure, design_pressure=p.design_pressure,
+            maker=u.maker, model=u.model, pump_maker=p.pump_maker, valve_maker=p.valve_maker, valve_model=p.valve_model,
             **{name: tuple(back(r) for r in rows.get(u.id, [])) for name, (rows, back) in children.items()},
         ))
     return [Vessel(v.id, v.name, v.ship_type, v.gross_tonnage, tuple(units_of.get(v.id, ())), v.company, v.source or "")

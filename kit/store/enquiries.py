@@ -1,0 +1,51 @@
+# SPDX-License-Identifier: MIT
+"""Enquiries in the fleet database: what was asked of whom, so a reply can be matched line by
+line; and the next delivery on board each vessel, which an enquiry states."""
+
+from __future__ import annotations
+
+import datetime as dt
+from typing import Iterable
+
+from sqlalchemy import insert, select
+from sqlalchemy.engine import Connection
+
+from catalog_schema.core_tables import DELIVERIES, ENQUIRIES, ENQUIRY_LINES
+from catalog_schema.sql import in_batches
+from kit.engine.enquiry import Asked, AskedLine, Enquiry
+from kit.engine.purchasing import Delivery
+
+
+def next_deliveries(conn: Connection, vessel_ids: Iterable[str], today: dt.date) -> dict[str, Delivery]:
+    """Vessel id -> its first delivery due on or after ``today`` (vessels with none are left out)."""
+    found: dict[str, Delivery] = {}
+    for chunk in in_batches(conn, sorted(set(vessel_ids))):
+        query = (select(DELIVERIES.c.vessel_id, DELIVERIES.c.port, DELIVERIES.c.due_on)
+                 .where(DELIVERIES.c.vessel_id.in_(chunk), DELIVERIES.c.due_on >= today)
+                 .order_by(DELIVERIES.c.vessel_id, DELIVERIES.c.due_on))
+        for vessel_id, port, due_on in conn.execute(query):
+            found.setdefault(vessel_id, Delivery(vessel_id, port, due_on))
+    return found
+
+
+def record_enquiries(conn: Connection, written: Iterable[Enquiry]) -> None:
+    """Record each enquiry and its lines (with the part keys they ask for), in the caller's transaction."""
+    written = list(written)
+    if not written:
+        return
+    conn.execute(insert(ENQUIRIES), [{"id": e.id, "supplier": e.supplier, "written_on": e.written_on, "reply_by": e.reply_by}
+                                     for e in written])
+    rows = [{"enquiry_id": e.id, "line": li.number, "ref": li.ref, "part_key": li.key, "designation": li.designation,
+             "quantity": li.quantity, "uom": li.uom} for e in written for li in e.lines]
+    if rows:
+        conn.execute(insert(ENQUIRY_LINES), rows)
+
+
+def asked(conn: Connection, enquiry_id: str) -> Asked | None:
+    """The enquiry recorded as ``enquiry_id``; None when kit wrote no such enquiry to this database."""
+    head = conn.execute(select(ENQUIRIES.c.supplier).where(ENQUIRIES.c.id == enquiry_id)).first()
+    if head is None:
+        return None
+    query = (select(ENQUIRY_LINES.c.ref, ENQUIRY_LINES.c.part_key, ENQUIRY_LINES.c.designation, ENQUIRY_LINES.c.quantity,
+                    ENQUIRY_LINES.c.uom).where(ENQUIRY_LINES.c.enquiry_id == enquiry_id).order_by(ENQUIRY_LINES.c.line))
+    return Asked(enquiry_id, head.supplier, {r.ref: AskedLine(*r) for r in conn.execute(query)})
