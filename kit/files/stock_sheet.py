@@ -60,6 +60,7 @@ NOTES = {
 # The count sheet of one vessel: printed columns first, then the keys the import reads.
 COUNT_COLUMNS = ("designation", "uom", "location", "needed", "on_board", "as_of", "counted", "counted_on", "part_key", "vessel")
 PRINTED = 8  # columns A to H
+KNOWN = COLUMNS + tuple(c for c in COUNT_COLUMNS if c not in COLUMNS)  # what an import reads or passes over
 FILTER_SHEET = "filter_hours"
 FILTER_COLUMNS = ("unit", "position", "element", "interval_h", "hours_last", "last_on",
                   "hours_since_change", "counted_on", "vessel")
@@ -207,7 +208,7 @@ def read_stock(path: str | Path, mode: str = "count", decimal: str | None = None
     file's numbers ("point" or "comma"; None: by the file's kind); ``mode`` one of :data:`MODES`,
     checked by the caller (:func:`kit.services.imports.import_stock`). The quantity is in column
     ``quantity`` or (a count sheet) ``counted``; a blank one is not counted."""
-    table = read_table(path, SHEET, known=COLUMNS + COUNT_COLUMNS, required=("part_key",))
+    table = read_table(path, SHEET, known=KNOWN, required=("part_key",))
     if "counted" in table.columns and "quantity" in table.columns:
         raise InputError(table.where(), "column counted", "either quantity or counted, not both", got="both")
     column = "counted" if "counted" in table.columns else "quantity"
