@@ -174,6 +174,19 @@ DELIVERIES = Table(
     UniqueConstraint("vessel_id", "due_on", name=conv("uq_deliveries_vessel_id_due_on")),
 )
 
+FILTER_COUNTS = Table(
+    "filter_counts",
+    metadata,
+    Column("vessel_id", String, nullable=False),
+    Column("unit_ref", String, nullable=False),
+    Column("position", String, nullable=False),
+    Column("run_since_change", Float, nullable=False),
+    Column("counted_on", Date, nullable=False),
+    PrimaryKeyConstraint("vessel_id", "unit_ref", "position", name=conv("pk_filter_counts")),
+    ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_filter_counts_vessel_id_vessels")),
+    CheckConstraint("run_since_change >= 0", name=conv("ck_filter_counts_run_since_change")),
+)
+
 SPARES_POLICIES = Table(
     "spares_policies",
     metadata,
@@ -273,11 +286,14 @@ FILTER_POSITIONS = Table(
     Column("change_interval", Float, nullable=False),
     Column("duty_hours_per_day", Float, nullable=False, default=24.0),
     Column("element_ref", String, nullable=True),
+    Column("run_since_change", Float, nullable=True),
+    Column("run_read_on", Date, nullable=True),
     PrimaryKeyConstraint("unit_id", "seq", name=conv("pk_filter_positions")),
     ForeignKeyConstraint(["unit_id"], ["units.id"], ondelete="CASCADE", name=conv("fk_filter_positions_unit_id_units")),
     CheckConstraint("change_interval > 0", name=conv("ck_filter_positions_change_interval")),
     CheckConstraint("duty_hours_per_day >= 0 AND duty_hours_per_day <= 24", name=conv("ck_filter_positions_duty")),
     CheckConstraint("elements >= 1", name=conv("ck_filter_positions_elements")),
+    CheckConstraint("run_since_change IS NULL OR run_since_change >= 0", name=conv("ck_filter_positions_run_since_change")),
 )
 
 HOSES = Table(

@@ -166,6 +166,7 @@ class FilterPositionRow(SQLModel, table=True):
         CheckConstraint("elements >= 1", name="elements"),
         CheckConstraint("change_interval > 0", name="change_interval"),
         CheckConstraint("duty_hours_per_day >= 0 AND duty_hours_per_day <= 24", name="duty"),
+        CheckConstraint("run_since_change IS NULL OR run_since_change >= 0", name="run_since_change"),
     )
 
     unit_id: int = Field(sa_column=_unit_fk())
@@ -175,6 +176,24 @@ class FilterPositionRow(SQLModel, table=True):
     change_interval: float
     duty_hours_per_day: float = 24.0
     element_ref: Optional[str] = None
+    # s run since the element was changed, and the day read, as the particulars state them (revision 0008)
+    run_since_change: Optional[float] = None
+    run_read_on: Optional[dt.date] = None
+
+
+class FilterCountRow(SQLModel, table=True):
+    """Running time since the last change of a filter position, as a count on board read it
+    (revision 0008). Keyed by the vessel, the unit's id in the particulars and the position, so it
+    outlives loading the particulars again; the newer of it and the particulars' figure is used."""
+
+    __tablename__ = "filter_counts"
+    __table_args__ = (CheckConstraint("run_since_change >= 0", name="run_since_change"),)
+
+    vessel_id: str = Field(foreign_key="vessels.id", ondelete="CASCADE", primary_key=True)
+    unit_ref: str = Field(primary_key=True)
+    position: str = Field(primary_key=True)
+    run_since_change: float
+    counted_on: dt.date
 
 
 class PipeRow(SQLModel, table=True):

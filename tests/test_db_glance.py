@@ -96,7 +96,7 @@ def test_every_command_takes_the_id_in_any_letter_case(fleet, tmp_path):
     count.write_text(f"part_key,quantity\n{filter_key(fleet)},1\n")
     imported = run("stock", "import", count, "--vessel", "test-one", "--db", fleet)
     assert imported.output == "TEST-ONE: 1 stock row(s) written (count)\n"
-    assert run("template", "stock", tmp_path / "t.csv", "--vessel", "test-two", "--db", fleet).exit_code == 0
+    assert run("template", "stock", tmp_path / "t.csv", "--vessel", "test-two", "--days", "60", "--db", fleet).exit_code == 0
     policy = run("policy", "set", "--vessel", "test-two", "--name", "own", "--days", "60", "--from", "2025-01-01", "--db", fleet)
     assert policy.exit_code == 0, policy.output
     shown = run("policy", "show", "--vessel", "Test-Two", "--db", fleet)

@@ -9,7 +9,7 @@ import datetime as dt
 import pytest
 from alembic.autogenerate import compare_metadata
 from alembic.runtime.migration import MigrationContext
-from sqlalchemy import MetaData, delete, insert, text, update
+from sqlalchemy import MetaData, delete, insert, select, text, update
 from sqlalchemy.exc import IntegrityError
 
 from catalog_schema import core_tables
@@ -198,6 +198,17 @@ def test_upgrade_from_first_revision_keeps_every_row(db_url):
         for name in ("actuators", "power_units", "filter_positions", "rudders"):
             table = SQLModel.metadata.tables[name]
             assert conn.execute(table.select().where(table.c.unit_id == 7)).all() == [], name
+    # Revision 0008: running hours since a filter change are never negative, in the particulars or a count.
+    counts = SQLModel.metadata.tables["filter_counts"]
+    with pytest.raises(IntegrityError):
+        with eng.begin() as conn:
+            conn.execute(insert(counts).values(vessel_id="V1", unit_ref="SG1", position="return", run_since_change=-1.0,
+                                               counted_on=dt.date(2026, 1, 1)))
+    with pytest.raises(IntegrityError):
+        with eng.begin() as conn:
+            unit = conn.execute(select(UnitRow.__table__.c.id)).scalars().first()
+            conn.execute(insert(SQLModel.metadata.tables["filter_positions"]).values(
+                unit_id=unit, seq=99, position="return", elements=1, change_interval=7.2e6, run_since_change=-1.0))
     eng.dispose()
 
 

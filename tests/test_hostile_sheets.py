@@ -73,8 +73,9 @@ def test_wrong_sheet(fleet, tmp_path):
 
 def test_wrong_columns(fleet, tmp_path):
     path = book(tmp_path / "s.xlsx", {"stock": [["part_key", "qty"], ["x", 1]]})
+    # issue 14: the count sheet's columns are known too
     refused(fleet, path, f"{path}, sheet stock: column qty: expected one of part_key, designation, location, quantity, "
-                         "counted_on (got an unknown column)")
+                         "counted_on, uom, needed, on_board, as_of, counted, vessel (got an unknown column)")
 
 
 def test_text_where_a_quantity_belongs(fleet, tmp_path):

@@ -154,7 +154,7 @@ def test_stored_control_characters_are_neutralised_by_every_writer(fleet):
     assert all(not RAW.search(line.replace("\t", "", 1)) for line in listed.stdout.splitlines())
     assert all(line.endswith("\ufffd\ufffd\ufffd[2J\ufffd\ufffd[/b]") for line in listed.stdout.splitlines())
 
-    template = fleet.kit("template", "stock", out / "t.xlsx", "--vessel", "TEST-ONE")
+    template = fleet.kit("template", "stock", out / "t.xlsx", "--vessel", "TEST-ONE", "--days", "90")
     assert template.exit_code == 0 and not raw_in_xml(out / "t.xlsx")
-    template = fleet.kit("template", "stock", out / "t.csv", "--vessel", "TEST-ONE")
+    template = fleet.kit("template", "stock", out / "t.csv", "--vessel", "TEST-ONE", "--days", "90")
     assert template.exit_code == 0 and not RAW.search((out / "t.csv").read_text(encoding="utf-8").replace("\n", ""))

@@ -33,6 +33,7 @@ OPTIONS = {
     "bom": {"days": "--days"},
     "check": {"days": "--days"},
     "enquiry write": {"days": "--days"},
+    "template stock": {"days": "--days"},
     "purchasing set": {"base currency or handling days": "--base-currency/--handling-days",
                        "base currency": "--base-currency", "handling days": "--handling-days"},
     "rates set": {"currency": "CURRENCY", "rate": "RATE", "date set": "--on", "source": "--source"},

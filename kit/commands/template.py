@@ -6,7 +6,7 @@ from __future__ import annotations
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import db_option, reports_errors
+from kit.commands.common import Days, db_option, default_days, reports_errors
 
 
 @click.group(epilog=SAFETY)
@@ -40,18 +40,29 @@ def particulars(out: str, from_toml: str | None) -> None:
 
 @template.command("stock", epilog=SAFETY)
 @click.argument("out", type=click.Path(path_type=str))
-@click.option("--vessel", help="Fill in this vessel's stock as the database holds it.")
+@click.option("--vessel", help="Write this vessel's count sheet: its own parts, with what the database holds.")
+@click.option("--days", type=Days(), help="Length of the voyage, in days (with --vessel; default the days of cover of the "
+              "vessel's spares policy in force, as for kit check).")
 @db_option()
-def stock_(engine, out: str, vessel: str | None) -> None:
-    """Write the stock sheet OUT (.xlsx or .csv): one row per generic part in the database.
+def stock_(engine, out: str, vessel: str | None, days: float | None) -> None:
+    """Write the stock sheet OUT (.xlsx or .csv).
 
-    Example: kit template stock corvina_count.xlsx --vessel CORVINA-BAY
+    With --vessel: that vessel's count sheet, for the chief engineer's count on board: each
+    part it keeps (register them first: kit parts register) with its unit of measure, location,
+    what a voyage of --days needs, what the database last had, and an empty column counted; a
+    sheet filter_hours for the running hours since each filter change; printed on A4 with the
+    vessel, date and page numbers. It names the vessel, and `kit stock import` refuses it for
+    another. Without --vessel: one row per generic part in the database.
+
+    Example: kit template stock corvina_count.xlsx --vessel CORVINA-BAY --days 60
     """
     from kit.files.output_targets import check_outputs
     from kit.services.templates import write_stock_template
 
     check_outputs({"OUT": out})
-    rows = write_stock_template(engine, out, vessel)
+    if vessel is not None:
+        days = default_days(engine, days, [vessel])  # the voyage's days, as kit check takes them
+    rows = write_stock_template(engine, out, vessel, days)
     click.echo(f"wrote {out} ({rows} part row(s))")
 
 

@@ -10,6 +10,7 @@ All values in the dataclasses are SI floats: m, Pa, m^3/s, m^3, s, rad.
 
 from __future__ import annotations
 
+import datetime as dt
 import math
 from dataclasses import dataclass, replace
 from typing import Any
@@ -33,6 +34,7 @@ MAX_DIAMETER_M = 2.0
 MAX_HOUSING_BORE_M = 6.0
 MAX_STROKE_M = 5.0
 MAX_PRESSURE_PA = 700e5
+MAX_FILTER_RUN_S = 100_000 * 3600.0  # running hours since a filter change: over 11 years at 24 h a day
 MAX_RUDDER_ANGLE_RAD = math.radians(70)
 MIN_PUMP_FLOW_M3_S = 0.1e-3 / 60  # 0.1 L/min: below it a figure is a typing error, and a swing time unbounded
 MAX_GROSS_TONNAGE = 1_000_000
@@ -95,6 +97,8 @@ class FilterPosition:
     change_interval: float  # s
     duty_hours_per_day: float = 24.0
     element_ref: str | None = None
+    run_since_change: float | None = None  # s the element in place has run since it was changed; None: not known
+    run_read_on: dt.date | None = None  # the day that figure was read; None: not stated
 
 
 @dataclass(frozen=True)
@@ -445,9 +449,32 @@ def _filter(r: _Reader) -> FilterPosition:
         change_interval=r.quantity("change_interval", "time"),
         duty_hours_per_day=duty,
         element_ref=r.text("element", None),
+        run_since_change=r.quantity("hours_since_change", "time", None, positive=False,
+                                    maximum=MAX_FILTER_RUN_S, max_text=f"{MAX_FILTER_RUN_S / 3600:,.0f} h"),
+        run_read_on=_read_on(r, "hours_read_on"),
     )
+    if f.run_read_on is not None and f.run_since_change is None:
+        raise InputError(r.source, r._name("hours_since_change"), "the running hours the date hours_read_on is for",
+                         got="a date without hours")
     r.finish()
     return f
+
+
+def _read_on(r: _Reader, key: str) -> dt.date | None:
+    """A date (TOML date, a workbook's date cell or YYYY-MM-DD), not after today."""
+    value = r.raw(key, None)
+    if value is None:
+        return None
+    day = value.date() if isinstance(value, dt.datetime) else value
+    if isinstance(day, str):
+        try:
+            day = dt.date.fromisoformat(day.strip()) if len(day.strip()) == 10 else None
+        except ValueError:
+            day = None
+    if not isinstance(day, dt.date) or day > dt.date.today():
+        raise InputError(r.source, r._name(key), f"a date, YYYY-MM-DD, not after today ({dt.date.today().isoformat()})",
+                         got=repr(value))
+    return day
 
 
 def _duty(r: _Reader) -> float:

@@ -8,6 +8,7 @@ dimensional, so any seal supplier can quote them.
 
 from __future__ import annotations
 
+import datetime as dt
 import math
 from collections import defaultdict
 from dataclasses import dataclass, field
@@ -190,7 +191,7 @@ def storage_rule(c: oil.Charge) -> solas.RuleResult:
     return solas.RuleResult("SOLAS II-1/29.12.3", "met", text)
 
 
-def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> UnitResult:
+def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy, start: dt.date | None = None) -> UnitResult:
     checks = check_unit(unit, vessel, policy)
     kit = build_seal_kit(unit, policy.housing_length)
     seal_item = policy.item("seal_set")
@@ -217,8 +218,9 @@ def assess_unit(unit: Unit, vessel: Vessel, days: float, policy: Policy) -> Unit
 
     needs = []
     for f in unit.filters:
-        changes = filters.changes_due(days, f.duty_hours_per_day, f.change_interval)
-        total = filters.elements_needed(f.elements, days, f.duty_hours_per_day, f.change_interval, policy.spare_filter_sets)
+        run = filters.run_at_start(f.run_since_change, f.run_read_on, start, f.duty_hours_per_day)
+        changes = filters.changes_due(days, f.duty_hours_per_day, f.change_interval, run)
+        total = filters.elements_needed(f.elements, days, f.duty_hours_per_day, f.change_interval, policy.spare_filter_sets, run)
         needs.append(FilterNeed(f.position, f.elements, changes, policy.spare_filter_sets, total, f.element_ref))
         # An element by its reference is one part wherever it is fitted; without one, it is this unit's.
         ref = f", element {f.element_ref}" if f.element_ref else f", {unit.service} unit {unit.id}, vessel {vessel.id}"
@@ -238,9 +240,26 @@ def oil_plans(units: list[UnitResult], policy: Policy) -> dict[Fluid, PackagePla
     return {f: oil.plan_packages(v, list(policy.packages)) for f, v in need.items()}
 
 
-def assess_vessel(vessel: Vessel, days: float, policy: Policy) -> VesselResult:
-    """Everything kit works out for ``vessel`` over ``days`` under ``policy``."""
+def assess_vessel(vessel: Vessel, days: float, policy: Policy, start: dt.date | None = None) -> VesselResult:
+    """Everything kit works out for ``vessel`` over ``days`` from ``start`` (the day filter
+    running hours are brought forward to; None: taken as read) under ``policy``."""
     if days < 0:
         raise ValueError("days must not be negative")
-    units = [assess_unit(u, vessel, days, policy) for u in vessel.units]
+    units = [assess_unit(u, vessel, days, policy, start) for u in vessel.units]
     return VesselResult(vessel, days, policy, units, oil_plans(units, policy))
+
+
+def kept_parts(result: VesselResult) -> list[LineItem]:
+    """The line items of every part the vessel keeps, for registering them: the result's lines,
+    and the oil of each unit whose fluid has no line (a unit only topped up, worked out over a
+    period without leakage), so a count of that oil has a part to go to."""
+    lines = list(result.lines)
+    keys = {li.key for li in lines}
+    for u in result.units:
+        fluid = str(u.unit.fluid)
+        key = part_key("oil", {}, fluid)
+        if key not in keys:
+            keys.add(key)
+            lines.append(LineItem(u.unit.id, "oil", "kept", _designation("oil", fluid=fluid), "ISO 6743-4, ISO 3448",
+                                  0.0, "L", "oil the unit keeps", key))
+    return lines

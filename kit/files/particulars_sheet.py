@@ -46,7 +46,7 @@ RUDDER_COLUMNS = {f"rudder_{name}": name for name in
 UNIT_SHEET_COLUMNS = UNIT_COLUMNS + tuple(RUDDER_COLUMNS)
 # sheet -> (the unit's array of tables in TOML, columns after ``unit``)
 CHILD_SHEETS = {
-    "filters": ("filter", ("position", "elements", "change_interval", "duty", "element")),
+    "filters": ("filter", ("position", "elements", "change_interval", "duty", "element", "hours_since_change", "hours_read_on")),
     "pipes": ("pipe", ("outside_diameter", "wall", "length")),
     "housings": ("housing", ("role", "d", "D", "L")),
     "solenoids": ("solenoid", ("voltage", "count")),
@@ -71,6 +71,8 @@ NOTES = {
     "unit": "the id of the unit on the units sheet",
     "change_interval": 'e.g. "2000 h"',
     "duty": 'hours a day the filter sees flow, 0 to 24, e.g. "12 h/day" or 12',
+    "hours_since_change": 'optional: running hours of the element in place since it was changed, e.g. "1200 h"',
+    "hours_read_on": "optional: the date those hours were read, YYYY-MM-DD (a count on board that is newer wins)",
     "rudder_carrier": "separate, or in_actuator (a rotary vane actuator carrying the rudder)",
     "rudder_area": 'the rudder\'s [unit.rudder] table, e.g. "12.5 m^2"; leave the rudder_ columns empty for none',
     "rudder_profile": ", ".join(PROFILE_K2),

@@ -303,6 +303,17 @@ def read_table(path: str | Path, sheet: str, *, known: Sequence[str] | None = No
         wb.close()
 
 
+def sheet_names(path: str | Path) -> list[str]:
+    """The names of a workbook's sheets, the workbook checked as :func:`read_table` checks it."""
+    path = Path(path)
+    check_input(path, SHEET_XLSX)
+    wb = _open_workbook(path)
+    try:
+        return list(wb.sheetnames)
+    finally:
+        wb.close()
+
+
 def read_sheets(path: str | Path) -> dict[str, list[tuple[int, Sequence[Any]]]]:
     """Every sheet of a workbook as raw (row number, cells) lists, for multi-sheet templates."""
     path = Path(path)

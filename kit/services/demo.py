@@ -2,14 +2,16 @@
 """The demo: a throwaway fleet database built from ``demo_fleet/``, with invented stock and an
 invented supplier catalogues (oil in several packs), then the fleet's bill of materials and one vessel's pre-voyage check.
 
-Everything goes through the services a user's commands call (particulars, parts, catalogue CSV,
-stock CSV, the order, the check), so the demo exercises the real paths. The stock and the catalogue are invented here by a
+Everything goes through the services a user's commands call (particulars, parts register,
+catalogue CSV, each vessel's count sheet written, filled in and imported, the order, the check),
+so the demo exercises the real paths: the documented order of a real fleet's set-up. The stock and the catalogue are invented here by a
 fixed rule so the demo is the same every run: most parts fully on board, some short, filter
 elements and oil below what a long voyage needs.
 """
 
 from __future__ import annotations
 
+import datetime as dt
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -33,21 +35,23 @@ def demo_fleet_folder() -> Path:
     return Path(__file__).resolve().parents[2] / "demo_fleet"
 
 
-def _invented_stock(lines, index_seed: int) -> list[dict]:
-    rows = []
+def _invented_count(lines, index_seed: int) -> dict[str, float]:
+    """What the chief engineer counts, by part key; a part left out is not counted (none on board)."""
+    counted = {}
     for i, line in enumerate(sorted({li.key: li for li in lines}.values(), key=lambda li: li.key)):
         need = sum(li.quantity for li in lines if li.key == line.key)
         if line.kind == "oil":
-            qty = round(need * 0.6)
+            counted[line.key] = round(need * 0.6)
         elif line.kind == "filter_element":
-            qty = max(0, int(need) - 2)
-        elif (i + index_seed) % 5 == 0:
-            qty = 0
-        else:
-            qty = need
-        rows.append({"part_key": line.key, "designation": line.designation, "location": "steering gear room",
-                     "quantity": qty, "counted_on": "2026-11-15"})
-    return rows
+            counted[line.key] = max(0, int(need) - 2)
+        elif (i + index_seed) % 5 != 0:
+            counted[line.key] = need
+    return counted
+
+
+def _invented_hours(vessel) -> dict[tuple[str, str], float]:
+    """Running hours since the last change read at each filter: half the change interval."""
+    return {(u.id, f.position): round(f.change_interval / 3600 / 2) for u in vessel.units for f in u.filters}
 
 
 # Oil packs of the invented suppliers: (pack, price per pack in EUR, lead time in days).
@@ -96,6 +100,8 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     from kit.services.orders import build_order, check_voyage
     from kit.files.check_workbook import write_check_workbook
     from kit.files.policy_file import load_policy
+    from kit.files.stock_sheet import fill_count
+    from kit.services.templates import write_stock_template
     from kit.files.workbook import write_workbook
 
     check_demo_folder(out)  # before any work
@@ -111,15 +117,17 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
         policy = load_policy()
         results = {v.id: assess_vessel(v, days, policy) for v in vessels}  # what the invented files are made from
         all_lines = [li for r in results.values() for li in r.lines]
-        register_parts(engine, days=days)
+        register_parts(engine, days=days)  # as `kit parts register`: every part each vessel keeps
         for n, supplier in enumerate(DEMO_OIL_PACKS):
             catalogue_csv = out / "imports" / ("catalogue.csv" if n == 0 else f"catalogue-{n + 1}.csv")
             _write_csv(catalogue_csv, _invented_catalogue(all_lines, supplier))
             import_catalogue(engine, catalogue_csv, supplier)
-        for i, v in enumerate(vessels):
-            stock_csv = out / "imports" / f"stock-{v.id.lower()}.csv"
-            _write_csv(stock_csv, _invented_stock(results[v.id].lines, i))
-            import_stock(engine, stock_csv, v.id)
+        for i, v in enumerate(vessels):  # the chief engineer's count: template, count, import
+            sheet = out / "imports" / f"count-{v.id.lower()}.xlsx"
+            write_stock_template(engine, sheet, v.id, days)
+            fill_count(sheet, _invented_count(results[v.id].lines, i), _invented_hours(v), "steering gear room",
+                       dt.date(2026, 11, 15))
+            import_stock(engine, sheet, None)
         order, _ = build_order(engine, (), days)
         ids = order.vessel_ids
         workbook = write_workbook(order, out / "fleet-bom.xlsx", days, f"whole fleet, {len(ids)} vessels")

@@ -42,8 +42,10 @@ def work_out(path: str | Path, days: float, policy_file: str | None = None):
     from kit.engine.requirements import assess_vessel
     from kit.files.policy_file import load_policy
 
+    import datetime as dt
+
     vessel = load_vessel(path)
-    return assess_vessel(vessel, days, load_policy(policy_file))
+    return assess_vessel(vessel, days, load_policy(policy_file), dt.date.today())
 
 
 @dataclass(frozen=True)
@@ -55,14 +57,16 @@ class PartsRegistered:
 
 def register_parts(engine: Engine, vessel_ids=(), policy_file: str | None = None,
                    progress: Progress = no_progress, days: float = 0.0) -> PartsRegistered:
-    """Work out the vessels (all, or ``vessel_ids``) over ``days`` and add their generic parts in
-    one transaction (a part needed only over a period, such as a top-up oil, needs ``days``)."""
+    """Work out the vessels (all, or ``vessel_ids``) over ``days`` and add the generic part of
+    everything they keep in one transaction (:func:`kit.engine.requirements.kept_parts`: the
+    oil of a unit that is only topped up too, whatever ``days``)."""
     from catalog_schema.engine import write_transaction
+    from kit.engine.requirements import kept_parts
     from kit.store.parts_store import register_parts as add_parts
     from kit.services.orders import assess_all, read_fleet
 
     vessels, policies = read_fleet(engine, vessel_ids, policy_file)
-    items = [line for r in assess_all(vessels, days, policies, progress) for line in r.lines]
+    items = [line for r in assess_all(vessels, days, policies, progress) for line in kept_parts(r)]
     done = write_transaction(engine, lambda conn: add_parts(conn, items))
     return PartsRegistered(len(vessels), done.parts, done.entries_matched)
 

@@ -33,9 +33,11 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
     return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
 
 
-def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "count", decimal: str | None = None):
-    """Write the stock rows of ``path`` for ``vessel_id`` (any letter case; ``mode`` "count" or "adjust"): a
-    :class:`kit.store.stock_import.StockReport`."""
+def import_stock(engine: Engine, path: str | Path, vessel_id: str | None, mode: str = "count", decimal: str | None = None):
+    """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
+    :class:`kit.store.stock_import.StockReport`. The vessel id in any letter case. A file made for one vessel (its column
+    ``vessel``) is refused for another; ``vessel_id`` None takes the file's, and a file that
+    names none then is refused. Rows left blank are not counted and are reported."""
     from catalog_schema.engine import write_transaction
     from kit.files.stock_sheet import MODES, read_stock
     from kit.store.stock_import import write_stock
@@ -45,4 +47,11 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str, mode: str = "
     from kit.store.vessel_ids import resolve_vessel_id
 
     stock = read_stock(path, mode, decimal)
-    return write_transaction(engine, lambda conn: write_stock(conn, stock, resolve_vessel_id(conn, vessel_id)))
+    if vessel_id is None:
+        if stock.vessel is None:
+            raise ArgumentError(str(path), "vessel id", "the vessel's id: the file names none (a vessel's own "
+                                "count sheet does), so give it", got="none")
+        vessel_id = stock.vessel
+    stock.refuse_other_vessel(vessel_id)  # before the database is opened
+    chosen = vessel_id
+    return write_transaction(engine, lambda conn: write_stock(conn, stock, resolve_vessel_id(conn, chosen)))

@@ -19,10 +19,11 @@ from kit.services import Progress, no_progress
 
 
 def assess_all(vessels: list, days: float, policies: Mapping, progress: Progress = no_progress) -> list:
-    """Each vessel over ``days`` under its policy in ``policies`` (by vessel id)."""
+    """Each vessel over ``days`` from today under its policy in ``policies`` (by vessel id)."""
     from kit.engine.requirements import assess_vessel
 
-    return [assess_vessel(v, days, policies[v.id]) for v in progress(vessels, "working out requirements")]
+    today = dt.date.today()
+    return [assess_vessel(v, days, policies[v.id], today) for v in progress(vessels, "working out requirements")]
 
 
 def _vessels(conn: Connection, vessel_ids: list[str], database: str) -> list:
@@ -116,7 +117,7 @@ def check_voyage(engine: Engine, vessel_id: str, days: float, policy_file: str |
     from kit.engine.requirements import assess_vessel
 
     (vessel,), policies = read_fleet(engine, [vessel_id], policy_file)
-    result = assess_vessel(vessel, days, policies[vessel.id])
+    result = assess_vessel(vessel, days, policies[vessel.id], dt.date.today())
     on_board, offers, purchasing = _order_sources(engine, [vessel.id], {li.key for li in result.lines})
     full = vessel_order(result, on_board, offers, purchasing)
     return VoyageCheck(vessel, days, shortfall_of(full), full)

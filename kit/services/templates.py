@@ -15,9 +15,18 @@ def write_particulars_template(out: str | Path, from_toml: str | Path | None = N
     write(out, from_toml)
 
 
-def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = None) -> int:
-    """The stock sheet ``out`` (.xlsx or .csv): one row per generic part, with ``vessel``'s stock
-    filled in; return how many part rows it has."""
+def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = None, days: float | None = None) -> int:
+    """The stock sheet ``out`` (.xlsx or .csv); return how many part rows it has.
+
+    With ``vessel``: its count sheet (:func:`count_sheet`, ``days`` the voyage). Without: one row
+    per generic part in the database, for an import that names the vessel."""
+    if vessel is not None:
+        from kit.files.stock_sheet import write_count_sheet
+        from kit.safety import SAFETY
+
+        count = count_sheet(engine, vessel, 0.0 if days is None else days)
+        write_count_sheet(out, count, SAFETY)
+        return len(count.lines)
     from kit.files.sheets import write_sheet
     from kit.files.stock_sheet import stock_sheet
     from kit.store.stock_import import stock_rows
@@ -28,6 +37,53 @@ def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = N
         sheet = stock_sheet(stock_rows(conn, vessel and resolve_vessel_id(conn, vessel)))
     write_sheet(out, sheet)
     return len(sheet.rows)
+
+
+def count_sheet(engine: Engine, vessel_id: str, days: float):
+    """What a count on board of ``vessel_id`` lists (:class:`kit.files.stock_sheet.CountSheet`):
+    every part the vessel keeps under its policy in force (:func:`kit.engine.requirements.kept_parts`,
+    each registered) with what a voyage of ``days`` needs, and every part it has in stock, at each
+    location; and its filter positions with the running hours last recorded."""
+    import datetime as dt
+
+    from kit.engine.requirements import assess_vessel, kept_parts
+    from kit.errors import InputError
+    from kit.files.stock_sheet import CountLine, CountSheet, FilterLine
+    from kit.services.orders import read_fleet
+    from kit.store.stock_import import registered_parts, vessel_stock
+
+    today = dt.date.today()
+    (vessel,), policies = read_fleet(engine, [vessel_id], None)
+    lines = kept_parts(assess_vessel(vessel, days, policies[vessel.id], today))
+    needed: dict[str, float] = {}
+    uom: dict[str, str] = {}
+    for li in lines:
+        needed[li.key] = needed.get(li.key, 0.0) + li.quantity
+        uom.setdefault(li.key, li.uom)
+    with engine.connect() as conn:
+        known = registered_parts(conn, list(needed))
+        held = vessel_stock(conn, vessel.id)
+    missing = sorted(set(needed) - set(known))
+    if missing:
+        raise InputError(f"vessel {vessel.id}", "parts", "every part the vessel keeps registered (kit parts register)",
+                         got=f"{len(missing)} not registered, e.g. {missing[0]!r}")
+    parts = dict(known)
+    parts.update({r.key: (r.kind, r.designation) for r in held})
+    at: dict[str, list] = {}
+    for r in held:
+        at.setdefault(r.key, []).append(r)
+    rows = []
+    for key in sorted(parts, key=lambda k: (parts[k][0], parts[k][1], k)):
+        kind, designation = parts[key]
+        unit = uom.get(key, "L" if kind == "oil" else "pcs")
+        need = needed.get(key)
+        for n, r in enumerate(at.get(key, [None])):
+            rows.append(CountLine(key, designation, unit, None if r is None else r.location, need if n == 0 else None,
+                                  None if r is None else r.quantity, None if r is None else r.counted_on))
+    filters = [FilterLine(u.id, f.position, f.element_ref or "", f.change_interval / 3600,
+                          None if f.run_since_change is None else f.run_since_change / 3600, f.run_read_on)
+               for u in vessel.units for f in u.filters]
+    return CountSheet(vessel.id, vessel.name, days, today, rows, filters)
 
 
 def write_catalogue_template(out: str | Path) -> None:

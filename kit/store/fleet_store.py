@@ -9,6 +9,7 @@ dropped from the file is dropped from the database, and stock of the vessel is l
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Iterable
 
 from sqlalchemy import bindparam, delete, insert, select, update
@@ -17,6 +18,7 @@ from sqlalchemy.engine import Connection
 from catalog_schema.core_tables import (
     ACTUATORS,
     COMPANIES,
+    FILTER_COUNTS,
     FILTER_POSITIONS,
     HOSES,
     PIPES,
@@ -50,8 +52,10 @@ from kit.engine.rudder import Rudder
 _CHILDREN = {
     "filters": (FILTER_POSITIONS, lambda u: [
         {"position": f.position, "elements": f.elements, "change_interval": f.change_interval,
-         "duty_hours_per_day": f.duty_hours_per_day, "element_ref": f.element_ref} for f in u.filters],
-        lambda r: FilterPosition(r.position, r.elements, r.change_interval, r.duty_hours_per_day, r.element_ref)),
+         "duty_hours_per_day": f.duty_hours_per_day, "element_ref": f.element_ref,
+         "run_since_change": f.run_since_change, "run_read_on": f.run_read_on} for f in u.filters],
+        lambda r: FilterPosition(r.position, r.elements, r.change_interval, r.duty_hours_per_day, r.element_ref,
+                                 r.run_since_change, r.run_read_on)),
     "pipes": (PIPES, lambda u: [{"outside_diameter": p.outside_diameter, "wall": p.wall, "length": p.length} for p in u.pipes],
               lambda r: Pipe(r.outside_diameter, r.wall, r.length)),
     "housings": (STATED_HOUSINGS, lambda u: [{"role": h.role, "d_inner": h.d, "d_outer": h.D, "length": h.L} for h in u.housings],
@@ -186,6 +190,42 @@ def _located(conn: Connection, table, rows: list[tuple[str, dict]], statement, f
             lambda i: rows[i][0], fields)
 
 
+def filter_counts(conn: Connection, vessel_ids: list[str] | None) -> dict[tuple[str, str, str], tuple[float, object]]:
+    """(vessel, unit, position) -> (running time since the change in s, the day counted), as
+    counts on board recorded them (all vessels, or those of ``vessel_ids``)."""
+    query = select(FILTER_COUNTS)
+    found = {}
+    for chunk in ([None] if vessel_ids is None else in_batches(conn, vessel_ids)):
+        rows = conn.execute(query if chunk is None else query.where(FILTER_COUNTS.c.vessel_id.in_(chunk)))
+        found.update({(r.vessel_id, r.unit_ref, r.position): (r.run_since_change, r.counted_on) for r in rows})
+    return found
+
+
+def _newer_count(f: FilterPosition, count: tuple | None) -> FilterPosition:
+    """``f`` with the count's running time when the count is newer than the particulars' figure
+    (or the particulars give none, or give it undated)."""
+    if count is None:
+        return f
+    run, day = count
+    if f.run_since_change is not None and f.run_read_on is not None and f.run_read_on >= day:
+        return f
+    return replace(f, run_since_change=run, run_read_on=day)
+
+
+def save_filter_counts(conn: Connection, vessel_id: str, counts: list[tuple[str, str, float, object]]) -> None:
+    """Record (unit, position, running time since the change in s, day counted) of ``vessel_id``,
+    replacing an older count of the same position (a count older than the one recorded is kept out)."""
+    rows = [{"vessel_id": vessel_id, "unit_ref": unit, "position": position, "run_since_change": run, "counted_on": day}
+            for unit, position, run, day in counts]
+    if not rows:
+        return
+    held = filter_counts(conn, [vessel_id])
+    newer = [r for r in rows if (k := (vessel_id, r["unit_ref"], r["position"])) not in held or held[k][1] <= r["counted_on"]]
+    if newer:
+        conn.execute(upsert(conn, FILTER_COUNTS, ["vessel_id", "unit_ref", "position"], update=["run_since_change", "counted_on"]),
+                     newer)
+
+
 def _geometry(actuator: str, g) -> RamGeometry | CylinderGeometry | VaneGeometry:
     if actuator == "ram":
         return RamGeometry(g.ram_diameter, g.stroke, g.tiller_radius, g.gland_spigot_bore)
@@ -221,6 +261,7 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
 
     geometry, power, rudders = by_unit(ACTUATORS), by_unit(POWER_UNITS), by_unit(RUDDERS)
     children = {name: (by_unit(table), back) for name, (table, _, back) in _CHILDREN.items()}
+    counts = filter_counts(conn, None if ids is None else [v.id for v in vessel_rows])
     units_of: dict[str, list[Unit]] = {}
     for u in unit_rows:
         p = power[u.id][0]
@@ -235,5 +276,9 @@ def read_vessels(conn: Connection, ids: Iterable[str] | None = None) -> list[Ves
             maker=u.maker, model=u.model, pump_maker=p.pump_maker, valve_maker=p.valve_maker, valve_model=p.valve_model,
             **{name: tuple(back(r) for r in rows.get(u.id, [])) for name, (rows, back) in children.items()},
         ))
+        last = units_of[u.vessel_id][-1]
+        if last.filters and counts:
+            units_of[u.vessel_id][-1] = replace(last, filters=tuple(
+                _newer_count(f, counts.get((u.vessel_id, u.ref, f.position))) for f in last.filters))
     return [Vessel(v.id, v.name, v.ship_type, v.gross_tonnage, tuple(units_of.get(v.id, ())), v.company, v.source or "")
             for v in vessel_rows]

@@ -14,11 +14,11 @@ from dataclasses import dataclass
 from sqlalchemy import and_, bindparam, or_, select, update
 from sqlalchemy.engine import Connection
 
-from catalog_schema.core_tables import PARTS, STOCK
+from catalog_schema.core_tables import FILTER_POSITIONS, PARTS, STOCK, UNITS
 from catalog_schema.refusals import located
 from catalog_schema.sql import upsert
 from kit.files.stock_sheet import StockFile
-from kit.store.fleet_store import vessel_company
+from kit.store.fleet_store import save_filter_counts, vessel_company
 
 
 @dataclass(frozen=True)
@@ -26,12 +26,27 @@ class StockReport:
     vessel: str
     mode: str
     rows: int
+    not_counted: tuple[str, ...] = ()  # the rows left blank: "row N: designation" (or the key)
+    filter_hours: int = 0  # filter positions whose running hours were recorded
+
+
+def _blank(table, row) -> str:
+    what = row.values.get("designation") or row.values.get("part_key") or row.values.get("position")
+    if row.values.get("unit") is not None and row.values.get("position") is not None and table.sheet != "stock":
+        what = f"unit {row.values['unit']}, {row.values['position']} filter hours"
+    return f"{table.where(row.line)}: {what}"
 
 
 def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockReport:
-    """Write the checked rows for ``vessel_id`` in the caller's transaction."""
+    """Write the checked rows for ``vessel_id`` in the caller's transaction, and a count
+    sheet's filter hours."""
     table, mode, rows = stock.table, stock.mode, stock.rows
     vessel_company(conn, vessel_id)  # the vessel must exist
+    stock.refuse_other_vessel(vessel_id)
+    hours = _filter_hours(conn, stock, vessel_id)
+    blank = tuple(_blank(table, r) for r in stock.not_counted)
+    if stock.filter_table is not None:
+        blank += tuple(_blank(stock.filter_table, r) for r in stock.filters_not_read)
     keys = sorted({key for _, key, _, _, _ in rows})
     known = dict(conn.execute(select(PARTS.c.key, PARTS.c.id).where(PARTS.c.key.in_(keys))).all()) if keys else {}
     entries = []
@@ -51,18 +66,35 @@ def write_stock(conn: Connection, stock: StockFile, vessel_id: str) -> StockRepo
                 lambda i: table.where(chosen[i][0].line), {"vessel_id": "vessel id", "part_id": "part_key"})
 
     if mode == "count":
-        upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
-        return StockReport(vessel_id, mode, len(values))
+        if entries:
+            upsert_located(entries, upsert(conn, STOCK, natural_key, update=["quantity", "counted_on"]))
+        return StockReport(vessel_id, mode, len(values), blank, hours)
     _refuse_negative(conn, table, vessel_id, entries)
     # An issue only changes a row that exists (checked above). It cannot go through
     # INSERT ... ON CONFLICT: both engines check the CHECK on the row proposed for insertion.
     issues = [{"d": v["quantity"], "v": v["vessel_id"], "p": v["part_id"], "l": v["location"]} for v in values if v["quantity"] < 0]
-    upsert_located([(row, v) for row, v in entries if v["quantity"] >= 0], upsert(conn, STOCK, natural_key, add=["quantity"]))
+    receipts = [(row, v) for row, v in entries if v["quantity"] >= 0]
+    if receipts:
+        upsert_located(receipts, upsert(conn, STOCK, natural_key, add=["quantity"]))
     if issues:
         conn.execute(update(STOCK).where(STOCK.c.vessel_id == bindparam("v"), STOCK.c.part_id == bindparam("p"),
                                          STOCK.c.location == bindparam("l"))
                      .values(quantity=STOCK.c.quantity + bindparam("d")), issues)
-    return StockReport(vessel_id, mode, len(values))
+    return StockReport(vessel_id, mode, len(values), blank, hours)
+
+
+def _filter_hours(conn: Connection, stock: StockFile, vessel_id: str) -> int:
+    """Record the count sheet's filter hours, each row naming a filter position of the vessel."""
+    if not stock.filter_hours:
+        return 0
+    query = (select(UNITS.c.ref, FILTER_POSITIONS.c.position).join(FILTER_POSITIONS, FILTER_POSITIONS.c.unit_id == UNITS.c.id)
+             .where(UNITS.c.vessel_id == vessel_id))
+    known = {(r.ref, r.position) for r in conn.execute(query)}
+    for row, unit, position, _, _ in stock.filter_hours:
+        if (unit, position) not in known:
+            raise stock.filter_table.error(row, "position", f"a filter position of unit {unit} in {vessel_id}'s particulars", position)
+    save_filter_counts(conn, vessel_id, [(unit, position, run, day) for _, unit, position, run, day in stock.filter_hours])
+    return len(stock.filter_hours)
 
 
 def _refuse_negative(conn: Connection, table, vessel_id: str, entries: list[tuple]) -> None:
@@ -96,3 +128,24 @@ def stock_rows(conn: Connection, vessel_id: str | None) -> list[list]:
             rows.append([p.key, p.designation, None if s is None else s.location, None if s is None else s.quantity,
                          None if s is None or s.counted_on is None else s.counted_on.isoformat()])
     return rows
+
+
+def vessel_stock(conn: Connection, vessel_id: str) -> list:
+    """The vessel's stock rows with their part: key, kind, designation, location, quantity,
+    counted_on (by location, then part)."""
+    vessel_company(conn, vessel_id)  # the vessel must exist
+    query = (select(PARTS.c.key, PARTS.c.kind, PARTS.c.designation, STOCK.c.location, STOCK.c.quantity, STOCK.c.counted_on)
+             .join(PARTS, PARTS.c.id == STOCK.c.part_id).where(STOCK.c.vessel_id == vessel_id)
+             .order_by(STOCK.c.location, PARTS.c.key))
+    return conn.execute(query).all()
+
+
+def registered_parts(conn: Connection, keys: list[str]) -> dict[str, tuple[str, str]]:
+    """key -> (kind, designation) of those of ``keys`` registered as generic parts."""
+    from catalog_schema.sql import in_batches
+
+    found = {}
+    for chunk in in_batches(conn, sorted(set(keys))):
+        query = select(PARTS.c.key, PARTS.c.kind, PARTS.c.designation).where(PARTS.c.key.in_(chunk))
+        found.update({r.key: (r.kind, r.designation) for r in conn.execute(query)})
+    return found
