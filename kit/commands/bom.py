@@ -44,6 +44,9 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     Ends with the totals (lines, lines to order, the priced lines' total per currency) and the
     warnings that matter: lines to order with no catalogue price and rule checks of the gear not met.
 
+    Sister ships built alike (same units, particulars and spares policy; ids and names aside) are
+    one series: a line all its hulls need alike gives "Per hull" and "Hulls" beside "Required".
+
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
     from kit.commands.terminal import order_summary, progress_bar
