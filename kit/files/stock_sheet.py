@@ -342,7 +342,10 @@ def write_count_sheet(path: str | Path, count: CountSheet, safety: str, paper: s
         from openpyxl import Workbook
         from openpyxl.styles import Alignment, Font
 
+        from kit.files.print_setup import use_font
+
         wb = Workbook()
+        use_font(wb)  # Arial 10: the column widths print as wide wherever the sheet is opened
         wb.remove(wb.active)
         _table_sheet(wb, SHEET, COUNT_COLUMNS, PRINTED, (33, 5.5, 12, 8, 10.5, 10.5, 9.5, 12.5, 30, 14), rows,
                      {1, 3}, {7, 8}, count, "Stock count", paper)

@@ -168,7 +168,9 @@ class _Sheet:
             v = row[i] if i < len(row) else None
             if isinstance(v, str) and v and not isinstance(v, Formula):
                 v = visible(v)
-                lines = max(lines, len(textwrap.wrap(v, max(int(width * WRAP_CHARS) - 1, 1))))
+                # capitals set about a third wider than the mixed text WRAP_CHARS is for
+                wide = 1 + 0.35 * sum(ch.isupper() for ch in v) / len(v)
+                lines = max(lines, len(textwrap.wrap(v, max(int(width * WRAP_CHARS / wide) - 1, 1))))
                 cell = self._wrap_cells[i]
                 cell.value, cell.data_type = v, "s"  # text: never a formula
                 row[i] = cell
@@ -361,10 +363,10 @@ def rule_summary(rules: list) -> str | None:
 # The Gear checks sheet: the verdicts a reader looks for first, the print area (A4 landscape, one
 # page wide); the figures behind them and each rule's own column follow, outside it.
 CHECK_COLUMNS = (
-    ("Vessel", 17, None), ("Unit", 9, None), ("Service", 10, None), ("Actuator", 12, None), ("Swing judged [s]", 9, None),
+    ("Vessel", 17, None), ("Unit", 9, None), ("Service", 12, None), ("Actuator", 12, None), ("Swing judged [s]", 9, None),
     ("Limit [s]", 7, None), ("28 s rule", 8, None), ("Travel within stroke", 9, None), ("Pressure within ratings", 9, None),
     ("Margin over rudder torque [%]", 10, None), ("Auxiliary steering gear required", 12, None),
-    ("SOLAS II-1/29 verdicts", 27, None), ("Warnings", 35, None),
+    ("SOLAS II-1/29 verdicts", 27, None), ("Warnings", 33, None),
     ("Ship type", 10, None), ("Torque midships [kNm]", 12, None), ("Torque at max angle [kNm]", 12, None),
     ("Swing 35-30 one pump [s]", 11, None), ("Swing 35-30 all pumps [s]", 11, None), ("Judged on", 40, None),
     ("Travel [mm]", 10, None), ("Stroke [mm]", 10, None), ("Working pressure [bar]", 11, None), ("Torque basis", 40, None),
