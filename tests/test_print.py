@@ -108,8 +108,8 @@ EXPECTED = {
     "enquiry": ("Enquiry E", 4),
     "count": ("Stock count: Corvina Bay (CORVINA-BAY)", 3),
     "stock": ("Stock sheet (template): sheet stock", 4),
-    "particulars": ("Particulars (template): sheet vessel", 14),
-    "particulars-corvina": ("Particulars of Corvina Bay (CORVINA-BAY): sheet vessel", 14),
+    "particulars": ("Particulars (template): sheet vessel", 15),
+    "particulars-corvina": ("Particulars of Corvina Bay (CORVINA-BAY): sheet vessel", 15),
     "catalogue": ("Catalogue (template): sheet catalogue", 3),
 }
 

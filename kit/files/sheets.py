@@ -442,8 +442,9 @@ def write_sheets(path: str | Path, sheets: Sequence[Sheet], what: str = "Templat
                     if is_risky(cell.value):
                         cell.data_type = "s"  # user text: never a formula
             ws.freeze_panes = "A2"
-            # a heading wraps over at most two lines in a column at least 12 wide
-            widths = [max(12, min(len(name) + 4, math.ceil(len(name) / 2) + 4)) for name in sheet.columns]
+            # a heading wraps between its words only (a name such as isolation_valves is one word,
+            # never cut): the column as wide as its longest word in bold, at least 10
+            widths = [max(10, math.ceil(max(len(w) for w in name.split()) * 1.1) + 2) for name in sheet.columns]
             for i, width in enumerate(widths, start=1):
                 ws.column_dimensions[ws.cell(1, i).column_letter].width = width
             ws.row_dimensions[1].height = 13 * max(len(textwrap.wrap(n, w - 2)) or 1 for n, w in zip(sheet.columns, widths)) + 2
@@ -463,11 +464,11 @@ def write_sheets(path: str | Path, sheets: Sequence[Sheet], what: str = "Templat
                 if is_risky(cell.value):
                     cell.data_type = "s"
                 cell.alignment = wrap
-            lines = max(len(textwrap.wrap(str(visible(note[2])), 88)), len(textwrap.wrap(str(visible(note[1])), 28)), 1)
+            lines = max(len(textwrap.wrap(str(visible(note[2])), 72)), len(textwrap.wrap(str(visible(note[1])), 26)), 1)
             ws.row_dimensions[ws.max_row].height = 13 * lines + 2
         ws.column_dimensions["A"].width = 12
         ws.column_dimensions["B"].width = 24
-        ws.column_dimensions["C"].width = 72
+        ws.column_dimensions["C"].width = 60
         set_print(ws, paper=paper, what=what, scope="notes", day=day, title_rows="1:1", area=f"A1:C{ws.max_row}")
         wb.save(tmp)
 

@@ -45,6 +45,7 @@ BODY_LINE_PT = 13.0  # one line of the 10 pt default font, with its leading
 # Characters of mixed text a wrapped line holds per unit of column width (a width counts the digit
 # 0); Arial sets 1.4 to 1.6 of them (LibreOffice render), and capitals and wide words fewer: 1.1 leaves room.
 WRAP_CHARS = 1.1
+WIDE_CAPITALS = 1.35
 
 # Number formats only on money, which a purchaser reads to the cent; quantities kit rounds itself
 # (and the formulas over them) read as they are in General. A styled cell costs several times a
@@ -161,16 +162,20 @@ class _Sheet:
         return self.rows
 
     def _wrap(self, row: list[Any]) -> None:
-        """Wrap the text of the wrapped columns and make the next row as tall as its longest text
-        (a row does not grow by itself in every spreadsheet program)."""
+        """Wrap the text of the wrapped columns that needs more than one line, and make the next
+        row as tall as its longest text (a row does not grow by itself in every spreadsheet
+        program). Text that fits on a line stays a plain value: a styled cell costs more to write."""
         lines = 1
         for i, width in self.wrapped.items():
             v = row[i] if i < len(row) else None
-            if isinstance(v, str) and v and not isinstance(v, Formula):
-                v = visible(v)
-                # capitals set about a third wider than the mixed text WRAP_CHARS is for
-                wide = 1 + 0.35 * sum(ch.isupper() for ch in v) / len(v)
-                lines = max(lines, len(textwrap.wrap(v, max(int(width * WRAP_CHARS / wide) - 1, 1))))
+            if not isinstance(v, str) or isinstance(v, Formula) or len(v) <= width * WRAP_CHARS / WIDE_CAPITALS - 1:
+                continue
+            v = visible(v)
+            # capitals set up to a third wider than the mixed text WRAP_CHARS is for
+            wide = 1 + (WIDE_CAPITALS - 1) * sum(ch.isupper() for ch in v) / len(v)
+            n = len(textwrap.wrap(v, max(int(width * WRAP_CHARS / wide) - 1, 1)))
+            if n > 1:
+                lines = max(lines, n)
                 cell = self._wrap_cells[i]
                 cell.value, cell.data_type = v, "s"  # text: never a formula
                 row[i] = cell
