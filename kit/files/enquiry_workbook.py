@@ -30,15 +30,16 @@ from kit.safety import SAFETY
 
 COVER = "Enquiry"
 LINES = "Lines"
-# (heading, width, wrapped); the supplier's columns come last.
+# (heading, width, wrapped); the supplier's columns come last. Each width holds its heading's
+# longest word in bold, so a heading is never broken inside a word.
 ASKED_COLUMNS = (
-    ("Line ref", 19, False), ("Designation", 40, True), ("Standard", 14, True), ("Compound", 10, True),
-    ("Service conditions", 14, True), ("Quantity", 8, False), ("UoM", 5, False), ("Pack", 8, False), ("Packs", 6, False),
+    ("Line ref", 19, False), ("Designation", 40, True), ("Standard", 14, True), ("Compound", 11, True),
+    ("Service conditions", 14, True), ("Quantity", 10, False), ("UoM", 5, False), ("Pack", 8, False), ("Packs", 8, False),
     ("Vessels (units)", 18, True), ("Delivery port", 13, True), ("Deliver by", 12, False),
 )
 REPLY_COLUMNS = (
-    ("Your part number", 14, True), ("Unit price (per your pack)", 11, False), ("Currency", 9, False),
-    ("Your pack", 9, False), ("Lead time [days]", 8, False), ("Remarks", 18, True),
+    ("Your part number", 14, True), ("Unit price (per your pack)", 11, False), ("Currency", 11, False),
+    ("Your pack", 9, False), ("Lead time [days]", 9, False), ("Remarks", 18, True),
 )
 COLUMNS = ASKED_COLUMNS + REPLY_COLUMNS
 HEADINGS = tuple(name for name, _, _ in COLUMNS)
@@ -191,9 +192,9 @@ def _lines(wb: Workbook, enquiry: Enquiry, paper: str) -> None:
                 cell.number_format = "@"  # typed as text: a part number "0012" keeps its zeros
         ws.row_dimensions[r].height = _height(values)
     ws.freeze_panes = "B2"
-    # one page wide where the text stays readable, else across pages with the line and designation on each
+    # one page wide where the text stays readable, else across pages with the line reference on each
     fit = fits_width([w for _, w, _ in COLUMNS], paper, landscape=True)
-    _print_setup(ws, enquiry, True, paper, title_rows="1:1", grid=True, fit_width=fit, title_cols=None if fit else "A:B")
+    _print_setup(ws, enquiry, True, paper, title_rows="1:1", grid=True, fit_width=fit, title_cols=None if fit else "A:A")
     _protect(ws)
 
 
