@@ -6,7 +6,7 @@ from __future__ import annotations
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import Days, db_option, default_days
+from kit.commands.common import Days, db_option, default_days, paper_option
 
 
 @click.command(epilog=SAFETY)
@@ -25,8 +25,9 @@ from kit.commands.common import Days, db_option, default_days
               help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
 @click.option("--only-to-order", "to_order_only", is_flag=True,
               help="Leave out the lines with nothing to order (workbook, CSV and JSON).")
+@paper_option
 @db_option(unless="particulars")
-def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file, to_order_only) -> None:
+def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file, to_order_only, paper) -> None:
     """Write the bill of materials: what the vessels need for the period, less what is on board,
     with the same generic part across units and vessels on one line and its split per vessel, oil
     and filter elements rounded to packs over the whole order, and supplier part numbers, prices
@@ -57,7 +58,7 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     check_outputs({"--out": out, "--csv": csv_out, "--json": json_out})
     days = default_days(engine, days, vessel_ids, particulars, policy_file)
     order, scope = build_order(engine, vessel_ids, days, particulars, policy_file, progress_bar, to_order_only)
-    path = write_workbook(order, out, days, scope)
+    path = write_workbook(order, out, days, scope, paper)
     written = [str(path)]
     if csv_out:
         from kit.files.bom_export import write_order_csv

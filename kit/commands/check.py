@@ -8,7 +8,7 @@ import sys
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import Days, db_option, default_days
+from kit.commands.common import Days, db_option, default_days, paper_option
 
 
 @click.command(epilog=SAFETY)
@@ -18,8 +18,9 @@ from kit.commands.common import Days, db_option, default_days
 @click.option("--out", type=click.Path(), help="Also write the check as a workbook (.xlsx): shortfall, oil and filter elements covered.")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML); default the vessel's policy in force in the fleet database.")
+@paper_option
 @db_option()
-def check(engine, vessel_id, days, out, policy_file) -> None:
+def check(engine, vessel_id, days, out, policy_file, paper) -> None:
     """Check VESSEL_ID's on-board stock against what a voyage of --days needs: seals to the spares
     policy, oil for the storage tank and the top-up, filter elements for the changes due.
 
@@ -47,7 +48,7 @@ def check(engine, vessel_id, days, out, policy_file) -> None:
     if out:
         from kit.files.check_workbook import write_check_workbook
 
-        write_check_workbook(check, out)
+        write_check_workbook(check, out, paper=paper)
     words = short_words(short)
     if not words:
         console.print(f"{shown(vessel.name)} ({shown(vessel.id)}): everything a {days:g}-day voyage needs is on board;"

@@ -186,6 +186,13 @@ def decimal_mark_option(func: Callable[..., Any]) -> Callable[..., Any]:
                              "mark is refused, never guessed.")(func)
 
 
+def paper_option(func: Callable[..., Any]) -> Callable[..., Any]:
+    """``--paper a4|letter``: the paper a workbook the command writes prints on (see :mod:`kit.files.print_setup`)."""
+    return click.option("--paper", type=click.Choice(["a4", "letter"], case_sensitive=False), default="a4",
+                        show_default=True, callback=lambda ctx, param, value: value.lower(),
+                        help="The paper the workbook prints on: A4 (ISO 216) or US Letter.")(func)
+
+
 def db_option(migrate: bool = True, unless: str | None = None) -> Callable[[Callable[..., Any]], Callable[..., Any]]:
     """Add ``--db`` (or env var ``KIT_DB``) and hand the command an open ``engine``.
 

@@ -6,7 +6,7 @@ from __future__ import annotations
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import Days, IsoDate, db_option, default_days
+from kit.commands.common import Days, IsoDate, db_option, default_days, paper_option
 
 
 @click.group(epilog=SAFETY)
@@ -27,8 +27,9 @@ def enquiry() -> None:
 @click.option("--reply-by", type=IsoDate(), default=None, help="The day replies are asked by; default 7 days from today.")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
+@paper_option
 @db_option()
-def write(engine, vessel_ids, out, days, reply_by, policy_file) -> None:
+def write(engine, vessel_ids, out, days, reply_by, policy_file, paper) -> None:
     """Write the order as enquiries into folder OUT: one workbook per supplier the order buys from
     (named after the supplier) with only that supplier's lines, and any-supplier.xlsx, an open
     enquiry, for the lines no catalogue offers. Lines with nothing to order are left out.
@@ -48,7 +49,7 @@ def write(engine, vessel_ids, out, days, reply_by, policy_file) -> None:
 
     check_folder(out, "--out")
     days = default_days(engine, days, vessel_ids, None, policy_file)
-    result = write_enquiries(engine, vessel_ids, days, out, reply_by, policy_file, progress_bar)
+    result = write_enquiries(engine, vessel_ids, days, out, reply_by, policy_file, progress_bar, paper)
     click.echo(f"{result.lines} order line(s) for {result.scope}; {result.nothing_to_order} with nothing to order left out")
     if not result.written:
         click.echo("nothing to order: no enquiry written")

@@ -6,7 +6,7 @@ from __future__ import annotations
 import click
 
 from kit.safety import SAFETY
-from kit.commands.common import Days, db_option, default_days, reports_errors
+from kit.commands.common import Days, db_option, default_days, paper_option, reports_errors
 
 
 @click.group(epilog=SAFETY)
@@ -20,8 +20,9 @@ def template() -> None:
 @template.command(epilog=SAFETY)
 @click.argument("out", type=click.Path(path_type=str))
 @click.option("--from", "from_toml", type=click.Path(path_type=str), help="Fill it from a .toml particulars file.")
+@paper_option
 @reports_errors
-def particulars(out: str, from_toml: str | None) -> None:
+def particulars(out: str, from_toml: str | None, paper: str) -> None:
     """Write the particulars workbook OUT (.xlsx); `kit load OUT` reads it back.
 
     Example: kit template particulars corvina.xlsx --from demo_fleet/corvina_bay.toml
@@ -34,7 +35,7 @@ def particulars(out: str, from_toml: str | None) -> None:
         from kit.errors import InputError
 
         raise InputError(out, "output file", "a name ending in .xlsx", got=repr(out))
-    write_particulars_template(out, from_toml)
+    write_particulars_template(out, from_toml, paper)
     click.echo(f"wrote {out}")
 
 
@@ -43,8 +44,9 @@ def particulars(out: str, from_toml: str | None) -> None:
 @click.option("--vessel", help="Write this vessel's count sheet: its own parts, with what the database holds.")
 @click.option("--days", type=Days(), help="Length of the voyage, in days (with --vessel; default the days of cover of the "
               "vessel's spares policy in force, as for kit check).")
+@paper_option
 @db_option()
-def stock_(engine, out: str, vessel: str | None, days: float | None) -> None:
+def stock_(engine, out: str, vessel: str | None, days: float | None, paper: str) -> None:
     """Write the stock sheet OUT (.xlsx or .csv).
 
     With --vessel: that vessel's count sheet, for the chief engineer's count on board: each
@@ -62,14 +64,15 @@ def stock_(engine, out: str, vessel: str | None, days: float | None) -> None:
     check_outputs({"OUT": out})
     if vessel is not None:
         days = default_days(engine, days, [vessel])  # the voyage's days, as kit check takes them
-    rows = write_stock_template(engine, out, vessel, days)
+    rows = write_stock_template(engine, out, vessel, days, paper)
     click.echo(f"wrote {out} ({rows} part row(s))")
 
 
 @template.command("catalogue", epilog=SAFETY)
 @click.argument("out", type=click.Path(path_type=str))
+@paper_option
 @reports_errors
-def catalogue_(out: str) -> None:
+def catalogue_(out: str, paper: str) -> None:
     """Write an empty catalogue sheet OUT (.xlsx or .csv) with kit's column names.
 
     Example: kit template catalogue northwind.xlsx
@@ -78,5 +81,5 @@ def catalogue_(out: str) -> None:
     from kit.services.templates import write_catalogue_template
 
     check_outputs({"OUT": out})
-    write_catalogue_template(out)
+    write_catalogue_template(out, paper)
     click.echo(f"wrote {out}")

@@ -15,6 +15,7 @@
 ``check_workbook``  the pre-voyage check, one sheet laid out for one A4 page
 ``enquiry_workbook``, ``enquiry_reply``, ``packs``  enquiries written, replies read and checked; a
     supplier's pack ("20 L") read in the part's unit
+``print_setup``  how every workbook prints: A4 or Letter, page header, "page N of M", fitted where readable
 ``output_targets``, ``atomic``  which paths kit may write, and writing them whole or not at all
 
 The files layer may use the engine and ``catalog_schema.conventions`` (shared constants that

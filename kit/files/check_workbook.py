@@ -21,10 +21,10 @@ from openpyxl import Workbook
 from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
 from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.pagebreak import Break
-from openpyxl.worksheet.properties import PageSetupProperties
 
 from kit.engine.bom import Order
 from kit.engine.preflight import CheckRow, covered_rows, short_words, shortfall_rows, unit_oil
+from kit.files.print_setup import DEFAULT_PAPER, set_print
 from kit.files.safe_text import is_risky, visible
 from kit.files.workbook import save_atomically
 from kit.safety import SAFETY
@@ -59,11 +59,6 @@ def _lines(text: str, width: int) -> int:
     digit 0 of the default font; Arial 10 sets 1.4 to 1.6 characters of mixed text in its place
     (LibreOffice render), so 1.3 leaves room for wide words without cutting them."""
     return len(textwrap.wrap(visible(text), max(int(width * 1.3) - 1, 1))) or 1
-
-
-def _header_text(text: str) -> str:
-    """Text for a page header or footer: ``&`` starts a code there, so it is doubled."""
-    return visible(text).replace("&", "&&")
 
 
 class _Page:
@@ -150,9 +145,9 @@ def _rows(found: list[CheckRow]) -> list[list[Any]]:
             for r in found]
 
 
-def write_check_workbook(check: Any, path: str | Path, on: dt.date | None = None) -> Path:
+def write_check_workbook(check: Any, path: str | Path, on: dt.date | None = None, paper: str = DEFAULT_PAPER) -> Path:
     """Write the pre-voyage check ``check`` (a :class:`kit.services.orders.VoyageCheck`) to ``path``
-    atomically, dated ``on`` (default today)."""
+    atomically, dated ``on`` (default today), to print on ``paper`` ("a4" or "letter")."""
     path = Path(path)
     day = (on or dt.date.today()).isoformat()
     vessel, days, short = check.vessel, check.days, check.short
@@ -196,19 +191,10 @@ def write_check_workbook(check: Any, path: str | Path, on: dt.date | None = None
     for line in caution:
         page.text(line, BOLD, chars=TEXT_CHARS)
 
-    ps = ws.page_setup
-    ps.paperSize = ws.PAPERSIZE_A4
-    ps.orientation = "portrait"
-    ps.fitToWidth, ps.fitToHeight = 1, 0
-    ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=True)
-    ws.page_margins.left = ws.page_margins.right = 0.45  # inches, as the file format keeps them (11 mm)
-    ws.page_margins.top = ws.page_margins.bottom = 0.75
-    ws.page_margins.header = ws.page_margins.footer = 0.3
-    ws.print_area = f"A1:{get_column_letter(len(COLUMNS))}{page.row}"
-    ws.oddHeader.left.text = _header_text(f"{TITLE}: {vessel.name} ({vessel.id}), {days:g} days")
-    ws.oddHeader.right.text = day
-    ws.oddFooter.left.text = "CAUTION: high hydraulic pressure; secure the rudder before opening the gear"
-    ws.oddFooter.right.text = "page &P of &N"
+    # A4 (or Letter) portrait, one page wide; margins 11 mm at the sides (0.45 in)
+    set_print(ws, paper=paper, what=TITLE, scope=f"{vessel.name} ({vessel.id}), {days:g} days", day=day,
+              area=f"A1:{get_column_letter(len(COLUMNS))}{page.row}", margins=(0.45, 0.75, 0.3),
+              footer="CAUTION: high hydraulic pressure; secure the rudder before opening the gear")
     save_atomically(wb, path)
     return path
 

@@ -7,7 +7,7 @@ standard, compound, service conditions, quantity, packs, vessels and units, deli
 date, then the columns the supplier fills in). The sheets are protected: only the supplier's
 columns (and, in an open enquiry, the cell for the supplier's name) are unlocked, so what we asked
 comes back as we wrote it; :mod:`kit.files.enquiry_reply` checks that it did. Printed on A4
-landscape, one page wide, the heading row on every page and page numbers in the footer.
+(or Letter) landscape, one page wide, the heading row on every page and page numbers in the footer.
 Text that starts with a formula character is written as a string cell (:mod:`kit.files.safe_text`).
 """
 
@@ -22,23 +22,24 @@ from typing import Any, Callable
 from openpyxl import Workbook
 from openpyxl.styles import Alignment, Font, PatternFill, Protection
 from openpyxl.utils import get_column_letter
-from openpyxl.worksheet.properties import PageSetupProperties
 
 from kit.engine.enquiry import Enquiry
+from kit.files.print_setup import DEFAULT_PAPER, FONT_NAME, fits_width, set_print, use_font
 from kit.files.safe_text import is_risky, visible
 from kit.safety import SAFETY
 
 COVER = "Enquiry"
 LINES = "Lines"
-# (heading, width, wrapped); the supplier's columns come last.
+# (heading, width, wrapped); the supplier's columns come last. Each width holds its heading's
+# longest word in bold, so a heading is never broken inside a word.
 ASKED_COLUMNS = (
-    ("Line ref", 19, False), ("Designation", 40, True), ("Standard", 14, True), ("Compound", 10, True),
-    ("Service conditions", 14, True), ("Quantity", 8, False), ("UoM", 5, False), ("Pack", 8, False), ("Packs", 6, False),
+    ("Line ref", 19, False), ("Designation", 40, True), ("Standard", 14, True), ("Compound", 11, True),
+    ("Service conditions", 14, True), ("Quantity", 10, False), ("UoM", 5, False), ("Pack", 8, False), ("Packs", 8, False),
     ("Vessels (units)", 18, True), ("Delivery port", 13, True), ("Deliver by", 12, False),
 )
 REPLY_COLUMNS = (
-    ("Your part number", 14, True), ("Unit price (per your pack)", 11, False), ("Currency", 9, False),
-    ("Your pack", 9, False), ("Lead time [days]", 8, False), ("Remarks", 18, True),
+    ("Your part number", 14, True), ("Unit price (per your pack)", 11, False), ("Currency", 11, False),
+    ("Your pack", 9, False), ("Lead time [days]", 9, False), ("Remarks", 18, True),
 )
 COLUMNS = ASKED_COLUMNS + REPLY_COLUMNS
 HEADINGS = tuple(name for name, _, _ in COLUMNS)
@@ -48,13 +49,12 @@ SUPPLIER = "To"
 YOUR_NAME = "Your company name"
 OPEN_TO = "any supplier (an open enquiry)"
 
-HEADER_FONT = Font(bold=True)
+HEADER_FONT = Font(name=FONT_NAME, bold=True)
 HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
 FILL_IN = PatternFill("solid", fgColor="FFF6CC")  # the cells the supplier fills in
 WRAP = Alignment(wrap_text=True, vertical="top")
 TOP = Alignment(vertical="top")
 LINE_PT = 13.0  # one line of 10-11 pt text with its leading
-A4 = 9  # ECMA-376 Part 1, 18.3.1.64 pageSetup: paperSize 9 is A4 (from memory; checked in the rendered PDF)
 MAX_NAME = 80
 
 
@@ -97,15 +97,10 @@ def _put(ws, row: int, column: int, value: Any, **style: Any):
     return cell
 
 
-def _print_setup(ws, enquiry: Enquiry, landscape: bool) -> None:
-    ps = ws.page_setup
-    ps.paperSize = A4
-    ps.orientation = "landscape" if landscape else "portrait"
-    ps.fitToWidth, ps.fitToHeight = 1, 0
-    ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=True)
-    ws.oddFooter.left.text = f"Enquiry {enquiry.id}"
-    ws.oddFooter.right.text = "Page &P of &N"
-    ws.print_options.gridLines = True
+def _print_setup(ws, enquiry: Enquiry, landscape: bool, paper: str, **more: Any) -> None:
+    to = enquiry.supplier if enquiry.supplier is not None else OPEN_TO
+    set_print(ws, paper=paper, what=f"Enquiry {enquiry.id}", scope=f"{enquiry.company} to {to}",
+              day=enquiry.written_on.isoformat(), landscape=landscape, footer=f"Enquiry {enquiry.id}", **more)
 
 
 def _protect(ws) -> None:
@@ -117,7 +112,7 @@ def _protect(ws) -> None:
     ws.protection.selectUnlockedCells = False
 
 
-def _cover(wb: Workbook, enquiry: Enquiry) -> None:
+def _cover(wb: Workbook, enquiry: Enquiry, paper: str) -> None:
     ws = wb.active
     ws.title = COVER
     ws.column_dimensions["A"].width = 24
@@ -134,7 +129,7 @@ def _cover(wb: Workbook, enquiry: Enquiry) -> None:
         rows.append(("Deliveries on board" if i == 0 else None, f"{d.vessel_id}: {d.port} by {d.due_on.isoformat()}"))
     if not enquiry.deliveries:
         rows.append(("Deliveries on board", "port and date to be agreed"))
-    _put(ws, 1, 1, "Enquiry: steering gear and hydraulic spares", font=Font(bold=True, size=13))
+    _put(ws, 1, 1, "Enquiry: steering gear and hydraulic spares", font=Font(name=FONT_NAME, bold=True, size=13))
     r = 3
     for label, value in rows:
         _put(ws, r, 1, label, font=HEADER_FONT, alignment=TOP)
@@ -162,9 +157,7 @@ def _cover(wb: Workbook, enquiry: Enquiry) -> None:
                 _put(ws, r, 1, label, font=HEADER_FONT)
             _put(ws, r, 2, part)
             r += 1
-    _print_setup(ws, enquiry, landscape=False)
-    ws.print_options.gridLines = False
-    ws.print_area = f"A1:B{r}"
+    _print_setup(ws, enquiry, False, paper, area=f"A1:B{r}")
     _protect(ws)
 
 
@@ -177,7 +170,7 @@ def _height(values: list[Any]) -> float:
     return LINE_PT * lines + 2
 
 
-def _lines(wb: Workbook, enquiry: Enquiry) -> None:
+def _lines(wb: Workbook, enquiry: Enquiry, paper: str) -> None:
     ws = wb.create_sheet(LINES)
     reply_from = len(ASKED_COLUMNS) + 1
     for i, (name, width, _) in enumerate(COLUMNS, 1):
@@ -199,18 +192,21 @@ def _lines(wb: Workbook, enquiry: Enquiry) -> None:
                 cell.number_format = "@"  # typed as text: a part number "0012" keeps its zeros
         ws.row_dimensions[r].height = _height(values)
     ws.freeze_panes = "B2"
-    ws.print_title_rows = "1:1"
-    _print_setup(ws, enquiry, landscape=True)
+    # one page wide where the text stays readable, else across pages with the line reference on each
+    fit = fits_width([w for _, w, _ in COLUMNS], paper, landscape=True)
+    _print_setup(ws, enquiry, True, paper, title_rows="1:1", grid=True, fit_width=fit, title_cols=None if fit else "A:A")
     _protect(ws)
 
 
-def enquiry_writer(enquiry: Enquiry) -> Callable[[Path], None]:
-    """A function that writes ``enquiry``'s workbook to the path it is given (see :func:`kit.files.atomic.staged`)."""
+def enquiry_writer(enquiry: Enquiry, paper: str = DEFAULT_PAPER) -> Callable[[Path], None]:
+    """A function that writes ``enquiry``'s workbook, to print on ``paper`` ("a4" or "letter"), to
+    the path it is given (see :func:`kit.files.atomic.staged`)."""
 
     def write(path: Path) -> None:
         wb = Workbook()
-        _cover(wb, enquiry)
-        _lines(wb, enquiry)
+        use_font(wb)
+        _cover(wb, enquiry, paper)
+        _lines(wb, enquiry, paper)
         wb.save(path)
 
     return write

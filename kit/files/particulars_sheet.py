@@ -104,13 +104,15 @@ def _rudder_cells(unit: dict[str, Any]) -> dict[str, Any]:
     return {column: rudder.get(name) for column, name in RUDDER_COLUMNS.items()}
 
 
-def write_particulars_template(path: str | Path, from_toml: str | Path | None = None) -> None:
-    """Write the particulars workbook, empty or filled from a TOML particulars file."""
+def write_particulars_template(path: str | Path, from_toml: str | Path | None = None, paper: str = "a4") -> None:
+    """Write the particulars workbook, empty or filled from a TOML particulars file, to print on ``paper``."""
     document = None
     if from_toml is not None:
         document = parse_toml(read_text(from_toml, TOML_PARTICULARS), str(from_toml))
         vessel_from_dict(document, str(from_toml))  # refuse a bad file before writing anything
-    write_sheets(path, particulars_sheets(document))
+    vessel = (document or {}).get("vessel", {})
+    what = f"Particulars of {vessel.get('name')} ({vessel.get('id')})" if vessel.get("id") else "Particulars (template)"
+    write_sheets(path, particulars_sheets(document), what, paper)
 
 
 def _cell(value: Any) -> Any:

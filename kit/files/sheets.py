@@ -404,39 +404,72 @@ class Sheet:
     notes: dict[str, str] | None = None
 
 
-def write_sheets(path: str | Path, sheets: Sequence[Sheet]) -> None:
-    """Write an .xlsx with one sheet per :class:`Sheet` plus a ``notes`` sheet explaining columns."""
+def write_sheets(path: str | Path, sheets: Sequence[Sheet], what: str = "Template", paper: str = "a4") -> None:
+    """Write an .xlsx with one sheet per :class:`Sheet` plus a ``notes`` sheet explaining columns.
+
+    Printed on ``paper`` ("a4" or "letter") with ``what`` and the date in the page header and
+    "page N of M" in the footer: a sheet fitted one page wide where its text stays readable
+    (:func:`kit.files.print_setup.fits_width`), else at full size across pages with its first column
+    repeated; the notes wrapped in their column, every row as tall as its text."""
+    import datetime as dt
+    import math
+    import textwrap
+
     from openpyxl import Workbook
-    from openpyxl.styles import Font
+    from openpyxl.styles import Alignment, Font
+    from openpyxl.utils import get_column_letter
+
+    from kit.files.print_setup import FONT_NAME, fits_width, set_print, use_font
+
+    day = dt.date.today().isoformat()
+    wrap = Alignment(wrap_text=True, vertical="top")
 
     def write(tmp: Path) -> None:
         wb = Workbook()
+        use_font(wb)
         wb.remove(wb.active)
+        bold = Font(name=FONT_NAME, bold=True)
         notes = []
         for sheet in sheets:
             ws = wb.create_sheet(sheet.name)
             ws.append(list(sheet.columns))
             for cell in ws[1]:
-                cell.font = Font(bold=True)
+                cell.font = bold
+                cell.alignment = wrap
             for row in sheet.rows:
                 ws.append([visible(v) for v in row])
                 for cell in ws[ws.max_row]:
                     if is_risky(cell.value):
                         cell.data_type = "s"  # user text: never a formula
             ws.freeze_panes = "A2"
-            for i, name in enumerate(sheet.columns, start=1):
-                ws.column_dimensions[ws.cell(1, i).column_letter].width = max(12, len(name) + 4)
+            # a heading wraps between its words only (a name such as isolation_valves is one word,
+            # never cut): the column as wide as its longest word in bold, at least 10
+            widths = [max(10, math.ceil(max(len(w) for w in name.split()) * 1.1) + 2) for name in sheet.columns]
+            for i, width in enumerate(widths, start=1):
+                ws.column_dimensions[ws.cell(1, i).column_letter].width = width
+            ws.row_dimensions[1].height = 13 * max(len(textwrap.wrap(n, w - 2)) or 1 for n, w in zip(sheet.columns, widths)) + 2
+            landscape = not fits_width(widths, paper)
+            fit = fits_width(widths, paper, landscape)
+            set_print(ws, paper=paper, what=what, scope=f"sheet {sheet.name}", day=day, landscape=landscape, fit_width=fit,
+                      title_rows="1:1", title_cols=None if fit else "A:A", grid=True,
+                      area=f"A1:{get_column_letter(len(widths))}{max(ws.max_row, 2)}")
             notes += [(sheet.name, c, (sheet.notes or {}).get(c, "")) for c in sheet.columns]
         ws = wb.create_sheet("notes")
         ws.append(["sheet", "column", "what to enter"])
         for cell in ws[1]:
-            cell.font = Font(bold=True)
+            cell.font = bold
         for note in notes:
             ws.append(list(note))
             for cell in ws[ws.max_row]:
                 if is_risky(cell.value):
                     cell.data_type = "s"
-        ws.column_dimensions["C"].width = 90
+                cell.alignment = wrap
+            lines = max(len(textwrap.wrap(str(visible(note[2])), 72)), len(textwrap.wrap(str(visible(note[1])), 26)), 1)
+            ws.row_dimensions[ws.max_row].height = 13 * lines + 2
+        ws.column_dimensions["A"].width = 12
+        ws.column_dimensions["B"].width = 24
+        ws.column_dimensions["C"].width = 60
+        set_print(ws, paper=paper, what=what, scope="notes", day=day, title_rows="1:1", area=f"A1:C{ws.max_row}")
         wb.save(tmp)
 
     replace_atomically(Path(path), write)
@@ -453,13 +486,13 @@ def write_csv(path: str | Path, columns: Sequence[str], rows: Iterable[Sequence[
     return replace_atomically(Path(path), write)
 
 
-def write_sheet(path: str | Path, sheet: Sheet) -> None:
-    """One table, as .xlsx or .csv by the file's suffix."""
+def write_sheet(path: str | Path, sheet: Sheet, what: str = "Template", paper: str = "a4") -> None:
+    """One table, as .xlsx or .csv by the file's suffix (``what`` and ``paper``: see :func:`write_sheets`)."""
     path = Path(path)
     suffix = path.suffix.lower()
     if suffix == ".csv":
         write_csv(path, sheet.columns, sheet.rows)
     elif suffix == ".xlsx":
-        write_sheets(path, [sheet])
+        write_sheets(path, [sheet], what, paper)
     else:
         raise InputError(str(path), "output file", "a name ending in .xlsx or .csv", got=repr(path.suffix or "no suffix"))

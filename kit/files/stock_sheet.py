@@ -264,42 +264,22 @@ class CountSheet:
     filters: Sequence[FilterLine]
 
 
-def _header_text(text: str) -> str:
-    """Text for a printed page header: visible, '&' doubled (a code there), at most 80 characters."""
-    shown = str(visible(text))
-    return (shown[:77] + "...").replace("&", "&&") if len(shown) > 80 else shown.replace("&", "&&")
-
-
-def _page_setup(ws, title: str, count: CountSheet, columns: int, rows: int) -> None:
-    """A4 portrait, fitted to the page width, the header row repeated, a grid, the vessel and
-    date in the page header and "page N of M" in the footer."""
+def _page_setup(ws, title: str, count: CountSheet, columns: int, rows: int, paper: str) -> None:
+    """A4 (or Letter) portrait, fitted to the page width, the header row repeated, a grid, the
+    vessel and date in the page header and "page N of M" in the footer."""
     from openpyxl.utils import get_column_letter
-    from openpyxl.worksheet.properties import PageSetupProperties
 
-    last = get_column_letter(columns)
-    ws.print_area = f"A1:{last}{max(rows, 1)}"
-    ws.print_title_rows = "1:1"
-    ws.page_setup.paperSize = ws.PAPERSIZE_A4
-    ws.page_setup.orientation = "portrait"
-    ws.page_setup.fitToWidth = 1
-    ws.page_setup.fitToHeight = 0
-    ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=True)
-    ws.page_margins.left = ws.page_margins.right = 0.3
-    ws.page_margins.top = ws.page_margins.bottom = 0.6
-    ws.page_margins.header = ws.page_margins.footer = 0.25
-    ws.print_options.horizontalCentered = True
-    ws.oddHeader.left.text = _header_text(f"{title}: {count.vessel_name} ({count.vessel_id})")
-    ws.oddHeader.left.size = 10
-    ws.oddHeader.right.text = f"made {count.made_on.isoformat()}, voyage {count.days:g} days"
-    ws.oddHeader.right.size = 10
-    ws.oddFooter.left.text = "counted by: ____________   signed: ____________"
-    ws.oddFooter.left.size = 9
-    ws.oddFooter.right.text = "page &P of &N"
-    ws.oddFooter.right.size = 9
+    from kit.files.print_setup import set_print
+
+    set_print(ws, paper=paper, what=title, scope=f"{count.vessel_name} ({count.vessel_id})",
+              day=f"made {count.made_on.isoformat()}, voyage {count.days:g} days", title_rows="1:1",
+              area=f"A1:{get_column_letter(columns)}{max(rows, 1)}", margins=(0.3, 0.6, 0.25), centred=True,
+              footer="counted by: ____________   signed: ____________", font_size=10)
+    ws.oddFooter.left.size = ws.oddFooter.right.size = 9
 
 
 def _table_sheet(wb, name: str, columns: Sequence[str], printed: int, widths: Sequence[float], rows: list[list[Any]],
-                 wrap: set[int], entry: set[int], count: CountSheet, title: str) -> None:
+                 wrap: set[int], entry: set[int], count: CountSheet, title: str, paper: str) -> None:
     from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
 
     ws = wb.create_sheet(name)
@@ -332,7 +312,7 @@ def _table_sheet(wb, name: str, columns: Sequence[str], printed: int, widths: Se
         if lines > 1:
             ws.row_dimensions[r].height = LINE_POINTS * lines + 2
     ws.freeze_panes = "A2"
-    _page_setup(ws, title, count, printed, len(rows) + 1)
+    _page_setup(ws, title, count, printed, len(rows) + 1, paper)
     for i in entry:  # the cells to fill in stand out on screen
         for r in range(2, len(rows) + 2):
             ws.cell(r, i).fill = PatternFill("solid", fgColor="FFF2CC")
@@ -344,9 +324,9 @@ def count_rows(count: CountSheet) -> list[list[Any]]:
             for li in count.lines]
 
 
-def write_count_sheet(path: str | Path, count: CountSheet, safety: str) -> None:
+def write_count_sheet(path: str | Path, count: CountSheet, safety: str, paper: str = "a4") -> None:
     """The count sheet of one vessel: ``.xlsx`` (sheets stock, filter_hours, notes; printed on A4)
-    or ``.csv`` (the stock rows only)."""
+    or ``.csv`` (the stock rows only); ``paper`` "a4" or "letter"."""
     from kit.files.atomic import replace_atomically
     from kit.files.sheets import write_csv
 
@@ -362,14 +342,17 @@ def write_count_sheet(path: str | Path, count: CountSheet, safety: str) -> None:
         from openpyxl import Workbook
         from openpyxl.styles import Alignment, Font
 
+        from kit.files.print_setup import use_font
+
         wb = Workbook()
+        use_font(wb)  # Arial 10: the column widths print as wide wherever the sheet is opened
         wb.remove(wb.active)
         _table_sheet(wb, SHEET, COUNT_COLUMNS, PRINTED, (33, 5.5, 12, 8, 10.5, 10.5, 9.5, 12.5, 30, 14), rows,
-                     {1, 3}, {7, 8}, count, "Stock count")
+                     {1, 3}, {7, 8}, count, "Stock count", paper)
         filters = [[f.unit, f.position, f.element, f.interval_h, f.hours, f.recorded_on, None, None, count.vessel_id]
                    for f in count.filters]
         _table_sheet(wb, FILTER_SHEET, FILTER_COLUMNS, FILTER_PRINTED, (7, 9, 16, 12.5, 12.5, 10.5, 20.5, 12.5, 14), filters,
-                     {2, 3}, {7, 8}, count, "Filter hours")
+                     {2, 3}, {7, 8}, count, "Filter hours", paper)
         ws = wb.create_sheet("notes")
         ws.append(["sheet", "column", "what it holds"])
         for cell in ws[1]:
@@ -387,7 +370,7 @@ def write_count_sheet(path: str | Path, count: CountSheet, safety: str) -> None:
             row[2].font = Font(name=FONT, size=10)
             if row[2].value:
                 ws.row_dimensions[row[2].row].height = LINE_POINTS * math.ceil(len(row[2].value) / (66 * WIDTH_CHARS)) + 2
-        _page_setup(ws, "Stock count notes", count, 3, ws.max_row)
+        _page_setup(ws, "Stock count notes", count, 3, ws.max_row, paper)
         wb.save(tmp)
 
     replace_atomically(path, write)

@@ -14,6 +14,8 @@ from __future__ import annotations
 
 import datetime as dt
 import math
+import textwrap
+from dataclasses import dataclass
 from pathlib import Path
 from typing import Any, Iterable
 
@@ -21,44 +23,69 @@ from openpyxl import Workbook
 from openpyxl.cell import WriteOnlyCell
 from openpyxl.styles import Alignment, Font, PatternFill
 from openpyxl.utils import get_column_letter
-from openpyxl.worksheet.properties import PageSetupProperties
 
 from kit.engine.display_units import L_MIN_PER_M3_S, L_PER_M3, PA_PER_BAR, US_GAL_PER_M3
 from kit.engine.bom import Order
 from kit.safety import SAFETY
 from kit.files.atomic import replace_atomically
+from kit.files.print_setup import DEFAULT_PAPER, FONT_NAME, FONT_PT, SIDE_MARGIN_IN, fits_width, set_print, use_font
 from kit.engine.oil_grades import density_kg_per_l
 from kit.engine.report import seal_json
 from kit.files.safe_text import CONTROL, TRIGGERS, is_risky, visible
 from kit.engine.seal_kit import mm
 
-HEADER_FONT = Font(bold=True)
+HEADER_FONT = Font(name=FONT_NAME, size=FONT_PT, bold=True)
 HEADER_FILL = PatternFill("solid", fgColor="DDE4EA")
 WRAP = Alignment(wrap_text=True, vertical="top")
+# A wrapped cell of a row: at the foot of the row like the unstyled cells beside it (a style on
+# every cell of a large order would cost seconds).
+WRAP_ROW = Alignment(wrap_text=True, vertical="bottom")
 HEADER_LINE_PT = 13.0  # one line of the bold heading font, with its leading
+BODY_LINE_PT = 13.0  # one line of the 10 pt default font, with its leading
+# Characters of mixed text a wrapped line holds per unit of column width (a width counts the digit
+# 0); Arial sets 1.4 to 1.6 of them (LibreOffice render), and capitals and wide words fewer: 1.1 leaves room.
+WRAP_CHARS = 1.1
+WIDE_CAPITALS = 1.35
 
 # Number formats only on money, which a purchaser reads to the cent; quantities kit rounds itself
 # (and the formulas over them) read as they are in General. A styled cell costs several times a
 # plain one to write: in a 1,000-vessel order the quantity formats alone took about 0.5 s.
 DATE = "yyyy-mm-dd"
+# The columns a purchaser reads on paper come first and are the print area (A4 landscape, one page
+# wide, at about 8 pt or more); the technical ones (standard, compound, rates, lead times, basis,
+# the split and the part key) follow, outside it, for the screen and for look-ups.
 ORDER_COLUMNS = (
-    ("No", 6, None), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
-    ("Required", 11, None), ("Per hull", 9, None), ("Hulls", 7, None), ("On board", 11, None), ("To order", 11, None), ("UoM", 6, None),
-    ("Pack size", 10, None), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
-    ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
-    ("Rate to base", 10, None), ("Line total in base", 13, "#,##0.00"), ("Order by", 11, DATE), ("Late", 6, None),
-    ("Earliest arrival", 11, DATE), ("Delivery", 24, None), ("Lead time [days]", 10, None),
-    ("Why this supplier", 44, None), ("Basis", 30, None), ("Vessels", 30, None), ("Part key", 40, None),
+    ("No", 4, None), ("Designation", 31, None), ("Required", 9, None), ("Per hull", 6, None), ("On board", 8, None), ("To order", 7, None),
+    ("UoM", 5, None), ("Pack size", 6, None), ("Packs", 6, None), ("Supplier", 13, None), ("Supplier part no", 11, None),
+    ("Price per pack", 9, "#,##0.00"), ("Currency", 9, None), ("Line total", 10, "#,##0.00"),
+    ("Line total in base", 10, "#,##0.00"), ("Order by", 10, DATE), ("Late", 5, None), ("Why this supplier", 14, None), ("Hulls", 6, None),
+    ("Standard", 18, None), ("Compound", 10, None), ("Rate to base", 10, None), ("Earliest arrival", 11, DATE),
+    ("Delivery", 24, None), ("Lead time [days]", 10, None), ("Basis", 30, None), ("Vessels", 30, None),
+    ("Part key", 40, None),
 )
+ORDER_PRINTED = [name for name, _, _ in ORDER_COLUMNS].index("Why this supplier") + 1  # No to Why this supplier
+ORDER_WRAPPED = ("Designation", "Supplier", "Supplier part no", "Why this supplier")
 LATE = "late"
 COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(ORDER_COLUMNS, 1)}
 
 
-class _Sheet:
-    """A write-only sheet with a styled, frozen, filtered header row and print set-up."""
+@dataclass(frozen=True)
+class Page:
+    """What every printed page of the workbook says: the paper, and the page header's scope and date."""
 
-    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], header_row: bool = True,
-                 fit_width: bool = True):
+    paper: str
+    scope: str
+    day: str
+
+
+class _Sheet:
+    """A write-only sheet with a styled, frozen, filtered header row and print set-up: the first
+    ``printed`` columns (all by default) are the print area, fitted one page wide on A4 or Letter
+    landscape; the text of the ``wrapped`` columns wraps, each row as tall as its longest text."""
+
+    def __init__(self, wb: Workbook, title: str, columns: Iterable[tuple[str, int, str | None]], page: Page,
+                 header_row: bool = True, fit_width: bool = True, printed: int | None = None,
+                 wrapped: Iterable[str] = (), landscape: bool = True):
         self.ws = wb.create_sheet(title)
         self.table = header_row
         self._reused: dict[tuple[int, str], WriteOnlyCell] = {}
@@ -67,14 +94,22 @@ class _Sheet:
         self._formatted = [i for i, fmt in enumerate(self.formats) if fmt]
         for i, (_, width, _) in enumerate(self.columns, 1):
             self.ws.column_dimensions[get_column_letter(i)].width = width
-        ps = self.ws.page_setup
-        ps.orientation = "landscape"
-        ps.fitToWidth, ps.fitToHeight = (1 if fit_width else 0), 0
-        self.ws.sheet_properties.pageSetUpPr = PageSetupProperties(fitToPage=fit_width)
+        names = [name for name, _, _ in self.columns]
+        self.wrapped = {names.index(n): width for n, width in ((n, w) for n, w, _ in self.columns) if n in set(wrapped)}
+        self._wrap_cells = {i: WriteOnlyCell(self.ws) for i in self.wrapped}
+        for cell in self._wrap_cells.values():
+            cell.alignment = WRAP_ROW
+        # fitted one page wide only where the text stays readable; else at full size across pages,
+        # the first two columns on each (on a write-only sheet, set up before the rows are written)
+        widths = [width for _, width, _ in self.columns[:printed or len(self.columns)]]
+        fit = fit_width and fits_width(widths, page.paper, landscape)
+        set_print(self.ws, paper=page.paper, what=f"Bill of materials, {title}", scope=page.scope, day=page.day,
+                  landscape=landscape, fit_width=fit, title_rows="1:1" if header_row else None,
+                  title_cols=None if fit else "A:B", margins=(SIDE_MARGIN_IN, 0.75, 0.3), font_size=FONT_PT)
+        self.printed = printed
         self.rows = 0
         if header_row:
             self.ws.freeze_panes = "A2"
-            self.ws.print_title_rows = "1:1"
             # a wrapped heading's row does not grow by itself in every program: lines drawn over row 2
             lines = max(math.ceil(len(name) / max(width - 2, 1)) for name, width, _ in self.columns)
             self.ws.row_dimensions[1].height = HEADER_LINE_PT * lines
@@ -110,6 +145,8 @@ class _Sheet:
             row = [self._header_cell(v) for v in values]
         else:
             row = list(values)
+            if self.wrapped:
+                self._wrap(row)
             for i in self._formatted:
                 v = row[i] if i < len(row) else None
                 if v is not None and (not isinstance(v, str) or isinstance(v, Formula)):
@@ -124,7 +161,30 @@ class _Sheet:
         self.rows += 1
         return self.rows
 
+    def _wrap(self, row: list[Any]) -> None:
+        """Wrap the text of the wrapped columns that needs more than one line, and make the next
+        row as tall as its longest text (a row does not grow by itself in every spreadsheet
+        program). Text that fits on a line stays a plain value: a styled cell costs more to write."""
+        lines = 1
+        for i, width in self.wrapped.items():
+            v = row[i] if i < len(row) else None
+            if not isinstance(v, str) or isinstance(v, Formula) or len(v) <= width * WRAP_CHARS / WIDE_CAPITALS - 1:
+                continue
+            v = visible(v)
+            # capitals set up to a third wider than the mixed text WRAP_CHARS is for
+            wide = 1 + (WIDE_CAPITALS - 1) * sum(ch.isupper() for ch in v) / len(v)
+            n = len(textwrap.wrap(v, max(int(width * WRAP_CHARS / wide) - 1, 1)))
+            if n > 1:
+                lines = max(lines, n)
+                cell = self._wrap_cells[i]
+                cell.value, cell.data_type = v, "s"  # text: never a formula
+                row[i] = cell
+        if lines > 1:
+            self.ws.row_dimensions[self.rows + 1].height = BODY_LINE_PT * lines + 2
+
     def finish(self) -> None:
+        if self.printed:
+            self.ws.print_area = f"A1:{get_column_letter(self.printed)}{max(self.rows, 1)}"
         if self.rows > 1:
             self.ws.auto_filter.ref = f"A1:{get_column_letter(len(self.columns))}{self.rows}"
 
@@ -163,8 +223,8 @@ def _delivery_text(line) -> str | None:
     return None if d is None else f"{d.port}, {d.due_on.isoformat()} ({d.vessel_id})"
 
 
-def _order_sheet(wb: Workbook, order: Order, oil_rows: dict[str, tuple[int, int]]) -> dict[str, int]:
-    sheet = _Sheet(wb, "Order lines", ORDER_COLUMNS)
+def _order_sheet(wb: Workbook, order: Order, oil_rows: dict[str, tuple[int, int]], page: Page) -> dict[str, int]:
+    sheet = _Sheet(wb, "Order lines", ORDER_COLUMNS, page, printed=ORDER_PRINTED, wrapped=ORDER_WRAPPED)
     rows: dict[str, int] = {}
     c = COL
     for line in order.lines:
@@ -187,36 +247,42 @@ def _order_sheet(wb: Workbook, order: Order, oil_rows: dict[str, tuple[int, int]
         required: Any = round(line.required, 3)
         if line.hulls:  # a series line: the total is per hull x hulls, live
             required = Formula(f"={c['Per hull']}{r}*{c['Hulls']}{r}")
-        sheet.append([
-            line.number, line.designation, line.standard, line.compound,
-            required, None if line.per_hull is None else round(line.per_hull, 3), line.hulls, round(line.on_board, 3),
-            Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), line.uom, pack, packs_cell,
-            line.supplier, offer.part_number if offer else None, line.price, line.currency, total,
-            line.rate, base_total, line.order_by, LATE if line.late else None, line.earliest_arrival,
-            _delivery_text(line), line.lead_time_days, line.reason or None, line.basis,
-            "; ".join(f"{v}: {q:g}" for v, q in line.split.items()), line.key,
-        ])
+        values = {
+            "No": line.number, "Designation": line.designation, "Standard": line.standard, "Compound": line.compound,
+            "Required": required,
+            "Per hull": None if line.per_hull is None else round(line.per_hull, 3), "Hulls": line.hulls, "On board": round(line.on_board, 3),
+            "To order": Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), "UoM": line.uom,
+            "Pack size": pack, "Packs": packs_cell, "Supplier": line.supplier,
+            "Supplier part no": offer.part_number if offer else None, "Price per pack": line.price,
+            "Currency": line.currency, "Line total": total, "Rate to base": line.rate, "Line total in base": base_total,
+            "Order by": line.order_by, "Late": LATE if line.late else None, "Earliest arrival": line.earliest_arrival,
+            "Delivery": _delivery_text(line), "Lead time [days]": line.lead_time_days,
+            "Why this supplier": line.reason or None, "Basis": line.basis,
+            "Vessels": "; ".join(f"{v}: {q:g}" for v, q in line.split.items()), "Part key": line.key,
+        }
+        sheet.append([values[name] for name, _, _ in ORDER_COLUMNS])
         rows[line.key] = r
     sheet.finish()
     return rows
 
 
-def _split_sheet(wb: Workbook, order: Order) -> None:
+def _split_sheet(wb: Workbook, order: Order, page: Page) -> None:
     sheet = _Sheet(wb, "Vessel split", (("No", 6, None), ("Designation", 60, None), ("Vessel", 20, None),
-                                         ("Required", 11, None), ("UoM", 6, None)))
+                                         ("Required", 11, None), ("UoM", 6, None)), page, wrapped=("Designation",),
+                   landscape=False)
     for line in order.lines:
         for vessel, qty in line.split.items():
             sheet.append([line.number, line.designation, vessel, round(qty, 3), line.uom])
     sheet.finish()
 
 
-def _seal_sheet(wb: Workbook, order: Order) -> None:
+def _seal_sheet(wb: Workbook, order: Order, page: Page) -> None:
     cols = (("Vessel", 18, None), ("Unit", 10, None), ("Actuator", 11, None), ("Role", 8, None), ("Part", 40, None),
             ("d [mm]", 9, None), ("D [mm]", 9, None), ("L [mm]", 9, None), ("O-ring ID [mm]", 10, None),
             ("O-ring CS [mm]", 10, None), ("Strip t [mm]", 9, None), ("Cut length [mm]", 11, None),
             ("Qty per actuator", 10, None), ("Qty per unit", 9, None), ("Compound", 10, None), ("Standard", 22, None),
             ("Dimensions from", 34, None))
-    sheet = _Sheet(wb, "Seal kits", cols)
+    sheet = _Sheet(wb, "Seal kits", cols, page, wrapped=("Part", "Standard", "Dimensions from"))
     for r in order.results:
         for u in r.units:
             g = u.unit.geometry
@@ -238,10 +304,11 @@ OIL_COLUMNS = (
 OIL_COL = {name: get_column_letter(i) for i, (name, _, _) in enumerate(OIL_COLUMNS, 1)}
 
 
-def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int], oil_rows: dict[str, tuple[int, int]]) -> None:
+def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int], oil_rows: dict[str, tuple[int, int]],
+                      page: Page) -> None:
     """One row per pack of each fluid's plan (the engine's, :mod:`kit.engine.supplier_choice`): the
     counts are the plan; subtotal, supply and what is still short are formulas over them."""
-    sheet = _Sheet(wb, "Oil and filters", OIL_COLUMNS)
+    sheet = _Sheet(wb, "Oil and filters", OIL_COLUMNS, page, wrapped=("Fluid", "Supplier", "Supplier part no"))
     k = OIL_COL
     for oil in order.oil:
         o = order_rows[oil.fluid_key]
@@ -265,7 +332,8 @@ def _oil_filter_sheet(wb: Workbook, order: Order, order_rows: dict[str, int], oi
     sheet.finish()
     filters = _Sheet(wb, "Filter elements", (("Vessel", 18, None), ("Unit", 10, None), ("Position", 12, None),
                                              ("Element", 20, None), ("Elements per change", 10, None), ("Changes due", 10, None),
-                                             ("Spare sets", 10, None), ("Elements", 10, None)))
+                                             ("Spare sets", 10, None), ("Elements", 10, None)), page,
+                     wrapped=("Element",), landscape=False)
     for r in order.results:
         for u in r.units:
             for f in u.filters:
@@ -287,53 +355,74 @@ def rule_cells(rules: list) -> list[str | None]:
     return [found.get(clause) for clause in RULE_COLUMNS]
 
 
-def _checks_sheet(wb: Workbook, order: Order) -> None:
-    cols = (("Vessel", 18, None), ("Ship type", 10, None), ("Unit", 10, None), ("Service", 11, None), ("Actuator", 11, None),
-            ("Torque midships [kNm]", 12, None), ("Torque at max angle [kNm]", 12, None),
-            ("Swing 35-30 one pump [s]", 11, None), ("Swing 35-30 all pumps [s]", 11, None),
-            ("Swing judged [s]", 10, None), ("Judged on", 40, None), ("Limit [s]", 8, None), ("28 s rule", 9, None),
-            ("Travel [mm]", 10, None), ("Stroke [mm]", 10, None), ("Travel within stroke", 10, None),
-            ("Working pressure [bar]", 11, None), ("Pressure within ratings", 10, None), ("Warnings", 80, None),
-            ("Torque basis", 40, None), ("Rudder torque ahead [kNm]", 12, None), ("Rudder torque astern [kNm]", 12, None),
-            ("Gear torque at 35 deg [kNm]", 12, None), ("Gear torque pressure [bar]", 11, None),
-            ("Margin over rudder torque [%]", 11, None),
-            ("Rudder angle reachable [deg]", 10, None), ("Pump flow needed each [L/min]", 11, None),
-            ("Auxiliary steering gear required", 12, None), *((clause, 14, None) for clause in RULE_COLUMNS))
-    # some 40 columns: fitted to one page wide they print at a fifth of their size; print them
-    # across pages instead, each with the vessel and unit
-    sheet = _Sheet(wb, "Gear checks", cols, fit_width=False)
-    sheet.ws.print_title_cols = "A:C"
+def rule_summary(rules: list) -> str | None:
+    """The SOLAS II-1/29 verdicts of a unit grouped: how many rules are met, then the clauses (short,
+    "29.6.1.1") of each other verdict, e.g. "8 met; not met: 29.3.2; not shown: 29.16.1"."""
+    if not rules:
+        return None
+    groups: dict[str, list[str]] = {}
+    for r in rules:
+        if r.verdict != "info":
+            groups.setdefault(r.verdict, []).append(r.clause.replace("SOLAS II-1/", ""))
+    parts = [f"{len(groups.pop('met', []))} met"]
+    parts += [f"{verdict}: {', '.join(clauses)}" for verdict, clauses in groups.items()]
+    return "; ".join(parts)
+
+
+# The Gear checks sheet: the verdicts a reader looks for first, the print area (A4 landscape, one
+# page wide); the figures behind them and each rule's own column follow, outside it.
+CHECK_COLUMNS = (
+    ("Vessel", 17, None), ("Unit", 9, None), ("Service", 12, None), ("Actuator", 12, None), ("Swing judged [s]", 9, None),
+    ("Limit [s]", 7, None), ("28 s rule", 8, None), ("Travel within stroke", 9, None), ("Pressure within ratings", 9, None),
+    ("Margin over rudder torque [%]", 10, None), ("Auxiliary steering gear required", 12, None),
+    ("SOLAS II-1/29 verdicts", 27, None), ("Warnings", 33, None),
+    ("Ship type", 10, None), ("Torque midships [kNm]", 12, None), ("Torque at max angle [kNm]", 12, None),
+    ("Swing 35-30 one pump [s]", 11, None), ("Swing 35-30 all pumps [s]", 11, None), ("Judged on", 40, None),
+    ("Travel [mm]", 10, None), ("Stroke [mm]", 10, None), ("Working pressure [bar]", 11, None), ("Torque basis", 40, None),
+    ("Rudder torque ahead [kNm]", 12, None), ("Rudder torque astern [kNm]", 12, None), ("Gear torque at 35 deg [kNm]", 12, None),
+    ("Gear torque pressure [bar]", 11, None), ("Rudder angle reachable [deg]", 10, None),
+    ("Pump flow needed each [L/min]", 11, None), *((clause, 14, None) for clause in RULE_COLUMNS),
+)
+CHECKS_PRINTED = 13  # Vessel to Warnings
+
+
+def _checks_sheet(wb: Workbook, order: Order, page: Page) -> None:
+    sheet = _Sheet(wb, "Gear checks", CHECK_COLUMNS, page, printed=CHECKS_PRINTED,
+                   wrapped=("Vessel", "SOLAS II-1/29 verdicts", "Warnings", "Auxiliary steering gear required"))
     yes = {True: "yes", False: "NO", None: None}
+    k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
+    s = lambda x: None if x is None else round(x, 1)  # noqa: E731
     for r in order.results:
         for u in r.units:
             c = u.checks
-            k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
-            s = lambda x: None if x is None else round(x, 1)  # noqa: E731
-            sheet.append([r.vessel.id, r.vessel.ship_type, u.unit.id, u.unit.service, u.unit.actuator,
-                          k(c.torque_midships), k(c.torque_max_angle), s(c.swing_time_one_pump), s(c.swing_time_all_pumps),
-                          s(c.swing_time_judged), c.judging_case, 28 if u.unit.is_steering else None,
-                          yes[c.swing_rule_met], None if c.travel is None else round(c.travel * 1000),
-                          None if c.stroke is None else round(c.stroke * 1000), yes[c.travel_ok],
-                          round(u.unit.working_pressure / PA_PER_BAR, 1), yes[c.pressure_ok], " | ".join(u.warnings),
-                          *_rudder_cells(c),
-                          s(c.reachable_angle and math.degrees(c.reachable_angle)),
-                          s(c.pump_flow_needed and c.pump_flow_needed * L_MIN_PER_M3_S),
-                          None if not u.unit.is_steering else {True: "yes", False: "no", None: "unless 29.6.1.3 shown"}[c.auxiliary_gear_required],
-                          *rule_cells(c.rules)])
+            load = c.rudder_load
+            values = {
+                "Vessel": r.vessel.id, "Ship type": r.vessel.ship_type, "Unit": u.unit.id, "Service": u.unit.service,
+                "Actuator": u.unit.actuator, "Torque midships [kNm]": k(c.torque_midships),
+                "Torque at max angle [kNm]": k(c.torque_max_angle), "Swing 35-30 one pump [s]": s(c.swing_time_one_pump),
+                "Swing 35-30 all pumps [s]": s(c.swing_time_all_pumps), "Swing judged [s]": s(c.swing_time_judged),
+                "Judged on": c.judging_case, "Limit [s]": 28 if u.unit.is_steering else None,
+                "28 s rule": yes[c.swing_rule_met], "Travel [mm]": None if c.travel is None else round(c.travel * 1000),
+                "Stroke [mm]": None if c.stroke is None else round(c.stroke * 1000), "Travel within stroke": yes[c.travel_ok],
+                "Working pressure [bar]": round(u.unit.working_pressure / PA_PER_BAR, 1),
+                "Pressure within ratings": yes[c.pressure_ok], "Warnings": " | ".join(u.warnings) or None,
+                "Torque basis": c.torque_basis, "Rudder torque ahead [kNm]": k(load and load.torque_ahead),
+                "Rudder torque astern [kNm]": k(load and load.torque_astern), "Gear torque at 35 deg [kNm]": k(c.gear_torque_35),
+                "Gear torque pressure [bar]": None if c.gear_torque_pressure is None else round(c.gear_torque_pressure / PA_PER_BAR, 1),
+                "Margin over rudder torque [%]": None if c.rudder_margin is None else round(100 * c.rudder_margin, 1),
+                "Rudder angle reachable [deg]": s(c.reachable_angle and math.degrees(c.reachable_angle)),
+                "Pump flow needed each [L/min]": s(c.pump_flow_needed and c.pump_flow_needed * L_MIN_PER_M3_S),
+                "Auxiliary steering gear required": None if not u.unit.is_steering else {
+                    True: "yes", False: "no", None: "unless 29.6.1.3 shown"}[c.auxiliary_gear_required],
+                "SOLAS II-1/29 verdicts": rule_summary(c.rules),
+                **dict(zip(RULE_COLUMNS, rule_cells(c.rules))),
+            }
+            sheet.append([values[name] for name, _, _ in CHECK_COLUMNS])
     sheet.finish()
 
 
-def _rudder_cells(c) -> list:
-    """Torque basis and the gear against the rudder (kNm, bar, %), blank where not worked out."""
-    load = c.rudder_load
-    k = lambda x: None if x is None else round(x / 1000, 1)  # noqa: E731
-    return [c.torque_basis, k(load and load.torque_ahead), k(load and load.torque_astern), k(c.gear_torque_35),
-            None if c.gear_torque_pressure is None else round(c.gear_torque_pressure / PA_PER_BAR, 1),
-            None if c.rudder_margin is None else round(100 * c.rudder_margin, 1)]
-
-
 MAX_VESSELS_LISTED = 12
-COVER_LINE_CHARS = 110
+COVER_LINE_CHARS = 90  # of the Value column's 100: bold text is wider, and a line never runs past the page
 
 
 def _long(sheet: _Sheet, item: str, text: str, header: bool = False) -> None:
@@ -354,8 +443,8 @@ def policy_groups(order: Order) -> list[tuple[str, list[str]]]:
     return list(found.items())
 
 
-def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
-    sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), header_row=False)
+def _cover(wb: Workbook, order: Order, days: float, scope: str, page: Page) -> None:
+    sheet = _Sheet(wb, "Cover", (("Item", 34, None), ("Value", 100, None)), page, header_row=False)
     policies = policy_groups(order)
     sheet.append(["Bill of materials: steering gear and hydraulic spares"], header=True)
     sheet.append(["Scope", scope])
@@ -468,17 +557,20 @@ def _date_rows(sheet: _Sheet, order: Order, n: int) -> None:
         sheet.append(["Order-by dates", "no delivery set for these vessels (kit delivery set)"])
 
 
-def write_workbook(order: Order, path: str | Path, days: float, scope: str) -> Path:
-    """Write the bill of materials workbook of ``order`` to ``path`` atomically."""
+def write_workbook(order: Order, path: str | Path, days: float, scope: str, paper: str = DEFAULT_PAPER) -> Path:
+    """Write the bill of materials workbook of ``order`` to ``path`` atomically, to print on
+    ``paper`` ("a4" or "letter") with ``scope`` and today's date in every page header."""
     path = Path(path)
+    page = Page(paper, scope, dt.date.today().isoformat())
     wb = Workbook(write_only=True)
-    _cover(wb, order, days, scope)
+    use_font(wb)
+    _cover(wb, order, days, scope, page)
     oil_rows = _oil_layout(order)
-    rows = _order_sheet(wb, order, oil_rows)
-    _split_sheet(wb, order)
-    _seal_sheet(wb, order)
-    _oil_filter_sheet(wb, order, rows, oil_rows)
-    _checks_sheet(wb, order)
+    rows = _order_sheet(wb, order, oil_rows, page)
+    _split_sheet(wb, order, page)
+    _seal_sheet(wb, order, page)
+    _oil_filter_sheet(wb, order, rows, oil_rows, page)
+    _checks_sheet(wb, order, page)
     save_atomically(wb, path)
     return path
 

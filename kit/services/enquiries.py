@@ -47,10 +47,11 @@ def _new_id(today: dt.date):
 
 def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, folder: str | Path,
                     reply_by: dt.date | None = None, policy_file: str | None = None,
-                    progress: Progress = no_progress) -> WrittenEnquiries:
+                    progress: Progress = no_progress, paper: str = "a4") -> WrittenEnquiries:
     """Build the order of the vessels (all, or ``vessel_ids``) over ``days`` and write one enquiry
     workbook per supplier it buys from, and one open enquiry for the lines no supplier offers, into
-    ``folder``; each line names the next delivery on board its vessels where one is set."""
+    ``folder``, to print on ``paper`` ("a4" or "letter"); each line names the next delivery on board
+    its vessels where one is set."""
     from catalog_schema.engine import write_transaction
     from kit.engine.enquiry import enquiries
     from kit.files.atomic import staged
@@ -69,7 +70,7 @@ def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, fold
     paths = [folder / name for name in file_names([e.supplier for e in found])]
     for path in paths:
         refuse_bad_target(path)
-    with staged([(path, enquiry_writer(e)) for e, path in zip(found, paths)]) as publish:
+    with staged([(path, enquiry_writer(e, paper)) for e, path in zip(found, paths)]) as publish:
         write_transaction(engine, lambda conn: record_enquiries(conn, found))
         publish()
     skipped = sum(1 for line in order.lines if line.to_order <= 0)

@@ -8,14 +8,16 @@ from pathlib import Path
 from sqlalchemy.engine import Engine
 
 
-def write_particulars_template(out: str | Path, from_toml: str | Path | None = None) -> None:
-    """The particulars workbook ``out`` (.xlsx), filled from a .toml particulars file when given."""
+def write_particulars_template(out: str | Path, from_toml: str | Path | None = None, paper: str = "a4") -> None:
+    """The particulars workbook ``out`` (.xlsx), filled from a .toml particulars file when given,
+    to print on ``paper`` ("a4" or "letter")."""
     from kit.files.particulars_sheet import write_particulars_template as write
 
-    write(out, from_toml)
+    write(out, from_toml, paper)
 
 
-def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = None, days: float | None = None) -> int:
+def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = None, days: float | None = None,
+                         paper: str = "a4") -> int:
     """The stock sheet ``out`` (.xlsx or .csv); return how many part rows it has.
 
     With ``vessel``: its count sheet (:func:`count_sheet`, ``days`` the voyage). Without: one row
@@ -25,7 +27,7 @@ def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = N
         from kit.safety import SAFETY
 
         count = count_sheet(engine, vessel, 0.0 if days is None else days)
-        write_count_sheet(out, count, SAFETY)
+        write_count_sheet(out, count, SAFETY, paper)
         return len(count.lines)
     from kit.files.sheets import write_sheet
     from kit.files.stock_sheet import stock_sheet
@@ -35,7 +37,7 @@ def write_stock_template(engine: Engine, out: str | Path, vessel: str | None = N
 
     with engine.connect() as conn:
         sheet = stock_sheet(stock_rows(conn, vessel and resolve_vessel_id(conn, vessel)))
-    write_sheet(out, sheet)
+    write_sheet(out, sheet, "Stock sheet (template)", paper)
     return len(sheet.rows)
 
 
@@ -86,9 +88,9 @@ def count_sheet(engine: Engine, vessel_id: str, days: float):
     return CountSheet(vessel.id, vessel.name, days, today, rows, filters)
 
 
-def write_catalogue_template(out: str | Path) -> None:
-    """An empty catalogue sheet ``out`` (.xlsx or .csv) with kit's column names and notes."""
+def write_catalogue_template(out: str | Path, paper: str = "a4") -> None:
+    """An empty catalogue sheet ``out`` (.xlsx or .csv) with kit's column names and notes, to print on ``paper``."""
     from kit.files.catalogue_sheet import COLUMNS, NOTES, SHEET
     from kit.files.sheets import Sheet, write_sheet
 
-    write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES))
+    write_sheet(out, Sheet(SHEET, COLUMNS, (), NOTES), "Catalogue (template)", paper)
