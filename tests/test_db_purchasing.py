@@ -176,6 +176,17 @@ def test_supplier_list_prefer_and_undo(fleet):
     assert [row[2] for row in dump(fleet.engine, ["suppliers"])["suppliers"]] == [False, False]
 
 
+def test_prefer_for_a_part_the_supplier_does_not_offer_says_so(fleet):
+    # Quillon Marine's catalogue offers keys[0] only: the preference is kept (a catalogue may come
+    # later) but the purchaser is told it cannot choose that supplier yet
+    assert ok(fleet, "supplier", "prefer", "Quillon Marine", "--part", fleet.keys[1]) == (
+        f"Quillon Marine: preferred for {fleet.keys[1]}\n"
+        "  note: Quillon Marine offers nothing for this part (no catalogue entry or quoted reply matches it): "
+        "the order chooses among the other offers until it does\n")
+    assert ok(fleet, "supplier", "prefer", "Quillon Marine", "--part", fleet.keys[0]) == (
+        f"Quillon Marine: preferred for {fleet.keys[0]}\n")
+
+
 def test_supplier_refusals_name_what_to_look_at(fleet):
     ok(fleet, "supplier", "prefer", "Skerrow Seal Supply", "--part", fleet.keys[1], "--note", "kept")
     fleet.refused(["supplier", "prefer", "Harlow Seals"],

@@ -304,3 +304,20 @@ def test_open_reply_needs_the_suppliers_name(fleet, tmp_path):
     assert (result.exit_code, result.output) == (
         2, f"kit: error: {reply}, sheet Enquiry: Your company name: expected the name of the supplier replying to this "
            "open enquiry (got None)\n")
+
+
+def test_an_enquiry_reference_already_stored_is_drawn_again(fleet, tmp_path, monkeypatch):
+    # References are E, the date and 3 random bytes: a draw that repeats a stored one (1 in 16.7
+    # million a pair) is drawn again, not refused by the database's unique key.
+    import kit.services.enquiries as service
+
+    db, engine, _ = fleet
+    draws = iter(["00000A", "00000B", "00000C"])
+    monkeypatch.setattr(service.secrets, "token_hex", lambda n: next(draws))
+    first = {_enquiry_id(p) for p in _write(db, tmp_path / "one").values()}
+    draws = iter(["00000A", "00000B", "00000D", "00000C", "00000E", "00000F"])
+    second = {_enquiry_id(p) for p in _write(db, tmp_path / "two").values()}
+    today = f"E{dt.date.today():%y%m%d}"
+    assert first == {f"{today}-00000A", f"{today}-00000B", f"{today}-00000C"}
+    assert second == {f"{today}-00000D", f"{today}-00000E", f"{today}-00000F"}
+    assert len(dump(engine, ["enquiries"])["enquiries"]) == 6

@@ -184,13 +184,14 @@ class Preference:
     part_key: str | None  # None: preferred for everything it offers
     done: bool  # False: nothing changed (already so, or nothing to undo)
     replaced: str | None = None  # the supplier preferred for that part before
+    offered: bool = True  # False: the supplier offers nothing for that part (yet), so it cannot be chosen
 
 
 def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, note: str | None = None) -> Preference:
     """Prefer ``supplier`` over price: for everything it offers, or with ``part_key`` for that one
     part (one supplier per part; it wins over a supplier preferred for everything)."""
     from catalog_schema.engine import write_transaction
-    from kit.store.purchasing_records import prefer_for_part, set_preferred
+    from kit.store.purchasing_records import offers_part, prefer_for_part, set_preferred
 
     name = _text(supplier, "supplier name", required=True)
     key = _text(part_key, "part key", required=True)
@@ -202,7 +203,7 @@ def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, 
         if key is None:
             return Preference(name, None, not set_preferred(conn, name, True))
         before = prefer_for_part(conn, name, key, remark)
-        return Preference(name, key, True, before if before != name else None)
+        return Preference(name, key, True, before if before != name else None, offers_part(conn, name, key))
 
     return write_transaction(engine, work)
 

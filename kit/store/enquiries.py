@@ -28,6 +28,11 @@ def next_deliveries(conn: Connection, vessel_ids: Iterable[str], today: dt.date)
     return found
 
 
+def enquiry_ids_starting(conn: Connection, prefix: str) -> set[str]:
+    """The references of the enquiries stored that start with ``prefix`` (a day's, ``E261202-``)."""
+    return set(conn.execute(select(ENQUIRIES.c.id).where(ENQUIRIES.c.id.startswith(prefix, autoescape=True))).scalars())
+
+
 def record_enquiries(conn: Connection, written: Iterable[Enquiry]) -> None:
     """Record each enquiry and its lines (with the part keys they ask for), in the caller's transaction."""
     written = list(written)

@@ -125,6 +125,13 @@ def prefer_for_part(conn: Connection, supplier: str, key: str, note: str | None)
     return before
 
 
+def offers_part(conn: Connection, supplier: str, key: str) -> bool:
+    """Whether ``supplier``'s catalogue (imported or from replies) has an entry for the part keyed ``key``."""
+    query = (select(CATALOGUE_ENTRIES.c.id).where(CATALOGUE_ENTRIES.c.supplier_id == supplier_id(conn, supplier),
+                                                  CATALOGUE_ENTRIES.c.part_key == key).limit(1))
+    return conn.execute(query).first() is not None
+
+
 def unprefer_for_part(conn: Connection, supplier: str, key: str) -> bool:
     """Drop ``supplier`` as the one preferred for the part keyed ``key``; whether it was."""
     sid, pid = supplier_id(conn, supplier), part_id(conn, key)
