@@ -221,3 +221,26 @@ def test_nothing_to_order_has_no_date_and_can_be_left_out(policy):
 def test_choose_without_offers_is_none():
     assert choose("rod_seal:x", 3, [], Purchasing(TODAY), "EUR", ["A"]) is None
     assert PackPlan(0, ()).describe() == "none"
+
+
+@pytest.mark.parametrize("rate", [None, 0.92])
+def test_a_suppliers_oil_packs_in_two_currencies_are_planned_in_one(policy, rate):
+    # One supplier's pail in EUR and drum in USD: a plan bought in one currency, so the line's price
+    # is a sum of prices in one currency (never EUR and USD added) and the workbook's subtotals add up.
+    results = [assess_vessel(vessel("ALPHA"), 30, policy)]
+    key = next(li.key for li in results[0].lines if li.kind == "oil")
+    mixed = [Offer("Mixed", "M-20", 20.0, "20 L", 96.0, "EUR", 7), Offer("Mixed", "M-208", 208.0, "208 L", 700.0, "USD", 7)]
+    order = consolidate(results, {}, {key: mixed}, eur_base(rate))
+    (oil,) = order.oil
+    line = next(li for li in order.lines if li.kind == "oil")
+    bought = [p for p in oil.plan.packs if p.count]
+    assert {p.offer.currency for p in bought} == {line.currency}
+    assert line.line_total == pytest.approx(sum(p.count * p.offer.price for p in bought))
+    assert oil.to_order_l <= oil.plan.supply
+    eur_only = brute_force(oil.to_order_l, [(20.0, 96.0)])
+    usd_only = brute_force(oil.to_order_l, [(208.0, 700.0)])
+    if rate is None:  # the USD drum cannot be compared: the plan in the base currency, least price
+        assert (line.currency, line.line_total) == ("EUR", pytest.approx(eur_only))
+        assert order.missing_rates == ("USD",)
+    else:  # both compared in EUR: the cheaper of the two plans
+        assert line.line_total_base == pytest.approx(min(eur_only, usd_only * rate))

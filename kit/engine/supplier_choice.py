@@ -21,7 +21,9 @@ The rules, in order (our own, written for a ship manager's purchasing office; RE
 4. **Oil packs.** Oil is planned once per fluid over the whole order in the chosen supplier's packs:
    the cheapest mix that is never short and overshoots by less than the supplier's smallest pack
    (:func:`cheapest_mix`); where no pack is offered, the policy's packages
-   (:func:`kit.engine.oil.plan_packages`).
+   (:func:`kit.engine.oil.plan_packages`). A plan is bought in one currency: a supplier whose packs
+   of one fluid are priced in two currencies offers two plans, compared as two offers are (so an
+   unconvertible currency's packs never mix into a plan priced in another).
 """
 
 from __future__ import annotations
@@ -239,11 +241,13 @@ def plan_in_offers(need: float, offers: Sequence[Offer], comparing: str | None, 
 
 
 def _oil_candidates(to_order: float, offers: Sequence[Offer], comparing, purchasing) -> list[Candidate]:
-    by_supplier: dict[str, list[Offer]] = {}
+    """One candidate per supplier and currency: a plan is bought in one currency, so its price is a
+    sum in that currency (a supplier's packs in two currencies are two plans, compared as any two)."""
+    by_supplier: dict[tuple[str, str | None], list[Offer]] = {}
     for o in offers:
-        by_supplier.setdefault(o.supplier, []).append(o)
+        by_supplier.setdefault((o.supplier, o.currency), []).append(o)
     out = []
-    for supplier, own in by_supplier.items():
+    for (supplier, _), own in by_supplier.items():
         plan = plan_in_offers(to_order, own, comparing, purchasing)
         bought = [p.offer for p in plan.packs if p.count] or own
         leads = [o.lead_time_days for o in bought]
