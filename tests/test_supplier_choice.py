@@ -244,3 +244,21 @@ def test_a_suppliers_oil_packs_in_two_currencies_are_planned_in_one(policy, rate
         assert order.missing_rates == ("USD",)
     else:  # both compared in EUR: the cheaper of the two plans
         assert line.line_total_base == pytest.approx(min(eur_only, usd_only * rate))
+
+
+def test_oil_is_registered_by_its_fluid_and_its_order_line_says_what_it_covers(policy):
+    # The generic part is the fluid (ISO 6743-4 family and ISO 3448 grade); what the order buys it
+    # for, the storage tank charge (SOLAS II-1/29.12.3) and the top-up for the period, is the line's.
+    from kit.engine.requirements import kept_parts
+
+    result = assess_vessel(vessel("ALPHA"), 30, policy)
+    roles = {li.role for li in result.lines if li.kind == "oil"}
+    assert roles == {"storage", "top-up"}  # a steering unit that leaks: both
+    (fluid,) = {li.designation.split(",")[0] for li in result.lines if li.kind == "oil"}
+    assert {li.designation for li in kept_parts(result) if li.kind == "oil"} == {fluid}
+    order = consolidate([result], {}, {}, Purchasing(TODAY))
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert line.designation == f"{fluid}, storage tank charge and top-up for 30 days"
+    result.units[0].lines[:] = [li for li in result.units[0].lines if li.role != "storage"]  # top-up only
+    line = next(li for li in consolidate([result], {}, {}, Purchasing(TODAY)).lines if li.kind == "oil")
+    assert line.designation == f"{fluid}, top-up for 30 days"

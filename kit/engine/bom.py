@@ -237,7 +237,11 @@ def consolidate(results: list[VesselResult], on_board: Mapping[tuple[str, str], 
         if is_oil:
             plan = choice.plan if choice else policy_plan(to_order, packages)
             oil.append(OilOrder(key, first.designation.split(",")[0], required, stock, plan))
-        lines.append(OrderLine(0, key, first.kind, first.designation, first.standard, dict(first.dims), first.compound,
+        designation = first.designation
+        if is_oil:  # the fluid, then what it is bought for: the storage tank charge and/or the top-up
+            what = [i.designation.split(", ", 1)[1] for _, i in items if ", " in i.designation]
+            designation = ", ".join([first.designation.split(", ", 1)[0]] + ([" and ".join(dict.fromkeys(what))] if what else []))
+        lines.append(OrderLine(0, key, first.kind, designation, first.standard, dict(first.dims), first.compound,
                                first.uom, _join([i.basis for _, i in items]), required, stock, dict(split),
                                choice, plan))
     for n, line in enumerate(lines, 1):
