@@ -58,7 +58,8 @@ def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, fold
     from kit.files.enquiry_workbook import enquiry_writer, file_names
     from kit.files.output_targets import check_folder, refuse_bad_target
     from kit.services.orders import build_order
-    from kit.store.enquiries import enquiry_ids_starting, next_deliveries, record_enquiries
+    from kit.store.enquiries import enquiry_ids_starting, record_enquiries
+    from kit.store.purchasing_store import next_deliveries
 
     folder = Path(folder)
     check_folder(folder)
