@@ -282,6 +282,12 @@ def test_refused_replies_store_nothing(fleet, tmp_path, change):
     (("QS-X", 9.5, "XYZ", "2 pcs", 3, None), "Currency", None),
     ((None, 9.5, "EUR", "2 pcs", 3, None), "Your part number", "your part number for a line you quote"),
     (("QS-X", -1, "EUR", "2 pcs", 3, None), "Unit price (per your pack)", None),
+    # a quote with no price (or a formula saved without its value) would replace the supplier's
+    # priced offer for that part with an unpriced one: refused
+    (("QS-X", None, "EUR", "2 pcs", 3, None), "Unit price (per your pack)",
+     "your unit price per your pack for a line you quote (a number; a formula's value must be saved with it) (got an empty cell)"),
+    (("QS-X", "=2*4", "EUR", "2 pcs", 3, None), "Unit price (per your pack)",
+     "your unit price per your pack for a line you quote (a number; a formula's value must be saved with it) (got an empty cell)"),
 ])
 def test_bad_reply_cells_are_refused_like_a_catalogues(fleet, tmp_path, quote, column, expected):
     db, engine, _ = fleet
