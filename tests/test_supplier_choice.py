@@ -262,3 +262,32 @@ def test_oil_is_registered_by_its_fluid_and_its_order_line_says_what_it_covers(p
     result.units[0].lines[:] = [li for li in result.units[0].lines if li.role != "storage"]  # top-up only
     line = next(li for li in consolidate([result], {}, {}, Purchasing(TODAY)).lines if li.kind == "oil")
     assert line.designation == f"{fluid}, top-up for 30 days"
+
+
+def test_a_late_drum_does_not_hide_the_same_suppliers_pails_that_arrive_in_time(policy):
+    # Rule 3 over pack plans: Quick Pails' drum (30 days) would make its cheapest plan late, but its
+    # pails alone (3 days) arrive in time and cost less than the other supplier's pails.
+    results = [assess_vessel(vessel("ALPHA"), 30, policy)]
+    key = next(li.key for li in results[0].lines if li.kind == "oil")
+    offers = [Offer("Quick Pails", "Q-20", 20.0, "20 L", 96.0, "EUR", 3), Offer("Quick Pails", "Q-208", 208.0, "208 L", 800.0, "EUR", 30),
+              Offer("Other", "O-20", 20.0, "20 L", 99.0, "EUR", 10)]
+    due = TODAY + dt.timedelta(days=20)
+    purchasing = Purchasing(TODAY, "EUR", handling_days=7, deliveries={"ALPHA": Delivery("ALPHA", "Rotterdam", due)})
+    order = consolidate(results, {}, {key: offers}, purchasing)
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert (line.supplier, line.late) == ("Quick Pails", False)
+    assert {p.label for p in line.plan.packs if p.count} == {"20 L"}
+    assert line.line_total == pytest.approx(brute_force(line.to_order, [(20.0, 96.0)]))
+    assert line.order_by == due - dt.timedelta(days=3 + 7)
+    # Without a delivery date the cheapest plan, drums and all.
+    order = consolidate(results, {}, {key: offers}, Purchasing(TODAY, "EUR"))
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert line.line_total == pytest.approx(brute_force(line.to_order, [(20.0, 96.0), (208.0, 800.0)]))
+    # Nothing in time: the fastest plan, marked late.
+    tight = Purchasing(TODAY, "EUR", handling_days=7, deliveries={"ALPHA": Delivery("ALPHA", "Rotterdam", TODAY + dt.timedelta(days=5))})
+    line = next(li for li in consolidate(results, {}, {key: offers}, tight).lines if li.kind == "oil")
+    assert (line.supplier, line.late, line.earliest_arrival) == ("Quick Pails", True, TODAY + dt.timedelta(days=3 + 7))
+    # One supplier's plans are still its only offer.
+    line = next(li for li in consolidate(results, {}, {key: offers[:2]}, purchasing).lines if li.kind == "oil")
+    assert (line.supplier, line.reason, line.late) == ("Quick Pails", "only offer", False)
+    assert {p.label for p in line.plan.packs if p.count} == {"20 L"}
