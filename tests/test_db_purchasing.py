@@ -281,3 +281,13 @@ def test_a_policy_file_states_no_days_of_cover(fleet):
     policy = fleet.file("p.toml", '[policy]\nname = "two sets"\nspare_filter_sets = 2\n')
     fleet.refused(["bom", "--policy", policy, "--out", fleet.folder / "o.xlsx"], line)
     assert not (fleet.folder / "o.xlsx").exists()
+
+
+def test_a_supplier_is_the_same_in_any_letter_case(fleet, tmp_path):
+    # As vessel ids: a supplier typed in other letter case (a command, a catalogue import, an open
+    # enquiry's reply) is the supplier already stored, never a second one.
+    assert ok(fleet, "supplier", "prefer", "quillon  MARINE") == "Quillon Marine: preferred for everything it offers\n"
+    fleet.file("cat3.csv", f"supplier_ref,part_key,price,currency\nQ-2,{fleet.keys[1]},8,USD\n")
+    assert ok(fleet, "catalogue", "import", tmp_path / "cat3.csv", "--supplier", "QUILLON MARINE").startswith("Quillon Marine: 1 row(s)")
+    assert ok(fleet, "supplier", "list") == ("Quillon Marine\t1 entries, 1 matched\tpreferred\n"
+                                             "Skerrow Seal Supply\t3 entries, 2 matched\t-\n")

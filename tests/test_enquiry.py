@@ -302,6 +302,15 @@ def test_bad_reply_cells_are_refused_like_a_catalogues(fleet, tmp_path, quote, c
     assert dump(engine) == before
 
 
+def test_an_open_reply_from_a_known_supplier_in_other_letter_case_is_that_supplier(fleet, tmp_path):
+    db, engine, _ = fleet
+    files = _write(db, tmp_path / "enquiries")
+    reply = _fill(files["any-supplier"], tmp_path / "reply.xlsx", {0: ("HB-F1", 4.5, "EUR", None, 5, None)}, SPARES.upper())
+    result = kit(db, "enquiry", "read", str(reply))
+    assert result.exit_code == 0 and result.output.startswith(f"{SPARES}: enquiry "), result.output
+    assert sorted(row[1] for row in dump(engine, ["suppliers"])["suppliers"]) == sorted([SEALS, SPARES])
+
+
 def test_open_reply_needs_the_suppliers_name(fleet, tmp_path):
     db, engine, _ = fleet
     path = _write(db, tmp_path / "enquiries")["any-supplier"]

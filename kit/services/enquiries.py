@@ -105,5 +105,5 @@ def read_enquiry_reply(engine: Engine, path: str | Path) -> ReplyReport:
     report = None
     if checked.quoted:
         report = write_transaction(engine, lambda conn: write_catalogue(conn, checked.catalogue, whole=False))
-    return ReplyReport(reply.enquiry_id, checked.catalogue.supplier, checked.quoted, checked.skipped,
+    return ReplyReport(reply.enquiry_id, report.supplier if report else checked.catalogue.supplier, checked.quoted, checked.skipped,
                        report.unmatched if report else [])

@@ -191,15 +191,16 @@ def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, 
     """Prefer ``supplier`` over price: for everything it offers, or with ``part_key`` for that one
     part (one supplier per part; it wins over a supplier preferred for everything)."""
     from catalog_schema.engine import write_transaction
-    from kit.store.purchasing_records import offers_part, prefer_for_part, set_preferred
+    from kit.store.purchasing_records import offers_part, prefer_for_part, set_preferred, supplier_named
 
-    name = _text(supplier, "supplier name", required=True)
+    given = _text(supplier, "supplier name", required=True)
     key = _text(part_key, "part key", required=True)
     remark = _text(note, "note")
     if key is None and remark is not None:
         raise ArgumentError("", "note", "a note only with a part (a preference for one part)", got=repr(remark))
 
     def work(conn):
+        name = supplier_named(conn, given) or given
         if key is None:
             return Preference(name, None, not set_preferred(conn, name, True))
         before = prefer_for_part(conn, name, key, remark)
@@ -211,12 +212,13 @@ def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, 
 def unprefer_supplier(engine: Engine, supplier: str, part_key: str | None = None) -> Preference:
     """Undo :func:`prefer_supplier`: for everything, or with ``part_key`` for that part only."""
     from catalog_schema.engine import write_transaction
-    from kit.store.purchasing_records import set_preferred, unprefer_for_part
+    from kit.store.purchasing_records import set_preferred, supplier_named, unprefer_for_part
 
-    name = _text(supplier, "supplier name", required=True)
+    given = _text(supplier, "supplier name", required=True)
     key = _text(part_key, "part key", required=True)
 
     def work(conn):
+        name = supplier_named(conn, given) or given
         if key is None:
             return Preference(name, None, set_preferred(conn, name, False))
         return Preference(name, key, unprefer_for_part(conn, name, key))

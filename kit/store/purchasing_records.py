@@ -90,9 +90,20 @@ LOOK_UP_SUPPLIERS = "the name of a supplier in the fleet database (kit supplier 
 LOOK_UP_PARTS = "the key of a generic part in the fleet database (kit parts list shows them; kit parts register adds them)"
 
 
+def supplier_named(conn: Connection, name: str) -> str | None:
+    """The stored name of the supplier called ``name``: the same name, else the one name equal to it
+    in any letter case and spacing (as a vessel id in any case is that vessel); None when none is."""
+    if conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == name)).first() is not None:
+        return name
+    wanted = " ".join(name.split()).casefold()
+    found = [n for n in conn.execute(select(SUPPLIERS.c.name)).scalars() if " ".join(n.split()).casefold() == wanted]
+    return found[0] if len(found) == 1 else None
+
+
 def supplier_id(conn: Connection, name: str) -> int:
-    """The id of the supplier called ``name``, or :class:`ArgumentError` ("supplier name")."""
-    found = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == name)).scalar()
+    """The id of the supplier called ``name`` (in any letter case, :func:`supplier_named`), or
+    :class:`ArgumentError` ("supplier name")."""
+    found = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == (supplier_named(conn, name) or name))).scalar()
     if found is None:
         raise ArgumentError("", "supplier name", LOOK_UP_SUPPLIERS, got=repr(name))
     return found
