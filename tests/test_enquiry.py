@@ -336,3 +336,13 @@ def test_an_enquiry_reference_already_stored_is_drawn_again(fleet, tmp_path, mon
     assert first == {f"{today}-00000A", f"{today}-00000B", f"{today}-00000C"}
     assert second == {f"{today}-00000D", f"{today}-00000E", f"{today}-00000F"}
     assert len(dump(engine, ["enquiries"])["enquiries"]) == 6
+
+
+def test_a_reply_by_date_already_past_is_refused(fleet, tmp_path):
+    db, engine, _ = fleet
+    before = dump(engine)
+    yesterday = dt.date.today() - dt.timedelta(days=1)
+    result = kit(db, "enquiry", "write", "--out", str(tmp_path / "e"), "--days", "180", "--reply-by", yesterday.isoformat())
+    assert (result.exit_code, result.output) == (
+        2, f"kit: error: kit enquiry write: --reply-by: expected today ({dt.date.today()}) or later (got {yesterday})\n")
+    assert dump(engine) == before and not (tmp_path / "e").exists()

@@ -61,10 +61,14 @@ def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, fold
     from kit.store.enquiries import enquiry_ids_starting, record_enquiries
     from kit.store.purchasing_store import next_deliveries
 
+    today = dt.date.today()
+    if reply_by is not None and reply_by < today:
+        from kit.errors import ArgumentError
+
+        raise ArgumentError("", "reply-by date", f"today ({today.isoformat()}) or later", got=reply_by.isoformat())
     folder = Path(folder)
     check_folder(folder)
     order, scope = build_order(engine, vessel_ids, days, None, policy_file, progress)
-    today = dt.date.today()
     with engine.connect() as conn:
         deliveries = next_deliveries(conn, order.vessel_ids, today)
         taken = enquiry_ids_starting(conn, f"E{today:%y%m%d}-")
