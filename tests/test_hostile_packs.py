@@ -98,3 +98,13 @@ def test_plain_packs_are_read_in_the_parts_unit(fleet):
     assert got["A1"][0] == pytest.approx(18.92705892, abs=1e-6) and got["A1"][1] == "5 US_gal"
     assert got["A2"][:2] == (208.0, "208 L") and got["A3"] == (10.0, "10 pcs", 10)
     assert got["A4"] == (None, None, 3)  # pack_qty still counts pieces
+
+
+def test_an_empty_pack_cell_is_named_as_such():
+    # an oil line of a reply with its pack left empty: the message says so, not "None"
+    from kit.errors import InputError
+    from kit.files.packs import read_pack
+
+    with pytest.raises(InputError) as refused:
+        read_pack(None, "L", "reply.xlsx, sheet Lines, row 2", "column Your pack")
+    assert str(refused.value) == f"reply.xlsx, sheet Lines, row 2: column Your pack: expected {VOLUME} (got an empty cell)"

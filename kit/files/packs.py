@@ -63,7 +63,7 @@ def read_pack(text: object, uom: str, source: str, field: str) -> tuple[float, s
     """
     want = _want(uom)
     if isinstance(text, bool) or not isinstance(text, str):
-        raise InputError(source, field, want, got=repr(text))
+        raise InputError(source, field, want, got="an empty cell" if text is None else repr(text))
     label = " ".join(text.split())
     if not label or len(label) > MAX_TEXT:
         raise InputError(source, field, want, got=repr(label[:MAX_TEXT] + ("..." if len(label) > MAX_TEXT else "")))
