@@ -291,3 +291,18 @@ def test_a_supplier_is_the_same_in_any_letter_case(fleet, tmp_path):
     assert ok(fleet, "catalogue", "import", tmp_path / "cat3.csv", "--supplier", "QUILLON MARINE").startswith("Quillon Marine: 1 row(s)")
     assert ok(fleet, "supplier", "list") == ("Quillon Marine\t1 entries, 1 matched\tpreferred\n"
                                              "Skerrow Seal Supply\t3 entries, 2 matched\t-\n")
+
+
+def test_registering_again_gives_an_oil_part_its_fluid_alone(fleet):
+    # A database registered before an oil part was its fluid alone (it kept the first unit's
+    # "storage tank charge" or "top-up for N days") is put right by registering again.
+    from sqlalchemy import select, update
+
+    from catalog_schema.core_tables import PARTS
+
+    key = next(k for k in fleet.keys if k.startswith("oil:"))
+    with fleet.engine.begin() as conn:
+        conn.execute(update(PARTS).where(PARTS.c.key == key).values(designation="hydraulic oil HM 46, storage tank charge"))
+    ok(fleet, "parts", "register")
+    with fleet.engine.connect() as conn:
+        assert conn.execute(select(PARTS.c.designation).where(PARTS.c.key == key)).scalar() == "hydraulic oil HM 46"
