@@ -60,15 +60,20 @@ def shown(url: str) -> str:
         return url
 
 
+def parse_url(url: str):
+    """``url`` parsed (an SQLAlchemy URL), refused as no database URL or path when it is none."""
+    try:
+        return make_url(url)
+    except ArgumentError:
+        raise DatabaseError(url, "not a database URL or path", "give a file path or e.g. postgresql+psycopg://user@host/db") from None
+
+
 def make_engine(url: str, busy_timeout_ms: int = BUSY_TIMEOUT_MS) -> Engine:
     """Open an engine on ``url`` with the settings two processes need to share it.
 
     ``busy_timeout_ms`` is how long a SQLite writer waits for another's lock before giving up.
     """
-    try:
-        parsed = make_url(url)
-    except ArgumentError:
-        raise DatabaseError(url, "not a database URL or path", "give a file path or e.g. postgresql+psycopg://user@host/db") from None
+    parsed = parse_url(url)
     backend = parsed.get_backend_name()
     if backend == "sqlite":
         return _sqlite_engine(url, parsed.database, busy_timeout_ms)

@@ -96,13 +96,16 @@ def test_negative_days_are_refused():
         assess_vessel(vessel(ram_unit()), -1, POLICY)
 
 
-def _fleet_order(*units: dict) -> dict[str, list]:
-    """Two or more one-unit vessels consolidated: designation -> (quantity, vessels) of each spare and filter line."""
+def _fleet_order(*units: dict, sisters: bool = False) -> dict[str, list]:
+    """Two or more one-unit vessels consolidated: designation -> (quantity, vessels) of each spare and
+    filter line. Unless ``sisters``, each vessel's gross tonnage differs by a tonne, so that vessels
+    with alike units are no series of hulls (kit.engine.series_of_hulls) and keep their own parts apart."""
     from dataclasses import replace
 
     from kit.engine.bom import consolidate
 
-    results = [assess_vessel(replace(vessel(u), id=f"V{i}"), 90, POLICY) for i, u in enumerate(units, 1)]
+    results = [assess_vessel(replace(vessel(u, gross_tonnage=8000 + (0 if sisters else i)), id=f"V{i}"), 90, POLICY)
+               for i, u in enumerate(units, 1)]
     return {line.designation: (line.required, sorted(line.split)) for line in consolidate(results).lines
             if line.kind in ("spare", "filter_element")}
 
@@ -125,6 +128,10 @@ def test_without_makers_each_units_valve_kit_is_its_own_line_naming_vessel_and_u
     lines = _fleet_order(ram_unit(), ram_unit())
     assert lines["valve block seal kit, steering unit SG1, vessel V1"] == (1, ["V1"])
     assert lines["valve block seal kit, steering unit SG1, vessel V2"] == (1, ["V2"])
+    # sister ships built alike: each hull's own kit is the first hull's part, one line for the series
+    sisters = _fleet_order(ram_unit(), ram_unit(), sisters=True)
+    assert sisters["valve block seal kit, steering unit SG1, each hull of the V1 series"] == (2, ["V1", "V2"])
+    assert not any("vessel V" in d for d in sisters)
 
 
 def test_pump_shaft_seals_of_two_makers_stay_apart_and_name_them():

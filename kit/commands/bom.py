@@ -18,13 +18,14 @@ from kit.commands.common import Days, db_option, default_days
               help="Workbook to write (.xlsx); never the fleet database, a device, a folder or a read-only file.")
 @click.option("--csv", "csv_out", type=click.Path(), help="Also write the order lines as CSV.")
 @click.option("--json", "json_out", type=click.Path(), help="Also write the order as JSON.")
-@click.option("--particulars", type=click.Path(exists=False), help="Read vessels from a .toml file or folder instead of "
-              "the database (no stock, no catalogue: a first list for a new-build series).")
+@click.option("--particulars", type=click.Path(exists=False), help="Read vessels from particulars instead of the fleet "
+              "database: a .toml file, a particulars workbook (.xlsx, see kit template particulars) or a folder of both "
+              "(no stock, no catalogue, no database opened or made: a first list for a new-build series).")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
 @click.option("--only-to-order", "to_order_only", is_flag=True,
               help="Leave out the lines with nothing to order (workbook, CSV and JSON).")
-@db_option()
+@db_option(unless="particulars")
 def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_file, to_order_only) -> None:
     """Write the bill of materials: what the vessels need for the period, less what is on board,
     with the same generic part across units and vessels on one line and its split per vessel, oil
@@ -42,6 +43,9 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
     days of cover of the policies in force (the largest where the vessels' differ, said on stderr).
     Ends with the totals (lines, lines to order, the priced lines' total per currency) and the
     warnings that matter: lines to order with no catalogue price and rule checks of the gear not met.
+
+    Sister ships built alike (same units, particulars and spares policy; ids and names aside) are
+    one series: a line all its hulls need alike gives "Per hull" and "Hulls" beside "Required".
 
     Example: kit bom --days 180 --out fleet-order.xlsx
     """

@@ -21,7 +21,8 @@ from kit.commands.common import Days, reports_errors
 @reports_errors
 def calc(particulars: str, days: float, policy_file: str | None, as_json: bool) -> None:
     """Work out seal housings and sizes, oil quantities, filter elements, recommended spares and
-    physics checks (torque, SOLAS 28 s swing time, stroke) for the vessel in PARTICULARS.
+    physics checks (torque, SOLAS 28 s swing time, stroke) for the vessel in PARTICULARS: a .toml
+    file or a particulars workbook (.xlsx, see `kit template particulars`). No database is opened.
 
     Exits with status 2 and one line naming the file and field when the particulars are wrong.
 

@@ -186,11 +186,13 @@ def decimal_mark_option(func: Callable[..., Any]) -> Callable[..., Any]:
                              "mark is refused, never guessed.")(func)
 
 
-def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[..., Any]]:
+def db_option(migrate: bool = True, unless: str | None = None) -> Callable[[Callable[..., Any]], Callable[..., Any]]:
     """Add ``--db`` (or env var ``KIT_DB``) and hand the command an open ``engine``.
 
     The value is a SQLite file path or a database URL; without one, kit's default SQLite file.
     With ``migrate`` a fresh database is built first and one at an old schema is refused.
+    When the command's parameter ``unless`` is given (``bom --particulars``) the command needs no
+    database: none is opened or made (not even its folder) and ``engine`` is None.
     Errors, including the database's own, become one line and exit status 2. No file the
     command writes may be the database (:func:`kit.files.output_targets.protecting`).
     """
@@ -200,12 +202,16 @@ def db_option(migrate: bool = True) -> Callable[[Callable[..., Any]], Callable[.
         def wrapper(*args: Any, db: str | None, **kwargs: Any) -> Any:
             from sqlalchemy.exc import DBAPIError
 
-            from catalog_schema.engine import make_engine, resolve_url, shown
+            from catalog_schema.engine import make_engine, parse_url, resolve_url, shown
             from catalog_schema.errors import DatabaseError
             from catalog_schema.migrate import require_current
 
             from kit.files.output_targets import protecting
 
+            if unless is not None and kwargs.get(unless):
+                url = resolve_url(db)
+                with protecting(parse_url(url)):  # still no output may be the database's file
+                    return func(*args, engine=None, **kwargs)
             engine = make_engine(resolve_url(db))
             try:
                 if migrate:

@@ -133,13 +133,17 @@ RULES_LISTED = 10  # rule checks not met listed one a line; past this, a count
 
 def order_summary(order) -> list[str]:
     """The lines ``kit bom`` ends with (plain text, stored text made visible): the order's lines
-    and those with something to order, the total of the priced lines per currency (as the
+    and those with something to order, the series of sister ships, the total of the priced lines per currency (as the
     workbook's cover sums them), then the warnings that matter: lines to order with no catalogue
     price, and each rule check of the gear that is not met."""
     from kit.files.safe_text import visible
 
     to_order = [line for line in order.lines if line.to_order > 0]
     out = [f"{len(order.lines)} order line(s) for {len(order.results)} vessel(s), {len(to_order)} with something to order"]
+    for s in order.series[:RULES_LISTED]:
+        alike = sum(1 for line in order.lines if line.hulls == len(s.hulls) and s.lead in line.split)
+        out.append(visible(f"series {s.lead}: {len(s.hulls)} hulls built alike ({', '.join(s.hulls)}); "
+                           f"{alike} line(s) give the quantity per hull"))
     totals = order.totals_by_currency()
     if totals:
         out.append("total of priced lines: " + "; ".join(f"{totals[c]:,.2f} {visible(c) or '(no currency)'}" for c in sorted(totals)))

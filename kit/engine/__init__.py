@@ -12,6 +12,7 @@ One module per idea, data flowing one way:
 ``parts``, ``requirements``  a vessel and a period -> results and line items
 ``purchasing``  offers, exchange rates, preferred suppliers and deliveries, as plain values
 ``supplier_choice``  each line's supplier (money, preference, time), order-by dates, oil in offered packs
+``series_of_hulls``  sister ships built alike, and each order line's quantity per hull
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall and what it covered
 ``enquiry``  an order shaped into enquiries, one per supplier and one open; what a reply answers
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in

@@ -23,6 +23,7 @@ from kit.engine.oil import Package, plan_packages
 from kit.engine.parts import LineItem
 from kit.engine.purchasing import Delivery, Offer, Purchasing
 from kit.engine.requirements import VesselResult
+from kit.engine.series_of_hulls import HullSeries, find_series, per_hull, series_designation, shared_keys
 from kit.engine.supplier_choice import Choice, PackCount, PackPlan, choose, comparison_currency, rate_of
 
 
@@ -46,6 +47,8 @@ class OrderLine:
     split: dict[str, float] = field(default_factory=dict)
     choice: Choice | None = None
     plan: PackPlan | None = None
+    hulls: int | None = None  # the line's vessels are the hulls of one series, each needing per_hull
+    per_hull: float | None = None  # (kit.engine.series_of_hulls.per_hull); None otherwise
 
     @property
     def to_order(self) -> float:
@@ -161,6 +164,7 @@ class Order:
     purchasing: Purchasing | None = None
     currency: str | None = None
     missing_rates: tuple[str, ...] = ()
+    series: tuple[HullSeries, ...] = ()  # sister ships built alike (kit.engine.series_of_hulls)
 
     @property
     def vessel_ids(self) -> list[str]:
@@ -205,15 +209,20 @@ def consolidate(results: list[VesselResult], on_board: Mapping[tuple[str, str], 
     preferences and deliveries (none: today, nothing set). The supplier of each line is chosen by
     :func:`kit.engine.supplier_choice.choose`; oil is planned once per fluid in the chosen
     supplier's packs (the policy's packages where nothing is offered), and that one plan is the
-    line's and the fluid's.
+    line's and the fluid's. Sister ships built alike are a series (:mod:`kit.engine.series_of_hulls`):
+    each hull's own parts are one line with the first hull's, and a line the hulls of one series
+    need alike gives ``hulls`` and ``per_hull``.
     """
     on_board = on_board or {}
     offers = offers or {}
     purchasing = purchasing or Purchasing(dt.date.today())
+    series = find_series(results)
+    as_lead = shared_keys(results, series)
     grouped: dict[str, list[tuple[str, LineItem]]] = defaultdict(list)
     for r in results:
         for item in r.lines:
-            grouped[item.key].append((r.vessel.id, item))
+            grouped[as_lead.get((r.vessel.id, item.key), item.key)].append((r.vessel.id, item))
+    leads = {s.lead: s for s in series}
     currency = comparison_currency(purchasing, (o for k in grouped for o in offers.get(k, ())))
     lines: list[OrderLine] = []
     oil: list[OilOrder] = []
@@ -226,7 +235,8 @@ def consolidate(results: list[VesselResult], on_board: Mapping[tuple[str, str], 
         for vessel_id, item in items:
             split[vessel_id] += item.quantity
         vessels = list(split)
-        stock = sum(on_board.get((v, key), 0.0) for v in vessels)
+        # each hull's stock under its own part key (a hull's own part joined to the first hull's line)
+        stock = sum(on_board.get(pair, 0.0) for pair in dict.fromkeys((v, i.key) for v, i in items))
         required = sum(split.values())
         to_order = max(0.0, required - stock)
         is_oil = first.kind == "oil"
@@ -241,12 +251,15 @@ def consolidate(results: list[VesselResult], on_board: Mapping[tuple[str, str], 
         if is_oil:  # the fluid, then what it is bought for: the storage tank charge and/or the top-up
             what = [i.designation.split(", ", 1)[1] for _, i in items if ", " in i.designation]
             designation = ", ".join([first.designation.split(", ", 1)[0]] + ([" and ".join(dict.fromkeys(what))] if what else []))
+        if any(v != vessels[0] for v, i in items if i.key != key) and vessels[0] in leads:
+            designation = series_designation(designation, vessels[0])
+        hulls, each = per_hull(split, series) or (None, None)
         lines.append(OrderLine(0, key, first.kind, designation, first.standard, dict(first.dims), first.compound,
                                first.uom, _join([i.basis for _, i in items]), required, stock, dict(split),
-                               choice, plan))
+                               choice, plan, hulls, each))
     for n, line in enumerate(lines, 1):
         line.number = n
-    return Order(results, lines, oil, tuple(packages), purchasing, currency, tuple(sorted(missing)))
+    return Order(results, lines, oil, tuple(packages), purchasing, currency, tuple(sorted(missing)), tuple(series))
 
 
 def only_to_order(order: Order) -> Order:

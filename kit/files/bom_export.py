@@ -16,7 +16,7 @@ from kit.engine.bom import Order
 from kit.files.safe_text import each_text, visible
 from kit.files.sheets import write_csv
 
-FIELDS = ("number", "designation", "standard", "compound", "required", "on_board", "to_order", "uom", "pack_size",
+FIELDS = ("number", "designation", "standard", "compound", "required", "per_hull", "hulls", "on_board", "to_order", "uom", "pack_size",
           "pack", "packs", "supplier", "supplier_part_number", "price_per_pack", "currency", "line_total", "rate_to_base",
           "line_total_base", "base_currency", "order_by", "late", "earliest_arrival", "delivery_port", "delivery_on",
           "lead_time_days", "why_chosen", "basis", "vessels", "part_key")
@@ -39,7 +39,8 @@ def order_records(order: Order) -> list[dict[str, Any]]:
         offer, delivery = line.offer, line.delivery
         rec = {
             "number": line.number, "designation": line.designation, "standard": line.standard, "compound": line.compound,
-            "required": round(line.required, 3), "on_board": round(line.on_board, 3), "to_order": round(line.to_order, 3),
+            "required": round(line.required, 3),
+            "per_hull": None if line.per_hull is None else round(line.per_hull, 3), "hulls": line.hulls, "on_board": round(line.on_board, 3), "to_order": round(line.to_order, 3),
             "uom": line.uom, "pack_size": None if line.plan is not None else line.pack_size, "pack": line.pack_label,
             "packs": line.packs, "supplier": line.supplier, "supplier_part_number": offer.part_number if offer else None,
             "price_per_pack": line.price, "currency": line.currency, "line_total": line.line_total,
@@ -68,6 +69,7 @@ def write_order_csv(order: Order, path: str | Path) -> Path:
 def write_json(order: Order, path: str | Path, days: float) -> Path:
     doc = {
         "vessels": order.vessel_ids, "days": days,
+        "series": [{"series": s.lead, "hulls": list(s.hulls)} for s in order.series],
         "lines": order_records(order),
         "oil": [{"fluid": o.designation, "required_l": round(o.required_l, 1), "on_board_l": round(o.on_board_l, 1),
                  "to_order_l": round(o.to_order_l, 1), "supply_l": round(o.plan.supply, 3),

@@ -43,7 +43,7 @@ HEADER_LINE_PT = 13.0  # one line of the bold heading font, with its leading
 DATE = "yyyy-mm-dd"
 ORDER_COLUMNS = (
     ("No", 6, None), ("Designation", 60, None), ("Standard", 18, None), ("Compound", 10, None),
-    ("Required", 11, None), ("On board", 11, None), ("To order", 11, None), ("UoM", 6, None),
+    ("Required", 11, None), ("Per hull", 9, None), ("Hulls", 7, None), ("On board", 11, None), ("To order", 11, None), ("UoM", 6, None),
     ("Pack size", 10, None), ("Packs", 8, None), ("Supplier", 18, None), ("Supplier part no", 18, None),
     ("Price per pack", 12, "#,##0.00"), ("Currency", 9, None), ("Line total", 13, "#,##0.00"),
     ("Rate to base", 10, None), ("Line total in base", 13, "#,##0.00"), ("Order by", 11, DATE), ("Late", 6, None),
@@ -184,9 +184,12 @@ def _order_sheet(wb: Workbook, order: Order, oil_rows: dict[str, tuple[int, int]
                             f'{c["Packs"]}{r}*{c["Price per pack"]}{r})')
         base_total = Formula(f'=IF(OR({c["Line total"]}{r}="",{c["Rate to base"]}{r}=""),"",'
                              f'{c["Line total"]}{r}*{c["Rate to base"]}{r})')
+        required: Any = round(line.required, 3)
+        if line.hulls:  # a series line: the total is per hull x hulls, live
+            required = Formula(f"={c['Per hull']}{r}*{c['Hulls']}{r}")
         sheet.append([
             line.number, line.designation, line.standard, line.compound,
-            round(line.required, 3), round(line.on_board, 3),
+            required, None if line.per_hull is None else round(line.per_hull, 3), line.hulls, round(line.on_board, 3),
             Formula(f"=MAX(0,{c['Required']}{r}-{c['On board']}{r})"), line.uom, pack, packs_cell,
             line.supplier, offer.part_number if offer else None, line.price, line.currency, total,
             line.rate, base_total, line.order_by, LATE if line.late else None, line.earliest_arrival,
@@ -360,6 +363,7 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
         _long(sheet, "Vessels", ", ".join(f"{r.vessel.name} ({r.vessel.id})" for r in order.results))
     else:
         sheet.append(["Vessels", f"{len(order.results)} vessels: see the Vessel split sheet"])
+    _series_rows(sheet, order)
     sheet.append(["Prepared on", dt.date.today().isoformat()])
     sheet.append(["Period [days]", days])
     if len(policies) <= 1:
@@ -399,6 +403,20 @@ def _cover(wb: Workbook, order: Order, days: float, scope: str) -> None:
     ]
     for item, text in notes:
         _long(sheet, item, text)
+
+
+def _series_rows(sheet: _Sheet, order: Order) -> None:
+    """Which vessels are sister ships built alike (see :mod:`kit.engine.series_of_hulls`)."""
+    names = {r.vessel.id: r.vessel.name for r in order.results}
+    for s in order.series[:MAX_VESSELS_LISTED]:
+        hulls = ", ".join(f"{names[h]} ({h})" for h in s.hulls) if len(s.hulls) <= MAX_VESSELS_LISTED else f"{len(s.hulls)} vessels"
+        _long(sheet, "Series of hulls", f"the {s.lead} series, {len(s.hulls)} hulls built alike: {hulls}")
+    if len(order.series) > MAX_VESSELS_LISTED:
+        sheet.append(["Series of hulls", f"and {len(order.series) - MAX_VESSELS_LISTED} more series"])
+    if order.series:
+        _long(sheet, "Per hull, Hulls", "on the Order lines sheet where every hull of one series needs the same "
+              "quantity: Required = Per hull x Hulls; blank where the vessels of a line are not one series or need "
+              "different quantities (see the Vessel split sheet)")
 
 
 def _range(name: str, n: int) -> str:

@@ -12,17 +12,11 @@ from kit.services import Progress, no_progress
 
 
 def read_particulars(path: str | Path) -> list:
-    """The vessels of ``path``: a .toml file, a particulars workbook (.xlsx) or a folder of .toml."""
-    from kit.files.particulars_file import load_folder, load_vessel
+    """The vessels of ``path``: a .toml file, a particulars workbook (.xlsx) or a folder of both
+    (:func:`kit.files.particulars_file.read_particulars`)."""
+    from kit.files.particulars_file import read_particulars as read
 
-    target = Path(path)
-    if target.is_dir():
-        return load_folder(target)
-    if target.suffix.lower() == ".xlsx":
-        from kit.files.particulars_sheet import load_particulars_sheet
-
-        return [load_particulars_sheet(target)]
-    return [load_vessel(target)]
+    return read(path)
 
 
 def load_particulars(engine: Engine, path: str | Path) -> list[str]:
@@ -36,16 +30,16 @@ def load_particulars(engine: Engine, path: str | Path) -> list[str]:
 
 
 def work_out(path: str | Path, days: float, policy_file: str | None = None):
-    """One vessel's particulars file worked out over ``days`` under ``policy_file`` (or kit's
-    default policy): a :class:`kit.engine.requirements.VesselResult`. No database."""
-    from kit.files.particulars_file import load_vessel
-    from kit.engine.requirements import assess_vessel
-    from kit.files.policy_file import load_policy
-
+    """One vessel's particulars file (.toml or a particulars workbook, see
+    :func:`kit.files.particulars_file.read_file`) worked out over ``days`` under ``policy_file``
+    (or kit's default policy): a :class:`kit.engine.requirements.VesselResult`. No database."""
     import datetime as dt
 
-    vessel = load_vessel(path)
-    return assess_vessel(vessel, days, load_policy(policy_file), dt.date.today())
+    from kit.engine.requirements import assess_vessel
+    from kit.files.particulars_file import read_file
+    from kit.files.policy_file import load_policy
+
+    return assess_vessel(read_file(path), days, load_policy(policy_file), dt.date.today())
 
 
 @dataclass(frozen=True)

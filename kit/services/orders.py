@@ -58,7 +58,7 @@ def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, p
     """The consolidated order (:class:`kit.engine.bom.Order`) and a line saying what it covers: the
     vessels of the fleet database (all, or ``vessel_ids``) less their stock on board, with the
     catalogue's offers, rates, preferred suppliers and deliveries; or, with ``particulars`` (a .toml
-    file or folder), those vessels alone, under ``policy_file`` (or kit's default), no stock counted
+    file, a particulars workbook or a folder of both), those vessels alone (``engine`` unused, may be None), under ``policy_file`` (or kit's default), no stock counted
     and no database. ``to_order_only`` leaves out the lines with nothing to order."""
     order, scope = _build_order(engine, vessel_ids, days, particulars, policy_file, progress)
     if to_order_only:
@@ -72,13 +72,10 @@ def _build_order(engine, vessel_ids, days, particulars, policy_file, progress) -
     from kit.engine.bom import consolidate
 
     if particulars:
-        from pathlib import Path
-
-        from kit.files.particulars_file import load_folder, load_vessel
+        from kit.files.particulars_file import read_particulars
         from kit.files.policy_file import load_policy
 
-        path = Path(particulars)
-        vessels = load_folder(path) if path.is_dir() else [load_vessel(path)]
+        vessels = read_particulars(particulars)
         if vessel_ids:
             vessels = [v for v in vessels if v.id in set(vessel_ids)]
         policy = load_policy(policy_file)
