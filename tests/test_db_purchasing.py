@@ -176,6 +176,17 @@ def test_supplier_list_prefer_and_undo(fleet):
     assert [row[2] for row in dump(fleet.engine, ["suppliers"])["suppliers"]] == [False, False]
 
 
+def test_prefer_for_a_part_the_supplier_does_not_offer_says_so(fleet):
+    # Quillon Marine's catalogue offers keys[0] only: the preference is kept (a catalogue may come
+    # later) but the purchaser is told it cannot choose that supplier yet
+    assert ok(fleet, "supplier", "prefer", "Quillon Marine", "--part", fleet.keys[1]) == (
+        f"Quillon Marine: preferred for {fleet.keys[1]}\n"
+        "  note: Quillon Marine offers nothing for this part (no catalogue entry or quoted reply matches it): "
+        "the order chooses among the other offers until it does\n")
+    assert ok(fleet, "supplier", "prefer", "Quillon Marine", "--part", fleet.keys[0]) == (
+        f"Quillon Marine: preferred for {fleet.keys[0]}\n")
+
+
 def test_supplier_refusals_name_what_to_look_at(fleet):
     ok(fleet, "supplier", "prefer", "Skerrow Seal Supply", "--part", fleet.keys[1], "--note", "kept")
     fleet.refused(["supplier", "prefer", "Harlow Seals"],
@@ -270,3 +281,28 @@ def test_a_policy_file_states_no_days_of_cover(fleet):
     policy = fleet.file("p.toml", '[policy]\nname = "two sets"\nspare_filter_sets = 2\n')
     fleet.refused(["bom", "--policy", policy, "--out", fleet.folder / "o.xlsx"], line)
     assert not (fleet.folder / "o.xlsx").exists()
+
+
+def test_a_supplier_is_the_same_in_any_letter_case(fleet, tmp_path):
+    # As vessel ids: a supplier typed in other letter case (a command, a catalogue import, an open
+    # enquiry's reply) is the supplier already stored, never a second one.
+    assert ok(fleet, "supplier", "prefer", "quillon  MARINE") == "Quillon Marine: preferred for everything it offers\n"
+    fleet.file("cat3.csv", f"supplier_ref,part_key,price,currency\nQ-2,{fleet.keys[1]},8,USD\n")
+    assert ok(fleet, "catalogue", "import", tmp_path / "cat3.csv", "--supplier", "QUILLON MARINE").startswith("Quillon Marine: 1 row(s)")
+    assert ok(fleet, "supplier", "list") == ("Quillon Marine\t1 entries, 1 matched\tpreferred\n"
+                                             "Skerrow Seal Supply\t3 entries, 2 matched\t-\n")
+
+
+def test_registering_again_gives_an_oil_part_its_fluid_alone(fleet):
+    # A database registered before an oil part was its fluid alone (it kept the first unit's
+    # "storage tank charge" or "top-up for N days") is put right by registering again.
+    from sqlalchemy import select, update
+
+    from catalog_schema.core_tables import PARTS
+
+    key = next(k for k in fleet.keys if k.startswith("oil:"))
+    with fleet.engine.begin() as conn:
+        conn.execute(update(PARTS).where(PARTS.c.key == key).values(designation="hydraulic oil HM 46, storage tank charge"))
+    ok(fleet, "parts", "register")
+    with fleet.engine.connect() as conn:
+        assert conn.execute(select(PARTS.c.designation).where(PARTS.c.key == key)).scalar() == "hydraulic oil HM 46"

@@ -282,6 +282,12 @@ def test_refused_replies_store_nothing(fleet, tmp_path, change):
     (("QS-X", 9.5, "XYZ", "2 pcs", 3, None), "Currency", None),
     ((None, 9.5, "EUR", "2 pcs", 3, None), "Your part number", "your part number for a line you quote"),
     (("QS-X", -1, "EUR", "2 pcs", 3, None), "Unit price (per your pack)", None),
+    # a quote with no price (or a formula saved without its value) would replace the supplier's
+    # priced offer for that part with an unpriced one: refused
+    (("QS-X", None, "EUR", "2 pcs", 3, None), "Unit price (per your pack)",
+     "your unit price per your pack for a line you quote (a number; a formula's value must be saved with it) (got an empty cell)"),
+    (("QS-X", "=2*4", "EUR", "2 pcs", 3, None), "Unit price (per your pack)",
+     "your unit price per your pack for a line you quote (a number; a formula's value must be saved with it) (got an empty cell)"),
 ])
 def test_bad_reply_cells_are_refused_like_a_catalogues(fleet, tmp_path, quote, column, expected):
     db, engine, _ = fleet
@@ -296,6 +302,15 @@ def test_bad_reply_cells_are_refused_like_a_catalogues(fleet, tmp_path, quote, c
     assert dump(engine) == before
 
 
+def test_an_open_reply_from_a_known_supplier_in_other_letter_case_is_that_supplier(fleet, tmp_path):
+    db, engine, _ = fleet
+    files = _write(db, tmp_path / "enquiries")
+    reply = _fill(files["any-supplier"], tmp_path / "reply.xlsx", {0: ("HB-F1", 4.5, "EUR", None, 5, None)}, SPARES.upper())
+    result = kit(db, "enquiry", "read", str(reply))
+    assert result.exit_code == 0 and result.output.startswith(f"{SPARES}: enquiry "), result.output
+    assert sorted(row[1] for row in dump(engine, ["suppliers"])["suppliers"]) == sorted([SEALS, SPARES])
+
+
 def test_open_reply_needs_the_suppliers_name(fleet, tmp_path):
     db, engine, _ = fleet
     path = _write(db, tmp_path / "enquiries")["any-supplier"]
@@ -304,3 +319,30 @@ def test_open_reply_needs_the_suppliers_name(fleet, tmp_path):
     assert (result.exit_code, result.output) == (
         2, f"kit: error: {reply}, sheet Enquiry: Your company name: expected the name of the supplier replying to this "
            "open enquiry (got None)\n")
+
+
+def test_an_enquiry_reference_already_stored_is_drawn_again(fleet, tmp_path, monkeypatch):
+    # References are E, the date and 3 random bytes: a draw that repeats a stored one (1 in 16.7
+    # million a pair) is drawn again, not refused by the database's unique key.
+    import kit.services.enquiries as service
+
+    db, engine, _ = fleet
+    draws = iter(["00000A", "00000B", "00000C"])
+    monkeypatch.setattr(service.secrets, "token_hex", lambda n: next(draws))
+    first = {_enquiry_id(p) for p in _write(db, tmp_path / "one").values()}
+    draws = iter(["00000A", "00000B", "00000D", "00000C", "00000E", "00000F"])
+    second = {_enquiry_id(p) for p in _write(db, tmp_path / "two").values()}
+    today = f"E{dt.date.today():%y%m%d}"
+    assert first == {f"{today}-00000A", f"{today}-00000B", f"{today}-00000C"}
+    assert second == {f"{today}-00000D", f"{today}-00000E", f"{today}-00000F"}
+    assert len(dump(engine, ["enquiries"])["enquiries"]) == 6
+
+
+def test_a_reply_by_date_already_past_is_refused(fleet, tmp_path):
+    db, engine, _ = fleet
+    before = dump(engine)
+    yesterday = dt.date.today() - dt.timedelta(days=1)
+    result = kit(db, "enquiry", "write", "--out", str(tmp_path / "e"), "--days", "180", "--reply-by", yesterday.isoformat())
+    assert (result.exit_code, result.output) == (
+        2, f"kit: error: kit enquiry write: --reply-by: expected today ({dt.date.today()}) or later (got {yesterday})\n")
+    assert dump(engine) == before and not (tmp_path / "e").exists()

@@ -50,6 +50,12 @@ def catalogue(fleet, key: str, pack: str, pack_qty: str = "") -> str:
     ("1 L * 10**400", "", "pack", f"{VOLUME} (got '1 L * 10**400')"),
     ("nan L", "", "pack", f"{VOLUME} (got 'nan L')"),
     ("208 L", "1", "pack_qty", "an empty cell when pack is given (one of the two) (got 1)"),
+    # A bare gallon is 3.785 L in the US and 4.546 L in the UK (NIST Handbook 44, Appendix C): a
+    # "5 gal" pail read the wrong way is 17 % off, so it must say which.
+    ("5 gal", "", "pack", f"{VOLUME}, a gallon, quart, pint or barrel named as US or imperial (5 US_gal, 5 imp_gal) (got '5 gal')"),
+    ("5 gallons", "", "pack", f"{VOLUME}, a gallon, quart, pint or barrel named as US or imperial (5 US_gal, 5 imp_gal) (got '5 gallons')"),
+    ("4 qt", "", "pack", f"{VOLUME}, a gallon, quart, pint or barrel named as US or imperial (5 US_gal, 5 imp_gal) (got '4 qt')"),
+    ("1 barrel", "", "pack", f"{VOLUME}, a gallon, quart, pint or barrel named as US or imperial (5 US_gal, 5 imp_gal) (got '1 barrel')"),
 ])
 def test_bad_oil_packs_are_refused_with_one_line(fleet, pack, pack_qty, column, expected):
     path = catalogue(fleet, oil_key(fleet), pack, pack_qty)
@@ -92,3 +98,13 @@ def test_plain_packs_are_read_in_the_parts_unit(fleet):
     assert got["A1"][0] == pytest.approx(18.92705892, abs=1e-6) and got["A1"][1] == "5 US_gal"
     assert got["A2"][:2] == (208.0, "208 L") and got["A3"] == (10.0, "10 pcs", 10)
     assert got["A4"] == (None, None, 3)  # pack_qty still counts pieces
+
+
+def test_an_empty_pack_cell_is_named_as_such():
+    # an oil line of a reply with its pack left empty: the message says so, not "None"
+    from kit.errors import InputError
+    from kit.files.packs import read_pack
+
+    with pytest.raises(InputError) as refused:
+        read_pack(None, "L", "reply.xlsx, sheet Lines, row 2", "column Your pack")
+    assert str(refused.value) == f"reply.xlsx, sheet Lines, row 2: column Your pack: expected {VOLUME} (got an empty cell)"

@@ -221,3 +221,73 @@ def test_nothing_to_order_has_no_date_and_can_be_left_out(policy):
 def test_choose_without_offers_is_none():
     assert choose("rod_seal:x", 3, [], Purchasing(TODAY), "EUR", ["A"]) is None
     assert PackPlan(0, ()).describe() == "none"
+
+
+@pytest.mark.parametrize("rate", [None, 0.92])
+def test_a_suppliers_oil_packs_in_two_currencies_are_planned_in_one(policy, rate):
+    # One supplier's pail in EUR and drum in USD: a plan bought in one currency, so the line's price
+    # is a sum of prices in one currency (never EUR and USD added) and the workbook's subtotals add up.
+    results = [assess_vessel(vessel("ALPHA"), 30, policy)]
+    key = next(li.key for li in results[0].lines if li.kind == "oil")
+    mixed = [Offer("Mixed", "M-20", 20.0, "20 L", 96.0, "EUR", 7), Offer("Mixed", "M-208", 208.0, "208 L", 700.0, "USD", 7)]
+    order = consolidate(results, {}, {key: mixed}, eur_base(rate))
+    (oil,) = order.oil
+    line = next(li for li in order.lines if li.kind == "oil")
+    bought = [p for p in oil.plan.packs if p.count]
+    assert {p.offer.currency for p in bought} == {line.currency}
+    assert line.line_total == pytest.approx(sum(p.count * p.offer.price for p in bought))
+    assert oil.to_order_l <= oil.plan.supply
+    eur_only = brute_force(oil.to_order_l, [(20.0, 96.0)])
+    usd_only = brute_force(oil.to_order_l, [(208.0, 700.0)])
+    if rate is None:  # the USD drum cannot be compared: the plan in the base currency, least price
+        assert (line.currency, line.line_total) == ("EUR", pytest.approx(eur_only))
+        assert order.missing_rates == ("USD",)
+    else:  # both compared in EUR: the cheaper of the two plans
+        assert line.line_total_base == pytest.approx(min(eur_only, usd_only * rate))
+
+
+def test_oil_is_registered_by_its_fluid_and_its_order_line_says_what_it_covers(policy):
+    # The generic part is the fluid (ISO 6743-4 family and ISO 3448 grade); what the order buys it
+    # for, the storage tank charge (SOLAS II-1/29.12.3) and the top-up for the period, is the line's.
+    from kit.engine.requirements import kept_parts
+
+    result = assess_vessel(vessel("ALPHA"), 30, policy)
+    roles = {li.role for li in result.lines if li.kind == "oil"}
+    assert roles == {"storage", "top-up"}  # a steering unit that leaks: both
+    (fluid,) = {li.designation.split(",")[0] for li in result.lines if li.kind == "oil"}
+    assert {li.designation for li in kept_parts(result) if li.kind == "oil"} == {fluid}
+    order = consolidate([result], {}, {}, Purchasing(TODAY))
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert line.designation == f"{fluid}, storage tank charge and top-up for 30 days"
+    result.units[0].lines[:] = [li for li in result.units[0].lines if li.role != "storage"]  # top-up only
+    line = next(li for li in consolidate([result], {}, {}, Purchasing(TODAY)).lines if li.kind == "oil")
+    assert line.designation == f"{fluid}, top-up for 30 days"
+
+
+def test_a_late_drum_does_not_hide_the_same_suppliers_pails_that_arrive_in_time(policy):
+    # Rule 3 over pack plans: Quick Pails' drum (30 days) would make its cheapest plan late, but its
+    # pails alone (3 days) arrive in time and cost less than the other supplier's pails.
+    results = [assess_vessel(vessel("ALPHA"), 30, policy)]
+    key = next(li.key for li in results[0].lines if li.kind == "oil")
+    offers = [Offer("Quick Pails", "Q-20", 20.0, "20 L", 96.0, "EUR", 3), Offer("Quick Pails", "Q-208", 208.0, "208 L", 800.0, "EUR", 30),
+              Offer("Other", "O-20", 20.0, "20 L", 99.0, "EUR", 10)]
+    due = TODAY + dt.timedelta(days=20)
+    purchasing = Purchasing(TODAY, "EUR", handling_days=7, deliveries={"ALPHA": Delivery("ALPHA", "Rotterdam", due)})
+    order = consolidate(results, {}, {key: offers}, purchasing)
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert (line.supplier, line.late) == ("Quick Pails", False)
+    assert {p.label for p in line.plan.packs if p.count} == {"20 L"}
+    assert line.line_total == pytest.approx(brute_force(line.to_order, [(20.0, 96.0)]))
+    assert line.order_by == due - dt.timedelta(days=3 + 7)
+    # Without a delivery date the cheapest plan, drums and all.
+    order = consolidate(results, {}, {key: offers}, Purchasing(TODAY, "EUR"))
+    line = next(li for li in order.lines if li.kind == "oil")
+    assert line.line_total == pytest.approx(brute_force(line.to_order, [(20.0, 96.0), (208.0, 800.0)]))
+    # Nothing in time: the fastest plan, marked late.
+    tight = Purchasing(TODAY, "EUR", handling_days=7, deliveries={"ALPHA": Delivery("ALPHA", "Rotterdam", TODAY + dt.timedelta(days=5))})
+    line = next(li for li in consolidate(results, {}, {key: offers}, tight).lines if li.kind == "oil")
+    assert (line.supplier, line.late, line.earliest_arrival) == ("Quick Pails", True, TODAY + dt.timedelta(days=3 + 7))
+    # One supplier's plans are still its only offer.
+    line = next(li for li in consolidate(results, {}, {key: offers[:2]}, purchasing).lines if li.kind == "oil")
+    assert (line.supplier, line.reason, line.late) == ("Quick Pails", "only offer", False)
+    assert {p.label for p in line.plan.packs if p.count} == {"20 L"}

@@ -32,7 +32,7 @@ OPTIONS = {
     "demo": {"demo folder": "--out"},
     "bom": {"days": "--days"},
     "check": {"days": "--days"},
-    "enquiry write": {"days": "--days"},
+    "enquiry write": {"days": "--days", "reply-by date": "--reply-by"},
     "template stock": {"days": "--days"},
     "purchasing set": {"base currency or handling days": "--base-currency/--handling-days",
                        "base currency": "--base-currency", "handling days": "--handling-days"},

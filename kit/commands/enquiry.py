@@ -24,7 +24,7 @@ def enquiry() -> None:
               help="Folder for the workbooks (made if new); a workbook of the same name in it is replaced.")
 @click.option("--days", type=Days(), help="Period to cover, in days; default the days of cover of the vessels' spares "
               "policies in force, as kit bom takes them. Required with --policy: a policy file holds no days of cover.")
-@click.option("--reply-by", type=IsoDate(), default=None, help="The day replies are asked by; default 7 days from today.")
+@click.option("--reply-by", type=IsoDate(), default=None, help="The day replies are asked by (today or later); default 7 days from today.")
 @click.option("--policy", "policy_file", type=click.Path(),
               help="Company spares policy (TOML) for every vessel; default each vessel's policy in force in the fleet database.")
 @paper_option

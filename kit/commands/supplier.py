@@ -40,6 +40,9 @@ def prefer(engine, name, part_key, note) -> None:
     else:
         click.echo(visible(f"{done.supplier}: preferred for {done.part_key}"
                            + (f" (instead of {done.replaced})" if done.replaced else "")))
+        if not done.offered:
+            click.echo(visible(f"  note: {done.supplier} offers nothing for this part (no catalogue entry or quoted "
+                               "reply matches it): the order chooses among the other offers until it does"))
 
 
 @supplier.command(epilog=SAFETY)

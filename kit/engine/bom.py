@@ -248,6 +248,9 @@ def consolidate(results: list[VesselResult], on_board: Mapping[tuple[str, str], 
             plan = choice.plan if choice else policy_plan(to_order, packages)
             oil.append(OilOrder(key, first.designation.split(",")[0], required, stock, plan))
         designation = first.designation
+        if is_oil:  # the fluid, then what it is bought for: the storage tank charge and/or the top-up
+            what = [i.designation.split(", ", 1)[1] for _, i in items if ", " in i.designation]
+            designation = ", ".join([first.designation.split(", ", 1)[0]] + ([" and ".join(dict.fromkeys(what))] if what else []))
         if any(v != vessels[0] for v, i in items if i.key != key) and vessels[0] in leads:
             designation = series_designation(designation, vessels[0])
         hulls, each = per_hull(split, series) or (None, None)

@@ -11,7 +11,7 @@ from __future__ import annotations
 import datetime as dt
 import math
 from collections import defaultdict
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 from kit.engine import filters, oil, solas
 from kit.engine.display_units import L_PER_M3 as M3_TO_L, PA_PER_BAR
@@ -252,8 +252,13 @@ def assess_vessel(vessel: Vessel, days: float, policy: Policy, start: dt.date | 
 def kept_parts(result: VesselResult) -> list[LineItem]:
     """The line items of every part the vessel keeps, for registering them: the result's lines,
     and the oil of each unit whose fluid has no line (a unit only topped up, worked out over a
-    period without leakage), so a count of that oil has a part to go to."""
-    lines = list(result.lines)
+    period without leakage), so a count of that oil has a part to go to. An oil part is its fluid
+    alone ("hydraulic oil HM 46"): what it is bought for (storage tank charge, top-up for a period)
+    belongs to an order's line, not to the part."""
+    lines = []
+    for u in result.units:
+        fluid = _designation("oil", fluid=str(u.unit.fluid))
+        lines += [replace(li, designation=fluid) if li.kind == "oil" else li for li in u.lines]
     keys = {li.key for li in lines}
     for u in result.units:
         fluid = str(u.unit.fluid)

@@ -17,11 +17,15 @@ The rules, in order (our own, written for a ship manager's purchasing office; RE
    (with several vessels on a line, the earliest of their next deliveries). The cheapest offer that
    arrives in time is chosen; when none does, the fastest, and the line is marked late with its
    earliest arrival. Without a delivery date the cheapest is chosen. The line's order-by date is the
-   delivery date less the lead time less the handling days.
+   delivery date less the lead time less the handling days. For oil, each lead time among a
+   supplier's packs caps a plan of the packs that come that fast, and these plans are weighed as
+   offers are (a slow drum does not make the same supplier's pails late).
 4. **Oil packs.** Oil is planned once per fluid over the whole order in the chosen supplier's packs:
    the cheapest mix that is never short and overshoots by less than the supplier's smallest pack
    (:func:`cheapest_mix`); where no pack is offered, the policy's packages
-   (:func:`kit.engine.oil.plan_packages`).
+   (:func:`kit.engine.oil.plan_packages`). A plan is bought in one currency: a supplier whose packs
+   of one fluid are priced in two currencies offers two plans, compared as two offers are (so an
+   unconvertible currency's packs never mix into a plan priced in another).
 """
 
 from __future__ import annotations
@@ -239,21 +243,33 @@ def plan_in_offers(need: float, offers: Sequence[Offer], comparing: str | None, 
 
 
 def _oil_candidates(to_order: float, offers: Sequence[Offer], comparing, purchasing) -> list[Candidate]:
-    by_supplier: dict[str, list[Offer]] = {}
+    """One candidate per supplier and currency: a plan is bought in one currency, so its price is a
+    sum in that currency (a supplier's packs in two currencies are two plans, compared as any two)."""
+    by_supplier: dict[tuple[str, str | None], list[Offer]] = {}
     for o in offers:
-        by_supplier.setdefault(o.supplier, []).append(o)
+        by_supplier.setdefault((o.supplier, o.currency), []).append(o)
     out = []
-    for supplier, own in by_supplier.items():
-        plan = plan_in_offers(to_order, own, comparing, purchasing)
-        bought = [p.offer for p in plan.packs if p.count] or own
-        leads = [o.lead_time_days for o in bought]
-        lead = None if any(x is None for x in leads) else max(leads)
-        currency = plan.currency
-        cost = plan.price
-        if to_order <= EPS:  # nothing to order: ranked by price per litre of the cheapest pack
-            priced = [o.price / o.pack_content for o in own if o.price is not None and o.currency == currency]
-            cost = min(priced) if priced else None
-        out.append(Candidate(supplier, tuple(own), cost, currency, lead, plan, rate_of(currency, comparing, purchasing)))
+    for (supplier, _), offered in by_supplier.items():
+        # Each lead time of the supplier's packs caps a plan of the packs that come that fast, so a
+        # slow drum does not make its pails late (rule 3 picks among the plans as among suppliers).
+        caps = sorted({o.lead_time_days for o in offered if o.lead_time_days is not None}) if to_order > EPS else []
+        subsets = [[o for o in offered if o.lead_time_days is not None and o.lead_time_days <= cap] for cap in caps]
+        seen: set[tuple] = set()
+        for own in [*subsets, offered]:
+            plan = plan_in_offers(to_order, own, comparing, purchasing)
+            bought = [p.offer for p in plan.packs if p.count] or own
+            mix = tuple(sorted((p.offer.part_number, p.count) for p in plan.packs if p.count))
+            if mix in seen:
+                continue
+            seen.add(mix)
+            leads = [o.lead_time_days for o in bought]
+            lead = None if any(x is None for x in leads) else max(leads)
+            currency = plan.currency
+            cost = plan.price
+            if to_order <= EPS:  # nothing to order: ranked by price per litre of the cheapest pack
+                priced = [o.price / o.pack_content for o in own if o.price is not None and o.currency == currency]
+                cost = min(priced) if priced else None
+            out.append(Candidate(supplier, tuple(own), cost, currency, lead, plan, rate_of(currency, comparing, purchasing)))
     return out
 
 
@@ -339,9 +355,8 @@ def choose(key: str, to_order: float, offers: Sequence[Offer], purchasing: Purch
     if preferred:
         chosen, _, late = _pick(preferred, due, purchasing, comparing)
         reason = label
-    elif len(candidates) == 1:
-        chosen = candidates[0]
-        _, _, late = _pick(candidates, due, purchasing, comparing)
+    elif len({c.supplier for c in candidates}) == 1:  # one supplier (its plans in time, rule 3)
+        chosen, _, late = _pick(candidates, due, purchasing, comparing)
         reason = "only offer"
     else:
         chosen, reason, late = _pick(candidates, due, purchasing, comparing)

@@ -8,7 +8,8 @@ and finds our enquiry reference on its cover; :func:`check_reply` then holds it 
 enquiry as it was recorded: every line reference must be one of that enquiry's, and the cells we
 locked (headings, designation, quantity, unit) must be as we wrote them. A row whose supplier
 cells are all empty was not quoted: it is skipped and listed. A quoted row gives the supplier's
-part number and currency (both required), the unit price per pack, the pack (its content in the
+part number, the unit price per pack and the currency (all three required: a quote without a price
+would replace the supplier's priced offer for the part), the pack (its content in the
 part's unit, :func:`kit.files.packs.read_pack`; a part counted in pieces may leave it empty for
 one piece), the lead time in whole days and remarks: one catalogue entry of that supplier.
 """
@@ -173,8 +174,11 @@ def check_reply(reply: ReplyFile, asked: Asked) -> CheckedReply:
             remarks = str(remarks)
             if CONTROL.search(remarks):
                 raise table.error(row, REMARKS, NO_CONTROL, remarks)
-        entries.append((row.line, part_no, line.part_key, remarks, max(1, round(content)),
-                        number(table, row, PRICE, mark, maximum=MAX_PRICE), currency,
+        price = number(table, row, PRICE, mark, maximum=MAX_PRICE)
+        if price is None:
+            raise InputError(table.where(row.line), f"column {PRICE}", "your unit price per your pack for a line you "
+                             "quote (a number; a formula's value must be saved with it)", got="an empty cell")
+        entries.append((row.line, part_no, line.part_key, remarks, max(1, round(content)), price, currency,
                         whole_number(table, row, LEAD, 0, MAX_DAYS), content, label))
     catalogue = CatalogueFile(reply.path, supplier, table, entries, REPLY_ENTRY_COLUMNS)
     return CheckedReply(catalogue, len(entries), skipped)

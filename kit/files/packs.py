@@ -5,7 +5,8 @@ read into the part's unit of measure.
 Oil is counted in litres (``L``): its pack is a volume with a unit, parsed by the project's pint
 registry (:mod:`kit.engine.units`). Parts counted in pieces (``pcs``, ``set``) take a whole number
 of pieces with a count word (``10 pcs``, ``1 set``). A cord counted in metres (``m``) takes a length.
-A pack in any other unit than the part's is refused with one line.
+A pack in any other unit than the part's is refused with one line; so is a gallon, quart, pint or
+barrel that does not say whether it is US or imperial (``US_gal``, ``imp_gal``).
 """
 
 from __future__ import annotations
@@ -22,6 +23,12 @@ COUNT_WORDS = {"pcs": 1, "pc": 1, "piece": 1, "pieces": 1, "ea": 1, "each": 1, "
 # Gallon spellings of the trade that pint's registry lacks, as pint's own names.
 ALIASES = {"US_gal": "US_liquid_gallon", "USgal": "US_liquid_gallon", "imp_gal": "imperial_gallon",
            "UK_gal": "imperial_gallon"}
+# Units whose size differs between US customary and imperial measure (a US gallon is 3.785 L, an
+# imperial one 4.546 L: NIST Handbook 44, Appendix C), or that pint reads as a US liquid barrel
+# where the oil trade's barrel is 42 US gallons: refused unless named as US or imperial.
+AMBIGUOUS = {"gal", "gallon", "gallons", "qt", "quart", "quarts", "pt", "pint", "pints", "fluid_ounce", "fluid_ounces",
+             "floz", "cup", "cups", "barrel", "barrels", "bbl"}
+AMBIGUOUS_HINT = "a gallon, quart, pint or barrel named as US or imperial (5 US_gal, 5 imp_gal)"
 _COUNT = re.compile(r"([0-9]{1,7})\s*([A-Za-z]+)")
 _WORD = re.compile(r"[A-Za-z_]+")
 # The unit of measure of each part kind as kit's requirements count it (kit.engine.requirements).
@@ -56,7 +63,7 @@ def read_pack(text: object, uom: str, source: str, field: str) -> tuple[float, s
     """
     want = _want(uom)
     if isinstance(text, bool) or not isinstance(text, str):
-        raise InputError(source, field, want, got=repr(text))
+        raise InputError(source, field, want, got="an empty cell" if text is None else repr(text))
     label = " ".join(text.split())
     if not label or len(label) > MAX_TEXT:
         raise InputError(source, field, want, got=repr(label[:MAX_TEXT] + ("..." if len(label) > MAX_TEXT else "")))
@@ -69,6 +76,8 @@ def read_pack(text: object, uom: str, source: str, field: str) -> tuple[float, s
         kind = "volume" if uom in VOLUME_UOMS else "length" if uom in LENGTH_UOMS else None
         if kind is None:
             raise ValueError(f"no pack reading for unit of measure {uom!r}")
+        if any(w.lower() in AMBIGUOUS for w in _WORD.findall(label)):
+            raise InputError(source, field, f"{want}, {AMBIGUOUS_HINT}", got=repr(label))
         spelled = _WORD.sub(lambda w: ALIASES.get(w[0], w[0]), label)
         try:
             si = to_si(spelled, kind, source=source, field=field)

@@ -31,9 +31,10 @@ class WrittenEnquiries:
     nothing_to_order: int  # of them, left out
 
 
-def _new_id(today: dt.date):
-    """Enquiry references: ``E`` and the date, then six random hex digits (never one used twice in a run)."""
-    used: set[str] = set()
+def _new_id(today: dt.date, taken: Iterable[str] = ()):
+    """Enquiry references: ``E`` and the date, then six random hex digits (never one used twice in a
+    run, nor one in ``taken``: the references already stored)."""
+    used: set[str] = set(taken)
 
     def new() -> str:
         while True:
@@ -58,15 +59,21 @@ def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, fold
     from kit.files.enquiry_workbook import enquiry_writer, file_names
     from kit.files.output_targets import check_folder, refuse_bad_target
     from kit.services.orders import build_order
-    from kit.store.enquiries import next_deliveries, record_enquiries
+    from kit.store.enquiries import enquiry_ids_starting, record_enquiries
+    from kit.store.purchasing_store import next_deliveries
 
+    today = dt.date.today()
+    if reply_by is not None and reply_by < today:
+        from kit.errors import ArgumentError
+
+        raise ArgumentError("", "reply-by date", f"today ({today.isoformat()}) or later", got=reply_by.isoformat())
     folder = Path(folder)
     check_folder(folder)
     order, scope = build_order(engine, vessel_ids, days, None, policy_file, progress)
-    today = dt.date.today()
     with engine.connect() as conn:
         deliveries = next_deliveries(conn, order.vessel_ids, today)
-    found = enquiries(order, deliveries, today, reply_by, _new_id(today))
+        taken = enquiry_ids_starting(conn, f"E{today:%y%m%d}-")
+    found = enquiries(order, deliveries, today, reply_by, _new_id(today, taken))
     paths = [folder / name for name in file_names([e.supplier for e in found])]
     for path in paths:
         refuse_bad_target(path)
@@ -103,5 +110,5 @@ def read_enquiry_reply(engine: Engine, path: str | Path) -> ReplyReport:
     report = None
     if checked.quoted:
         report = write_transaction(engine, lambda conn: write_catalogue(conn, checked.catalogue, whole=False))
-    return ReplyReport(reply.enquiry_id, checked.catalogue.supplier, checked.quoted, checked.skipped,
+    return ReplyReport(reply.enquiry_id, report.supplier if report else checked.catalogue.supplier, checked.quoted, checked.skipped,
                        report.unmatched if report else [])

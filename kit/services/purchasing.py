@@ -184,25 +184,27 @@ class Preference:
     part_key: str | None  # None: preferred for everything it offers
     done: bool  # False: nothing changed (already so, or nothing to undo)
     replaced: str | None = None  # the supplier preferred for that part before
+    offered: bool = True  # False: the supplier offers nothing for that part (yet), so it cannot be chosen
 
 
 def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, note: str | None = None) -> Preference:
     """Prefer ``supplier`` over price: for everything it offers, or with ``part_key`` for that one
     part (one supplier per part; it wins over a supplier preferred for everything)."""
     from catalog_schema.engine import write_transaction
-    from kit.store.purchasing_records import prefer_for_part, set_preferred
+    from kit.store.purchasing_records import offers_part, prefer_for_part, set_preferred, supplier_named
 
-    name = _text(supplier, "supplier name", required=True)
+    given = _text(supplier, "supplier name", required=True)
     key = _text(part_key, "part key", required=True)
     remark = _text(note, "note")
     if key is None and remark is not None:
         raise ArgumentError("", "note", "a note only with a part (a preference for one part)", got=repr(remark))
 
     def work(conn):
+        name = supplier_named(conn, given) or given
         if key is None:
             return Preference(name, None, not set_preferred(conn, name, True))
         before = prefer_for_part(conn, name, key, remark)
-        return Preference(name, key, True, before if before != name else None)
+        return Preference(name, key, True, before if before != name else None, offers_part(conn, name, key))
 
     return write_transaction(engine, work)
 
@@ -210,12 +212,13 @@ def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, 
 def unprefer_supplier(engine: Engine, supplier: str, part_key: str | None = None) -> Preference:
     """Undo :func:`prefer_supplier`: for everything, or with ``part_key`` for that part only."""
     from catalog_schema.engine import write_transaction
-    from kit.store.purchasing_records import set_preferred, unprefer_for_part
+    from kit.store.purchasing_records import set_preferred, supplier_named, unprefer_for_part
 
-    name = _text(supplier, "supplier name", required=True)
+    given = _text(supplier, "supplier name", required=True)
     key = _text(part_key, "part key", required=True)
 
     def work(conn):
+        name = supplier_named(conn, given) or given
         if key is None:
             return Preference(name, None, set_preferred(conn, name, False))
         return Preference(name, key, unprefer_for_part(conn, name, key))

@@ -20,6 +20,7 @@ from catalog_schema.refusals import located
 from catalog_schema.sql import in_batches, insert_rows, upsert
 from kit.files.catalogue_sheet import CatalogueFile
 from kit.store.parts_store import part_ids
+from kit.store.purchasing_records import supplier_named
 
 ENTRIES = CATALOGUE_ENTRIES
 
@@ -38,6 +39,7 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
     entries for the parts and part numbers the rows name are replaced; the rest of its catalogue stays."""
     path, supplier, table, entries = catalogue.path, catalogue.supplier, catalogue.table, catalogue.entries
     hold(conn, "part matching")  # so a register running at once cannot miss these rows (see register_parts)
+    supplier = supplier_named(conn, supplier) or supplier  # the supplier stored, in any letter case
     located(conn, SUPPLIERS, ["name"], [{"name": supplier}], lambda c, one: c.execute(upsert(c, SUPPLIERS, ["name"]), one),
             lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()

@@ -1,31 +1,22 @@
 # SPDX-License-Identifier: MIT
 """Enquiries in the fleet database: what was asked of whom, so a reply can be matched line by
-line; and the next delivery on board each vessel, which an enquiry states."""
+line (the next delivery on board each vessel, which an enquiry states, is
+:func:`kit.store.purchasing_store.next_deliveries`, as an order reads it)."""
 
 from __future__ import annotations
 
-import datetime as dt
 from typing import Iterable
 
 from sqlalchemy import insert, select
 from sqlalchemy.engine import Connection
 
-from catalog_schema.core_tables import DELIVERIES, ENQUIRIES, ENQUIRY_LINES
-from catalog_schema.sql import in_batches
+from catalog_schema.core_tables import ENQUIRIES, ENQUIRY_LINES
 from kit.engine.enquiry import Asked, AskedLine, Enquiry
-from kit.engine.purchasing import Delivery
 
 
-def next_deliveries(conn: Connection, vessel_ids: Iterable[str], today: dt.date) -> dict[str, Delivery]:
-    """Vessel id -> its first delivery due on or after ``today`` (vessels with none are left out)."""
-    found: dict[str, Delivery] = {}
-    for chunk in in_batches(conn, sorted(set(vessel_ids))):
-        query = (select(DELIVERIES.c.vessel_id, DELIVERIES.c.port, DELIVERIES.c.due_on)
-                 .where(DELIVERIES.c.vessel_id.in_(chunk), DELIVERIES.c.due_on >= today)
-                 .order_by(DELIVERIES.c.vessel_id, DELIVERIES.c.due_on))
-        for vessel_id, port, due_on in conn.execute(query):
-            found.setdefault(vessel_id, Delivery(vessel_id, port, due_on))
-    return found
+def enquiry_ids_starting(conn: Connection, prefix: str) -> set[str]:
+    """The references of the enquiries stored that start with ``prefix`` (a day's, ``E261202-``)."""
+    return set(conn.execute(select(ENQUIRIES.c.id).where(ENQUIRIES.c.id.startswith(prefix, autoescape=True))).scalars())
 
 
 def record_enquiries(conn: Connection, written: Iterable[Enquiry]) -> None:

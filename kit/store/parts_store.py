@@ -50,7 +50,9 @@ def register_parts(conn: Connection, items: Iterable[LineItem]) -> Registered:
         return Registered(0, 0)
     hold(conn, "part matching")
     keys = sorted(rows)
-    conn.execute(upsert(conn, PARTS, ["key"]), [rows[k] for k in keys])
+    # A part registered again takes its designation and standard as kit words them now (the key
+    # is the part; its wording follows kit, e.g. an oil part that is its fluid alone).
+    conn.execute(upsert(conn, PARTS, ["key"], update=["designation", "standard"]), [rows[k] for k in keys])
     part_id = select(PARTS.c.id).where(PARTS.c.key == ENTRIES.c.part_key).scalar_subquery()
     matched = 0
     for batch in in_batches(conn, keys):

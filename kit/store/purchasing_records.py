@@ -90,9 +90,20 @@ LOOK_UP_SUPPLIERS = "the name of a supplier in the fleet database (kit supplier 
 LOOK_UP_PARTS = "the key of a generic part in the fleet database (kit parts list shows them; kit parts register adds them)"
 
 
+def supplier_named(conn: Connection, name: str) -> str | None:
+    """The stored name of the supplier called ``name``: the same name, else the one name equal to it
+    in any letter case and spacing (as a vessel id in any case is that vessel); None when none is."""
+    if conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == name)).first() is not None:
+        return name
+    wanted = " ".join(name.split()).casefold()
+    found = [n for n in conn.execute(select(SUPPLIERS.c.name)).scalars() if " ".join(n.split()).casefold() == wanted]
+    return found[0] if len(found) == 1 else None
+
+
 def supplier_id(conn: Connection, name: str) -> int:
-    """The id of the supplier called ``name``, or :class:`ArgumentError` ("supplier name")."""
-    found = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == name)).scalar()
+    """The id of the supplier called ``name`` (in any letter case, :func:`supplier_named`), or
+    :class:`ArgumentError` ("supplier name")."""
+    found = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == (supplier_named(conn, name) or name))).scalar()
     if found is None:
         raise ArgumentError("", "supplier name", LOOK_UP_SUPPLIERS, got=repr(name))
     return found
@@ -123,6 +134,13 @@ def prefer_for_part(conn: Connection, supplier: str, key: str, note: str | None)
     conn.execute(upsert(conn, PART_SUPPLIERS, ["part_id"], update=["supplier_id", "note"]),
                  [{"part_id": pid, "supplier_id": sid, "note": note}])
     return before
+
+
+def offers_part(conn: Connection, supplier: str, key: str) -> bool:
+    """Whether ``supplier``'s catalogue (imported or from replies) has an entry for the part keyed ``key``."""
+    query = (select(CATALOGUE_ENTRIES.c.id).where(CATALOGUE_ENTRIES.c.supplier_id == supplier_id(conn, supplier),
+                                                  CATALOGUE_ENTRIES.c.part_key == key).limit(1))
+    return conn.execute(query).first() is not None
 
 
 def unprefer_for_part(conn: Connection, supplier: str, key: str) -> bool:
