@@ -9,7 +9,9 @@ generic parts already in the database by their normalised key; rows that match n
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field
+from typing import Callable
 
 from sqlalchemy import delete, select
 from sqlalchemy.engine import Connection
@@ -24,12 +26,38 @@ from kit.store.parts_store import part_ids
 ENTRIES = CATALOGUE_ENTRIES
 
 
+class Unmatched(Sequence):
+    """The rows that matched no generic part, each as (where, supplier_ref, part key), the place
+    worded only when the row is read: an import may leave most of 100,000 rows unmatched, and the
+    report prints a few of them."""
+
+    def __init__(self, where: Callable[[int], str], rows: list[tuple[int, str, str]]):
+        self._where, self._rows = where, rows  # rows as (line, supplier_ref, part key)
+
+    def _worded(self, row: tuple[int, str, str]) -> tuple[str, str, str]:
+        return self._where(row[0]), row[1], row[2]
+
+    def __len__(self) -> int:
+        return len(self._rows)
+
+    def __getitem__(self, index):
+        if isinstance(index, slice):
+            return [self._worded(r) for r in self._rows[index]]
+        return self._worded(self._rows[index])
+
+    def __eq__(self, other: object) -> bool:
+        return list(self) == list(other) if isinstance(other, Sequence) else NotImplemented
+
+    def __repr__(self) -> str:
+        return f"Unmatched({len(self)} rows)"
+
+
 @dataclass
 class CatalogueReport:
     supplier: str
     rows: int
     matched: int
-    unmatched: list[tuple[str, str, str]] = field(default_factory=list)  # (where, supplier_ref, part key)
+    unmatched: Sequence[tuple[str, str, str]] = field(default_factory=list)  # (where, supplier_ref, part key)
 
 
 def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = True) -> CatalogueReport:
@@ -42,14 +70,15 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
             lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
     known = part_ids(conn)
-    report = CatalogueReport(supplier, len(entries), 0)
+    unmatched: list[tuple[int, str, str]] = []
     rows = []
+    append = rows.append
     for line, ref, key, *rest in entries:
         pid = known.get(key)
         if pid is None:
-            report.unmatched.append((table.where(line), ref, key))
-        rows.append((sid, pid, ref, key, *rest))
-    report.matched = len(rows) - len(report.unmatched)
+            unmatched.append((line, ref, key))
+        append((sid, pid, ref, key, *rest))
+    report = CatalogueReport(supplier, len(entries), len(rows) - len(unmatched), Unmatched(table.where, unmatched))
     if whole:
         conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
     else:
