@@ -391,7 +391,8 @@ class _Quick:
                 if tag is None:
                     raise _Exact
                 check(_attributes(tag[2]))
-        tally.string(sum(region.count(b"<si" + end) for end in (b">", b" ", b"/", b"\t", b"\n", b"\r")))
+        # a sheet holds no "<si" at all: one search instead of one per ending
+        tally.string(region.count(b"<si") and sum(region.count(b"<si" + end) for end in (b">", b" ", b"/", b"\t", b"\n", b"\r")))
         begin = ROW_START.search(region)
         if begin is None:
             return
@@ -441,7 +442,10 @@ class _Quick:
         tally, lim = self.tally, self.tally.limits
         tally.errors += region.count(b'="e"', at)  # t="e", or any attribute of that value
         row, column = max(tally.top_row, last_row), max(tally.top_column, last_column)
-        if sum(region.count(b"<c" + end, at) for end in CELL_ENDS) != region.count(CELL, at) or _past(row, column).search(region, at):
+        # every <c> has a reference: where every "<c" opens a '<c r="', one search more tells it
+        cells = region.count(CELL, at)
+        unreferenced = region.count(b"<c", at) != cells and sum(region.count(b"<c" + end, at) for end in CELL_ENDS) != cells
+        if unreferenced or _past(row, column).search(region, at):
             row, column = lim.rows, lim.columns
         tally.top_row, tally.top_column = row, column
 
