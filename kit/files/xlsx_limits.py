@@ -432,18 +432,18 @@ class _Quick:
         if tally.before + tally.cells + total > lim.cells:
             raise _Exact
         tally.cells += total
-        self._extent(region, at, max(map(int, numbers)), max(widths))
+        self._extent(region, at, max(map(int, numbers)), max(widths), sum(cells))
 
-    def _extent(self, region: bytes, at: int, last_row: int, last_column: int) -> None:
-        """The highest row and column named in ``region`` (from ``at``), and its error cells. Every
+    def _extent(self, region: bytes, at: int, last_row: int, last_column: int, cells: int) -> None:
+        """The highest row and column named in ``region`` (from ``at``, holding ``cells`` '<c r="'), and its error cells. Every
         cell is checked against its row's number and the last cell's column by one search for a
         reference past them; a cell without a reference, or one past them, makes the extent the
         whole of the limits (bounds, not counts: never below the true extent)."""
         tally, lim = self.tally, self.tally.limits
         tally.errors += region.count(b'="e"', at)  # t="e", or any attribute of that value
         row, column = max(tally.top_row, last_row), max(tally.top_column, last_column)
-        # every <c> has a reference: where every "<c" opens a '<c r="', one search more tells it
-        cells = region.count(CELL, at)
+        # every <c> has a reference (``cells`` counts the '<c r="' from ``at``, row by row): where
+        # every "<c" opens one, one search tells it
         unreferenced = region.count(b"<c", at) != cells and sum(region.count(b"<c" + end, at) for end in CELL_ENDS) != cells
         if unreferenced or _past(row, column).search(region, at):
             row, column = lim.rows, lim.columns
