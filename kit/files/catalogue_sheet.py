@@ -126,7 +126,7 @@ def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
         if not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
                 and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
             pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY)
-        if v.get("pack") is None and uom_of_kind(key.partition(":")[0]) == "pcs":  # pieces, no pack column
+        if v.get("pack") is None and (key[:3] != "oil" or uom_of_kind(key.partition(":")[0]) == "pcs"):  # pieces, no pack
             pack_qty, content, label = pack or 1, None, None
         else:
             pack_qty, content, label = _pack(table, row, key, pack)

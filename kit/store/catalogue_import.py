@@ -24,6 +24,7 @@ from kit.files.catalogue_sheet import CatalogueFile
 from kit.store.parts_store import part_ids
 
 ENTRIES = CATALOGUE_ENTRIES
+ENTRY_HEAD = ("supplier_id", "part_id", "supplier_ref", "part_key")  # how a checked file's columns start
 
 
 class Unmatched(Sequence):
@@ -70,6 +71,11 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
             lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
     known = part_ids(conn)
+    if catalogue.columns[:4] != ENTRY_HEAD:
+        raise ValueError(f"catalogue entries start with {ENTRY_HEAD}, not {catalogue.columns[:4]}")
+    # the rows in the table's own column order, which the compiled INSERT keeps: the driver takes
+    # them as they are (catalog_schema.sql.insert_statement), with no reordering of 100,000 tuples
+    columns = ("supplier_id", "supplier_ref", "part_key", "part_id", *catalogue.columns[4:])
     unmatched: list[tuple[int, str, str]] = []
     rows = []
     append = rows.append
@@ -77,7 +83,7 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
         pid = known.get(key)
         if pid is None:
             unmatched.append((line, ref, key))
-        append((sid, pid, ref, key, *rest))
+        append((sid, ref, key, pid, *rest))
     report = CatalogueReport(supplier, len(entries), len(rows) - len(unmatched), Unmatched(table.where, unmatched))
     if whole:
         conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
@@ -85,7 +91,6 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
         for column, index in ((ENTRIES.c.part_key, 2), (ENTRIES.c.supplier_ref, 1)):
             for chunk in in_batches(conn, sorted({e[index] for e in entries})):
                 conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid, column.in_(chunk)))
-    columns = catalogue.columns
     located(conn, ENTRIES, columns, rows, lambda c, some: insert_rows(c, ENTRIES, columns, some),
             lambda i: table.where(entries[i][0]), {"supplier_id": "supplier name", "part_id": "part_key"})
     return report
