@@ -31,7 +31,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from pathlib import Path
 
-from kit.files.numbers import MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, decimal_mark, number, whole_number
+from kit.files.numbers import MAX_CHARS, MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, decimal_mark, number, plain_decimal, whole_number
+from kit.files.packs import read_pack, uom_of_kind
 from kit.files.part_keys import PART_COLUMNS, KeyReader
 from kit.files.safe_text import NO_CONTROL, CONTROL
 from kit.files.sheets import Table, read_table
@@ -65,8 +66,6 @@ OIL_PACK = 'a pack with its volume for oil, e.g. "208 L" (pack_qty counts pieces
 def _pack(table: Table, row, key: str, pack_qty: int | None) -> tuple[int, float | None, str | None]:
     """(pack_qty, pack_content, pack_label) of a row: the ``pack`` column read in the part's unit
     of measure (:func:`kit.files.packs.read_pack`), or ``pack_qty`` for parts counted in pieces."""
-    from kit.files.packs import read_pack, uom_of_kind
-
     uom = uom_of_kind(key.split(":", 1)[0])
     text = row.values.get("pack")
     if text is None:
@@ -83,49 +82,63 @@ def _pack(table: Table, row, key: str, pack_qty: int | None) -> tuple[int, float
 def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
     """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
     currency, lead_time_days, pack_content, pack_label); the first bad cell refuses the file. ``mark_option`` is the
-    decimal mark the user stated (None: the file's default, see :mod:`kit.files.numbers`)."""
+    decimal mark the user stated (None: the file's default, see :mod:`kit.files.numbers`).
+
+    The common cells are taken by a short way that gives what the checking functions give (a
+    plain part number, currency, whole number or decimal; a part counted in pieces with no
+    ``pack``); anything else goes to those functions, which word the refusal."""
     from kit.files.currencies import codes, currency_code
 
     mark = decimal_mark(table, mark_option)
+    plain = plain_decimal(mark.name).fullmatch
+    comma = mark.name == "comma"
     keys = KeyReader(table)
+    key_of = keys.key
     seen: dict[str, int] = {}
     out: list[Entry] = []
+    append = out.append
     known_codes = codes()
     control = CONTROL.search
+    error = table.error
     for row in table.rows:
         v = row.values
         ref = v.get("supplier_ref")
         if ref is None:
-            raise table.error(row, "supplier_ref", "the supplier's part number", "an empty cell")
-        if not isinstance(ref, str):
+            raise error(row, "supplier_ref", "the supplier's part number", "an empty cell")
+        if ref.__class__ is not str:
             ref = str(int(ref) if isinstance(ref, float) and ref.is_integer() else ref)
         if control(ref):
-            raise table.error(row, "supplier_ref", NO_CONTROL, ref)
+            raise error(row, "supplier_ref", NO_CONTROL, ref)
         if ref in seen:
-            raise table.error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
+            raise error(row, "supplier_ref", f"each part number once (already on {table.where(seen[ref])})", ref)
         seen[ref] = row.line
         currency = v.get("currency")
-        # the common cells by a short way, which gives what the checking functions give; anything
-        # else goes to them, and they word the refusal
         if currency.__class__ is not str or currency not in known_codes:
             currency = currency_code(table, row, currency)
         description = v.get("description")
         if description is not None:
-            description = str(description)
+            if description.__class__ is not str:
+                description = str(description)
             if control(description):
-                raise table.error(row, "description", NO_CONTROL, description)
-        key = keys.key(row)
+                raise error(row, "description", NO_CONTROL, description)
+        key = key_of(row)
         pack = v.get("pack_qty")
         if not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
                 and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
             pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY)
-        pack_qty, content, label = _pack(table, row, key, pack)
+        if v.get("pack") is None and (key[:3] != "oil" or uom_of_kind(key.partition(":")[0]) == "pcs"):  # pieces, no pack
+            pack_qty, content, label = pack or 1, None, None
+        else:
+            pack_qty, content, label = _pack(table, row, key, pack)
         lead = v.get("lead_time_days")
         if lead is not None and not (lead.__class__ is str and lead.isascii() and lead.isdigit() and len(lead) < 5
                                      and (lead := int(lead)) <= MAX_DAYS):
             lead = whole_number(table, row, "lead_time_days", 0, MAX_DAYS)
-        out.append((row.line, ref, key, description, pack_qty,
-                    number(table, row, "price", mark, maximum=MAX_PRICE), currency, lead, content, label))
+        price = v.get("price")
+        if price is not None and not (price.__class__ is str and len(price) <= MAX_CHARS and plain(price) is not None
+                                      and 0.0 <= (price := float(price.replace(",", ".") if comma else price)) <= MAX_PRICE):
+            price = number(table, row, "price", mark, maximum=MAX_PRICE)
+        append((row.line, ref, key, description, pack_qty, price, currency, lead, content, label))
     return out
 
 

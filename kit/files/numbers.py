@@ -88,6 +88,11 @@ def decimal_mark(table: Table, given: str | None) -> DecimalMark:
     return DecimalMark(SEPARATOR_MARK[separator], f"the default for a {SEPARATOR_NAMES[separator]}-separated CSV")
 
 
+def plain_decimal(mark: str) -> re.Pattern:
+    """The pattern a plain decimal with ``mark`` ("point" or "comma") fully matches (see :func:`parse_decimal`)."""
+    return _PLAIN[mark]
+
+
 def parse_decimal(text: str, mark: str) -> float | None:
     """``text`` as a float if it is a plain decimal with ``mark`` ("point" or "comma"), else None.
 

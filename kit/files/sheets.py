@@ -117,6 +117,11 @@ def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any
     append = rows.append
     width = len(header)
     for line, cells in it:
+        if cells.__class__ is dict:  # a row the CSV reader keyed by this header itself (see _read_csv)
+            if len(rows) >= max_rows:
+                raise InputError(where, "rows", f"at most {max_rows:,} data rows", got="more")
+            append(Row(line, cells))
+            continue
         values = cells if clean else [_clean(c) for c in cells]
         if len(values) != width:  # most rows are as wide as the header: no slices for them
             if any(v is not None for v in values[width:]):
@@ -342,14 +347,32 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
         separator = csv_separator(source, head[-1] if head else "")
         reader = csv.reader(itertools.chain(head, handle), delimiter=separator)
 
-        def lines() -> Iterable[tuple[int, Sequence[Any]]]:
+        def lines() -> Iterable[tuple[int, Sequence[Any] | dict[str, Any]]]:
+            """Each record's cells stripped, empty ones None. Below the header row (the first
+            with a name in it, as :func:`_table` takes it), a record as wide as the header and
+            with no quote in it comes keyed by the header, and one with nothing in it not at all:
+            what :func:`_table` would make of it, in one pass."""
             start = 1
+            header: list[str] = []
+            width = -1
             try:
                 for cells in reader:
-                    if "'" in "".join(cells):  # a quote that may guard a formula: the field by field way
-                        yield start, [_csv_cell(c) if c else None for c in cells]
+                    joined = "".join(cells)
+                    if "'" in joined:  # a quote that may guard a formula: the field by field way
+                        values = [_csv_cell(c) if c else None for c in cells]
+                    elif len(cells) == width:
+                        if joined.strip():  # (otherwise every cell is blank: no row)
+                            yield start, {h: (c.strip() or None) if c else None for h, c in zip(header, cells)}
+                        start = reader.line_num + 1
+                        continue
                     else:
-                        yield start, [(c.strip() or None) if c else None for c in cells]
+                        values = [(c.strip() or None) if c else None for c in cells]
+                    if width < 0:
+                        header = ["" if v is None else str(v).strip() for v in values]  # as _table reads it
+                        while header and not header[-1]:
+                            header.pop()
+                        width = len(header) if header else -1
+                    yield start, values
                     start = reader.line_num + 1
             except csv.Error as exc:
                 raise InputError(f"{source}, line {reader.line_num}", "cells", "well-formed CSV", got=str(exc)) from None

@@ -9,7 +9,9 @@ generic parts already in the database by their normalised key; rows that match n
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field
+from typing import Callable
 
 from sqlalchemy import delete, select
 from sqlalchemy.engine import Connection
@@ -23,6 +25,33 @@ from kit.store.parts_store import part_ids
 from kit.store.purchasing_records import supplier_named
 
 ENTRIES = CATALOGUE_ENTRIES
+ENTRY_HEAD = ("supplier_id", "part_id", "supplier_ref", "part_key")  # how a checked file's columns start
+
+
+class Unmatched(Sequence):
+    """The rows that matched no generic part, each as (where, supplier_ref, part key), the place
+    worded only when the row is read: an import may leave most of 100,000 rows unmatched, and the
+    report prints a few of them."""
+
+    def __init__(self, where: Callable[[int], str], rows: list[tuple[int, str, str]]):
+        self._where, self._rows = where, rows  # rows as (line, supplier_ref, part key)
+
+    def _worded(self, row: tuple[int, str, str]) -> tuple[str, str, str]:
+        return self._where(row[0]), row[1], row[2]
+
+    def __len__(self) -> int:
+        return len(self._rows)
+
+    def __getitem__(self, index):
+        if isinstance(index, slice):
+            return [self._worded(r) for r in self._rows[index]]
+        return self._worded(self._rows[index])
+
+    def __eq__(self, other: object) -> bool:
+        return list(self) == list(other) if isinstance(other, Sequence) else NotImplemented
+
+    def __repr__(self) -> str:
+        return f"Unmatched({len(self)} rows)"
 
 
 @dataclass
@@ -30,7 +59,7 @@ class CatalogueReport:
     supplier: str
     rows: int
     matched: int
-    unmatched: list[tuple[str, str, str]] = field(default_factory=list)  # (where, supplier_ref, part key)
+    unmatched: Sequence[tuple[str, str, str]] = field(default_factory=list)  # (where, supplier_ref, part key)
 
 
 def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = True) -> CatalogueReport:
@@ -44,21 +73,26 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
             lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
     known = part_ids(conn)
-    report = CatalogueReport(supplier, len(entries), 0)
+    if catalogue.columns[:4] != ENTRY_HEAD:
+        raise ValueError(f"catalogue entries start with {ENTRY_HEAD}, not {catalogue.columns[:4]}")
+    # the rows in the table's own column order, which the compiled INSERT keeps: the driver takes
+    # them as they are (catalog_schema.sql.insert_statement), with no reordering of 100,000 tuples
+    columns = ("supplier_id", "supplier_ref", "part_key", "part_id", *catalogue.columns[4:])
+    unmatched: list[tuple[int, str, str]] = []
     rows = []
+    append = rows.append
     for line, ref, key, *rest in entries:
         pid = known.get(key)
         if pid is None:
-            report.unmatched.append((table.where(line), ref, key))
-        rows.append((sid, pid, ref, key, *rest))
-    report.matched = len(rows) - len(report.unmatched)
+            unmatched.append((line, ref, key))
+        append((sid, ref, key, pid, *rest))
+    report = CatalogueReport(supplier, len(entries), len(rows) - len(unmatched), Unmatched(table.where, unmatched))
     if whole:
         conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))
     else:
         for column, index in ((ENTRIES.c.part_key, 2), (ENTRIES.c.supplier_ref, 1)):
             for chunk in in_batches(conn, sorted({e[index] for e in entries})):
                 conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid, column.in_(chunk)))
-    columns = catalogue.columns
     located(conn, ENTRIES, columns, rows, lambda c, some: insert_rows(c, ENTRIES, columns, some),
             lambda i: table.where(entries[i][0]), {"supplier_id": "supplier name", "part_id": "part_key"})
     return report
