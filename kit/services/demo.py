@@ -16,6 +16,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 DEMO_SUPPLIER = "Northgate Marine Seals & Hydraulics (invented)"
+DEMO_POLICY_FROM = dt.date(2026, 1, 1)  # invented: the demo company's policy in force from this day
 CHECK_VESSEL = "CORVINA-BAY"
 
 
@@ -98,6 +99,7 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     from kit.services.fleet import load_particulars, read_particulars, register_parts
     from kit.services.imports import import_catalogue, import_stock
     from kit.services.orders import build_order, check_voyage
+    from kit.services.policies import set_policy
     from kit.files.check_workbook import write_check_workbook
     from kit.files.policy_file import load_policy
     from kit.files.stock_sheet import fill_count
@@ -114,6 +116,11 @@ def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: 
     try:
         upgrade_database(engine)
         load_particulars(engine, fleet)
+        # as `kit policy set --company ... --days`: the company's policy with its days of cover (kit's
+        # default content), so `kit bom` and `kit check` on this database need no --days either
+        for company in dict.fromkeys(v.company for v in vessels if v.company):
+            set_policy(engine, name="demo fleet policy", cover_days=round(days), in_force_from=DEMO_POLICY_FROM,
+                       company=company, note="invented, for the demo")
         policy = load_policy()
         results = {v.id: assess_vessel(v, days, policy) for v in vessels}  # what the invented files are made from
         all_lines = [li for r in results.values() for li in r.lines]
