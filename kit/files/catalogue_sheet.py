@@ -149,8 +149,7 @@ class CatalogueFile:
     path: str
     supplier: str
     table: Table
-    entries: list[Entry]
-    columns: tuple[str, ...] = ENTRY_COLUMNS  # the columns each entry's values after its line fill
+    entries: list[Entry]  # each row's line, then the values of ENTRY_COLUMNS from supplier_ref on
 
 
 def read_catalogue(path: str | Path, supplier: str, decimal: str | None = None) -> CatalogueFile:

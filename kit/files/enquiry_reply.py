@@ -22,7 +22,7 @@ from typing import Any, Sequence
 
 from kit.engine.enquiry import Asked
 from kit.errors import InputError
-from kit.files.catalogue_sheet import ENTRY_COLUMNS, CatalogueFile
+from kit.files.catalogue_sheet import CatalogueFile
 from kit.files.enquiry_workbook import COVER, HEADINGS, LINES, REFERENCE, REPLY_COLUMNS, YOUR_NAME
 from kit.files.numbers import MAX_DAYS, MAX_PRICE, decimal_mark, number, whole_number
 from kit.files.packs import read_pack
@@ -32,9 +32,6 @@ from kit.files.sheets import Row, Table, read_sheets
 REF, DESIGNATION, QUANTITY, UOM = "Line ref", "Designation", "Quantity", "UoM"
 PART_NO, PRICE, CURRENCY, PACK, LEAD, REMARKS = (name for name, _, _ in REPLY_COLUMNS)
 LOCKED = "as we wrote it (a locked cell)"
-# The entry's values after its line and supplier_ref, part_key, description, pack_qty, price,
-# currency, lead_time_days: the pack's content in the part's unit and its label.
-REPLY_ENTRY_COLUMNS = ENTRY_COLUMNS  # pack content and label included
 
 
 @dataclass(frozen=True)
@@ -180,5 +177,5 @@ def check_reply(reply: ReplyFile, asked: Asked) -> CheckedReply:
                              "quote (a number; a formula's value must be saved with it)", got="an empty cell")
         entries.append((row.line, part_no, line.part_key, remarks, max(1, round(content)), price, currency,
                         whole_number(table, row, LEAD, 0, MAX_DAYS), content, label))
-    catalogue = CatalogueFile(reply.path, supplier, table, entries, REPLY_ENTRY_COLUMNS)
+    catalogue = CatalogueFile(reply.path, supplier, table, entries)
     return CheckedReply(catalogue, len(entries), skipped)

@@ -20,12 +20,15 @@ from catalog_schema.core_tables import CATALOGUE_ENTRIES, SUPPLIERS
 from catalog_schema.locks import hold
 from catalog_schema.refusals import located
 from catalog_schema.sql import in_batches, insert_rows, upsert
-from kit.files.catalogue_sheet import CatalogueFile
+from kit.files.catalogue_sheet import ENTRY_COLUMNS, CatalogueFile
 from kit.store.parts_store import part_ids
 from kit.store.purchasing_records import supplier_named
 
 ENTRIES = CATALOGUE_ENTRIES
-ENTRY_HEAD = ("supplier_id", "part_id", "supplier_ref", "part_key")  # how a checked file's columns start
+# A checked entry's values after its line (ENTRY_COLUMNS from supplier_ref on), with the supplier and
+# part ids, in the table's own column order, which the compiled INSERT keeps: the driver takes the
+# rows as they are (catalog_schema.sql.insert_statement), with no reordering of 100,000 tuples.
+ROW_COLUMNS = ("supplier_id", "supplier_ref", "part_key", "part_id", *ENTRY_COLUMNS[4:])
 
 
 class Unmatched(Sequence):
@@ -73,11 +76,6 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
             lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
     known = part_ids(conn)
-    if catalogue.columns[:4] != ENTRY_HEAD:
-        raise ValueError(f"catalogue entries start with {ENTRY_HEAD}, not {catalogue.columns[:4]}")
-    # the rows in the table's own column order, which the compiled INSERT keeps: the driver takes
-    # them as they are (catalog_schema.sql.insert_statement), with no reordering of 100,000 tuples
-    columns = ("supplier_id", "supplier_ref", "part_key", "part_id", *catalogue.columns[4:])
     unmatched: list[tuple[int, str, str]] = []
     rows = []
     append = rows.append
@@ -93,6 +91,6 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
         for column, index in ((ENTRIES.c.part_key, 2), (ENTRIES.c.supplier_ref, 1)):
             for chunk in in_batches(conn, sorted({e[index] for e in entries})):
                 conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid, column.in_(chunk)))
-    located(conn, ENTRIES, columns, rows, lambda c, some: insert_rows(c, ENTRIES, columns, some),
+    located(conn, ENTRIES, ROW_COLUMNS, rows, lambda c, some: insert_rows(c, ENTRIES, ROW_COLUMNS, some),
             lambda i: table.where(entries[i][0]), {"supplier_id": "supplier name", "part_id": "part_key"})
     return report
