@@ -36,6 +36,7 @@ COMMANDS: dict[str, tuple[str, str, str]] = {
     "supplier": ("kit.commands.supplier", "supplier", "List suppliers; prefer one over price, for everything or one part."),
     "delivery": ("kit.commands.delivery", "delivery", "Set, list or remove where and when an order must be on board."),
     "vessels": ("kit.commands.vessels", "vessels", "List the fleet's vessels: units, last stock count, next delivery."),
+    "serve": ("kit.commands.serve", "serve", "Serve the fleet database as pages in a browser on this PC."),
     "enquiry": ("kit.commands.enquiry", "enquiry", "Write enquiries to suppliers from the order; read their replies back."),
 }
 

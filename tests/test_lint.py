@@ -19,7 +19,7 @@ from pathlib import Path
 import pytest
 
 ROOT = Path(__file__).resolve().parents[1]
-FACES = {"cli.py", "commands", "__main__.py"}  # the command line and what only it draws
+FACES = {"cli.py", "commands", "__main__.py", "web"}  # the command line, the pages, and what only they draw
 # What each layer must not import: the engine no database, files, store or services; the files no
 # store or services; the store no services and no sheet (kit/__init__.py and each package's docstring).
 FORBIDDEN = {
@@ -79,10 +79,23 @@ def test_each_layer_imports_only_those_below_it(layer):
     assert found == {}
 
 
+# What the pages must not import: they call services (and write files as the commands do), never the
+# database or the store, and never the command line's libraries.
+WEB_FORBIDDEN = ("sqlalchemy", "catalog_schema", "kit.store", "kit.commands", "click", "rich")
+
+
+def test_the_pages_call_services_not_the_store():
+    modules = sorted((ROOT / "kit" / "web").rglob("*.py"))
+    assert len(modules) > 5  # the face is there
+    found = {str(p.relative_to(ROOT)): sorted(m for m in imported(p) if any(in_package(m, f) for f in WEB_FORBIDDEN))
+             for p in modules}
+    assert {k: v for k, v in found.items() if v} == {}
+
+
 def test_only_the_store_runs_queries():
     """No module but the store's opens a connection or builds a query; services open the unit of work."""
     found = {}
-    for p in library_modules() + sorted((ROOT / "kit" / "commands").glob("*.py")):
+    for p in library_modules() + sorted((ROOT / "kit" / "commands").glob("*.py")) + sorted((ROOT / "kit" / "web").rglob("*.py")):
         text = p.read_text(encoding="utf-8")
         in_services = p.parent.name == "services"
         hits = [w for w in ("conn.execute", "select(", "engine.begin") if w in text]

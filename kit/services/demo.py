@@ -88,53 +88,67 @@ def _write_csv(path: Path, rows: list[dict]) -> None:
     write_csv(path, list(rows[0]), [list(r.values()) for r in rows])
 
 
-def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
-    """Build the demo in ``out`` and return where everything is. ``out`` must be new, empty, or a
-    folder an earlier demo made (:func:`kit.files.output_targets.make_demo_folder`), which is replaced.
-    Every step is the service a user's command calls."""
-    from catalog_schema.engine import make_engine
-    from kit.files.output_targets import check_demo_folder, make_demo_folder, record_demo_folder
+def fill_demo(engine, imports: Path, days: float = 90.0, fleet: Path | None = None) -> list:
+    """Put the invented demo fleet into ``engine``'s database (built to the head revision here):
+    particulars, the company's spares policy with ``days`` of cover, generic parts, the invented
+    suppliers' catalogues and each vessel's invented stock count, the files written into the
+    existing folder ``imports`` and read back as a user's would be. Return the vessels. Every
+    step is the service a user's command calls."""
     from kit.engine.requirements import assess_vessel
+    from kit.files.policy_file import load_policy
+    from kit.files.stock_sheet import fill_count
     from kit.services.database import upgrade_database
     from kit.services.fleet import load_particulars, read_particulars, register_parts
     from kit.services.imports import import_catalogue, import_stock
-    from kit.services.orders import build_order, check_voyage
     from kit.services.policies import set_policy
-    from kit.files.check_workbook import write_check_workbook
-    from kit.files.policy_file import load_policy
-    from kit.files.stock_sheet import fill_count
     from kit.services.templates import write_stock_template
+
+    fleet = fleet or demo_fleet_folder()
+    vessels = read_particulars(fleet)
+    upgrade_database(engine)
+    load_particulars(engine, fleet)
+    # as `kit policy set --company ... --days`: the company's policy with its days of cover (kit's
+    # default content), so `kit bom` and `kit check` on this database need no --days either
+    for company in dict.fromkeys(v.company for v in vessels if v.company):
+        set_policy(engine, name="demo fleet policy", cover_days=round(days), in_force_from=DEMO_POLICY_FROM,
+                   company=company, note="invented, for the demo")
+    policy = load_policy()
+    results = {v.id: assess_vessel(v, days, policy) for v in vessels}  # what the invented files are made from
+    all_lines = [li for r in results.values() for li in r.lines]
+    register_parts(engine, days=days)  # as `kit parts register`: every part each vessel keeps
+    for n, supplier in enumerate(DEMO_OIL_PACKS):
+        catalogue_csv = imports / ("catalogue.csv" if n == 0 else f"catalogue-{n + 1}.csv")
+        _write_csv(catalogue_csv, _invented_catalogue(all_lines, supplier))
+        import_catalogue(engine, catalogue_csv, supplier)
+    for i, v in enumerate(vessels):  # the chief engineer's count: template, count, import
+        sheet = imports / f"count-{v.id.lower()}.xlsx"
+        write_stock_template(engine, sheet, v.id, days)
+        fill_count(sheet, _invented_count(results[v.id].lines, i), _invented_hours(v), "steering gear room",
+                   dt.date(2026, 11, 15))
+        import_stock(engine, sheet, None)
+    return vessels
+
+
+def build_demo(out: Path, days: float = 90.0, check_days: float = 120.0, fleet: Path | None = None) -> DemoOutput:
+    """Build the demo in ``out`` and return where everything is. ``out`` must be new, empty, or a
+    folder an earlier demo made (:func:`kit.files.output_targets.make_demo_folder`), which is replaced.
+    Every step is the service a user's command calls (:func:`fill_demo`)."""
+    from catalog_schema.engine import make_engine
+    from kit.files.output_targets import check_demo_folder, make_demo_folder, record_demo_folder
+    from kit.services.fleet import read_particulars
+    from kit.services.orders import build_order, check_voyage
+    from kit.files.check_workbook import write_check_workbook
     from kit.files.workbook import write_workbook
 
     check_demo_folder(out)  # before any work
     fleet = fleet or demo_fleet_folder()
-    vessels = read_particulars(fleet)  # every file checked before the folder is made
+    read_particulars(fleet)  # every file checked before the folder is made
     make_demo_folder(out)
     (out / "imports").mkdir()
     database = out / "fleet.sqlite"
     engine = make_engine(f"sqlite:///{database}")
     try:
-        upgrade_database(engine)
-        load_particulars(engine, fleet)
-        # as `kit policy set --company ... --days`: the company's policy with its days of cover (kit's
-        # default content), so `kit bom` and `kit check` on this database need no --days either
-        for company in dict.fromkeys(v.company for v in vessels if v.company):
-            set_policy(engine, name="demo fleet policy", cover_days=round(days), in_force_from=DEMO_POLICY_FROM,
-                       company=company, note="invented, for the demo")
-        policy = load_policy()
-        results = {v.id: assess_vessel(v, days, policy) for v in vessels}  # what the invented files are made from
-        all_lines = [li for r in results.values() for li in r.lines]
-        register_parts(engine, days=days)  # as `kit parts register`: every part each vessel keeps
-        for n, supplier in enumerate(DEMO_OIL_PACKS):
-            catalogue_csv = out / "imports" / ("catalogue.csv" if n == 0 else f"catalogue-{n + 1}.csv")
-            _write_csv(catalogue_csv, _invented_catalogue(all_lines, supplier))
-            import_catalogue(engine, catalogue_csv, supplier)
-        for i, v in enumerate(vessels):  # the chief engineer's count: template, count, import
-            sheet = out / "imports" / f"count-{v.id.lower()}.xlsx"
-            write_stock_template(engine, sheet, v.id, days)
-            fill_count(sheet, _invented_count(results[v.id].lines, i), _invented_hours(v), "steering gear room",
-                       dt.date(2026, 11, 15))
-            import_stock(engine, sheet, None)
+        vessels = fill_demo(engine, out / "imports", days, fleet)
         order, _ = build_order(engine, (), days)
         ids = order.vessel_ids
         workbook = write_workbook(order, out / "fleet-bom.xlsx", days, f"whole fleet, {len(ids)} vessels")

@@ -82,3 +82,67 @@ def list_vessels(engine: Engine, today=None) -> list:
 
     with engine.connect() as conn:
         return fleet_glance(conn, today or dt.date.today())
+
+
+@dataclass(frozen=True)
+class VesselStatus:
+    """One vessel of the fleet page: its glance row, its gear's rule verdicts and what is short on
+    board for a voyage of its policy's days of cover."""
+
+    glance: object  # kit.store.fleet_overview.VesselGlance
+    rules_not_met: int  # SOLAS II-1/29 rules judged "not met" over its units
+    rules_not_shown: int  # rules the particulars do not show either way
+    warnings: int  # the engine's warnings over its units (bad or doubtful particulars)
+    days: float | None  # the days of cover checked (None: no policy with days of cover in force)
+    short_lines: int | None  # lines short on board for those days (None when days is None)
+
+
+@dataclass(frozen=True)
+class FleetPage:
+    rows: list[VesselStatus]
+    total: int  # vessels matching the search, over all pages
+    page: int  # 1-based, within 1..pages
+    pages: int
+    search: str
+
+
+def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 25, today=None) -> FleetPage:
+    """One page of the fleet, sorted by id, for vessels whose id, name or ship type contains
+    ``search`` (any letter case). Only the page's vessels are worked out (rules, stock against
+    their policy's days of cover), so a thousand vessels cost what one page does."""
+    import datetime as dt
+
+    from kit.engine.preflight import shortfall_of, vessel_order
+    from kit.engine.requirements import assess_vessel
+    from kit.store.fleet_overview import fleet_glance
+    from kit.store.policy_store import cover_days_in_force, policies_in_force
+    from kit.store.fleet_store import read_vessels
+    from kit.store.order_sources import catalogue_offers, stock_on_board
+    from kit.store.purchasing_store import purchasing_context
+
+    today = today or dt.date.today()
+    needle = search.strip().casefold()
+    with engine.connect() as conn, conn.begin():
+        glance = [g for g in fleet_glance(conn, today)
+                  if not needle or any(needle in (t or "").casefold() for t in (g.id, g.name, g.ship_type))]
+        pages = max(1, -(-len(glance) // per_page))
+        page = min(max(1, page), pages)
+        shown = glance[(page - 1) * per_page: page * per_page]
+        ids = [g.id for g in shown]
+        vessels = {v.id: v for v in read_vessels(conn, ids)} if ids else {}
+        policies = policies_in_force(conn, ids, today) if ids else {}
+        cover = cover_days_in_force(conn, ids, today) if ids else {}
+        results = {i: assess_vessel(vessels[i], float(cover.get(i) or 0), policies[i], today) for i in ids}
+        keys = {li.key for r in results.values() for li in r.lines}
+        on_board, offers = stock_on_board(conn, ids), catalogue_offers(conn, keys)
+        purchasing = purchasing_context(conn, ids, today)
+    rows = []
+    for g in shown:
+        r = results[g.id]
+        verdicts = [rule.verdict for u in r.units for rule in u.checks.rules]
+        days = cover.get(g.id)
+        short = None if days is None else len(shortfall_of(vessel_order(r, on_board, offers, purchasing)).lines)
+        rows.append(VesselStatus(g, verdicts.count("not met"), verdicts.count("not shown"),
+                                 sum(len(u.warnings) + len(u.checks.warnings) for u in r.units),
+                                 None if days is None else float(days), short))
+    return FleetPage(rows, len(glance), page, pages, search)
