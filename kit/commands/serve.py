@@ -49,8 +49,11 @@ def serve_engine(engine, port: int, echo=click.echo) -> None:
     echo(f"kit: serving http://{host}:{port}/?token={token}")
     try:
         uvicorn.Server(config).run(sockets=[sock])
+    except KeyboardInterrupt:  # uvicorn stops gracefully on Ctrl+C, then raises it again
+        pass
     finally:
         sock.close()
+    echo("kit: stopped serving")
 
 
 @click.command(epilog=SAFETY)

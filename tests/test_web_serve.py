@@ -1,0 +1,105 @@
+# SPDX-License-Identifier: MIT
+"""``kit serve`` and ``kit demo --serve`` as a user starts them: a separate process on 127.0.0.1
+that prints one line with its address and start token, and refuses what it must."""
+
+from __future__ import annotations
+
+import http.client
+import re
+import signal
+import socket
+import subprocess
+import sys
+import time
+
+import pytest
+
+SERVING = re.compile(r"^kit: serving http://127\.0\.0\.1:(\d+)/\?token=([A-Za-z0-9_\-]{40,})$")
+
+
+def kit(*args: str) -> list[str]:
+    return [sys.executable, "-m", "kit", *args]
+
+
+def started(proc: subprocess.Popen, timeout: float = 60) -> tuple[int, str, list[str]]:
+    """The port and token of the line ``kit serve`` prints, and the lines before it."""
+    before = []
+    deadline = time.monotonic() + timeout
+    while time.monotonic() < deadline:
+        line = proc.stdout.readline()
+        if not line:
+            pytest.fail(f"kit ended before serving: {before} {proc.stderr.read()}")
+        found = SERVING.match(line.strip())
+        if found:
+            return int(found.group(1)), found.group(2), before
+        before.append(line.strip())
+    pytest.fail("kit did not print its address in time")
+
+
+def get(port: int, path: str, headers: dict | None = None):
+    conn = http.client.HTTPConnection("127.0.0.1", port, timeout=30)
+    conn.request("GET", path, headers=headers or {})
+    r = conn.getresponse()
+    body = r.read()
+    conn.close()
+    return r, body
+
+
+@pytest.fixture
+def stop():
+    procs = []
+    yield procs.append
+    for p in procs:  # only the processes this test started, by their own handle
+        if p.poll() is None:
+            p.send_signal(signal.SIGINT)
+            try:
+                p.wait(timeout=20)
+            except subprocess.TimeoutExpired:
+                p.kill()
+                p.wait()
+
+
+def test_serve_prints_one_line_and_the_token_opens_a_session(tmp_path, stop):
+    proc = subprocess.Popen(kit("serve", "--db", str(tmp_path / "fleet.sqlite"), "--port", "0"),
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    stop(proc)
+    port, token, before = started(proc)
+    assert before == []
+    r, _ = get(port, "/alive")
+    assert r.status == 401
+    r, _ = get(port, f"/?token={token}")
+    assert r.status == 303
+    cookie = r.getheader("set-cookie").split(";")[0]
+    r, body = get(port, "/alive", {"Cookie": cookie})
+    assert r.status == 200 and body == b"kit: serving\n"
+    r, _ = get(port, "/alive", {"Cookie": cookie, "Host": f"rebound.example:{port}"})
+    assert r.status == 400
+    proc.send_signal(signal.SIGINT)
+    assert proc.wait(timeout=20) == 0
+    assert token not in proc.stderr.read()  # no access log holds the token
+
+
+def test_a_port_in_use_is_one_line_exit_2(tmp_path):
+    taken = socket.socket()
+    taken.bind(("127.0.0.1", 0))
+    taken.listen(1)
+    try:
+        done = subprocess.run(kit("serve", "--db", str(tmp_path / "fleet.sqlite"), "--port", str(taken.getsockname()[1])),
+                              capture_output=True, text=True, timeout=60)
+    finally:
+        taken.close()
+    assert done.returncode == 2
+    assert len(done.stderr.strip().splitlines()) == 1 and "--port" in done.stderr and "free port" in done.stderr
+    assert "Traceback" not in done.stderr
+
+
+def test_demo_serve_builds_the_demo_then_serves_it(tmp_path, stop):
+    proc = subprocess.Popen(kit("demo", "--out", str(tmp_path / "demo"), "--serve", "--port", "0"),
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    stop(proc)
+    port, token, before = started(proc)
+    assert before[0].startswith("demo fleet: 6 vessels")
+    r, _ = get(port, f"/?token={token}")
+    cookie = r.getheader("set-cookie").split(";")[0]
+    r, body = get(port, "/", {"Cookie": cookie})
+    assert r.status == 200 and b"CORVINA-BAY" in body
