@@ -9,6 +9,7 @@ from sqlalchemy import (
     CheckConstraint,
     Column,
     Date,
+    DateTime,
     Float,
     ForeignKeyConstraint,
     Index,
@@ -23,6 +24,21 @@ from sqlalchemy import (
 from sqlalchemy.sql.elements import conv
 
 metadata = MetaData()
+
+AUDIT_EVENTS = Table(
+    "audit_events",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("at", DateTime, nullable=False),
+    Column("person", String, nullable=False),
+    Column("via", String, nullable=False),
+    Column("action", String, nullable=False),
+    Column("subject", String, nullable=False),
+    Column("before", Text, nullable=True),
+    Column("after", Text, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_audit_events")),
+    Index(conv("ix_audit_events_at"), "at", unique=False),
+)
 
 COMPANIES = Table(
     "companies",
@@ -58,6 +74,18 @@ EXCHANGE_RATES = Table(
     CheckConstraint("rate > 0", name=conv("ck_exchange_rates_rate")),
 )
 
+LOGIN_FAILURES = Table(
+    "login_failures",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("login", String, nullable=False),
+    Column("address", String, nullable=False),
+    Column("at", DateTime, nullable=False),
+    PrimaryKeyConstraint("id", name=conv("pk_login_failures")),
+    Index(conv("ix_login_failures_address"), "address", unique=False),
+    Index(conv("ix_login_failures_login"), "login", unique=False),
+)
+
 PARTS = Table(
     "parts",
     metadata,
@@ -68,6 +96,22 @@ PARTS = Table(
     Column("standard", String, nullable=True),
     PrimaryKeyConstraint("id", name=conv("pk_parts")),
     UniqueConstraint("key", name=conv("uq_parts_key")),
+)
+
+PEOPLE = Table(
+    "people",
+    metadata,
+    Column("id", Integer, nullable=False),
+    Column("login", String, nullable=False),
+    Column("name", String, nullable=False),
+    Column("role", String, nullable=False),
+    Column("password_hash", String, nullable=False),
+    Column("created_at", DateTime, nullable=False),
+    Column("disabled_at", DateTime, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_people")),
+    UniqueConstraint("login", name=conv("uq_people_login")),
+    CheckConstraint("login = lower(login) AND length(login) >= 2", name=conv("ck_people_login")),
+    CheckConstraint("role IN ('administrator', 'buyer', 'vessel_keeper', 'reader')", name=conv("ck_people_role")),
 )
 
 PURCHASING = Table(
@@ -161,6 +205,19 @@ VESSELS = Table(
     CheckConstraint("ship_type IN ('cargo', 'passenger', 'tanker', 'chemical_tanker', 'gas_carrier')", name=conv("ck_vessels_ship_type")),
 )
 
+WEB_SESSIONS = Table(
+    "web_sessions",
+    metadata,
+    Column("id", String, nullable=False),
+    Column("person_id", Integer, nullable=False),
+    Column("csrf", String, nullable=False),
+    Column("started_at", DateTime, nullable=False),
+    Column("seen_at", DateTime, nullable=False),
+    Column("ended_at", DateTime, nullable=True),
+    PrimaryKeyConstraint("id", name=conv("pk_web_sessions")),
+    ForeignKeyConstraint(["person_id"], ["people.id"], ondelete="CASCADE", name=conv("fk_web_sessions_person_id_people")),
+)
+
 DELIVERIES = Table(
     "deliveries",
     metadata,
@@ -185,6 +242,16 @@ FILTER_COUNTS = Table(
     PrimaryKeyConstraint("vessel_id", "unit_ref", "position", name=conv("pk_filter_counts")),
     ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_filter_counts_vessel_id_vessels")),
     CheckConstraint("run_since_change >= 0", name=conv("ck_filter_counts_run_since_change")),
+)
+
+PERSON_VESSELS = Table(
+    "person_vessels",
+    metadata,
+    Column("person_id", Integer, nullable=False),
+    Column("vessel_id", String, nullable=False),
+    PrimaryKeyConstraint("person_id", "vessel_id", name=conv("pk_person_vessels")),
+    ForeignKeyConstraint(["person_id"], ["people.id"], ondelete="CASCADE", name=conv("fk_person_vessels_person_id_people")),
+    ForeignKeyConstraint(["vessel_id"], ["vessels.id"], ondelete="CASCADE", name=conv("fk_person_vessels_vessel_id_vessels")),
 )
 
 SPARES_POLICIES = Table(

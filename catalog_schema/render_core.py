@@ -18,12 +18,12 @@ from __future__ import annotations
 import sys
 from pathlib import Path
 
-from sqlalchemy import Boolean, CheckConstraint, Date, Float, ForeignKeyConstraint, Integer, MetaData, String, Text
+from sqlalchemy import Boolean, CheckConstraint, Date, DateTime, Float, ForeignKeyConstraint, Integer, MetaData, String, Text
 from sqlalchemy import PrimaryKeyConstraint, TypeDecorator, UniqueConstraint
 
 TARGET = Path(__file__).with_name("core_tables.py")
 # Type classes as Core knows them; SQLModel's AutoString is a String to SQLite and PostgreSQL.
-_TYPES = ((Boolean, "Boolean"), (Date, "Date"), (Integer, "Integer"), (Float, "Float"), (Text, "Text"), (String, "String"))
+_TYPES = ((Boolean, "Boolean"), (DateTime, "DateTime"), (Date, "Date"), (Integer, "Integer"), (Float, "Float"), (Text, "Text"), (String, "String"))
 
 HEADER = '''# SPDX-License-Identifier: MIT
 """The fleet tables as SQLAlchemy Core tables, for commands that run Core statements only.
@@ -36,6 +36,7 @@ from sqlalchemy import (
     CheckConstraint,
     Column,
     Date,
+    DateTime,
     Float,
     ForeignKeyConstraint,
     Index,

@@ -13,7 +13,7 @@ from __future__ import annotations
 import datetime as dt
 from typing import Optional
 
-from sqlalchemy import CheckConstraint, Column, ForeignKey, Integer, String, Text, UniqueConstraint
+from sqlalchemy import CheckConstraint, Column, DateTime, ForeignKey, Integer, String, Text, UniqueConstraint
 from sqlmodel import Field, SQLModel
 
 from catalog_schema.conventions import DEFAULT_LOCATION, NAMING
@@ -424,3 +424,78 @@ class EnquiryLineRow(SQLModel, table=True):
     designation: str
     quantity: float
     uom: str
+
+
+# The roles a person may hold on the office server (revision 0009; kit/engine/access.py says what each may do).
+ROLES = ("administrator", "buyer", "vessel_keeper", "reader")
+
+
+class PersonRow(SQLModel, table=True):
+    """Someone who signs in to the office server: a login (kept in lower case), a name, one role and
+    an argon2 hash of the password (never the password). A person who leaves is disabled, never
+    deleted, so the audit trail keeps saying who did what. (Revision 0009.)"""
+
+    __tablename__ = "people"
+    __table_args__ = (CheckConstraint("role IN ('administrator', 'buyer', 'vessel_keeper', 'reader')", name="role"),
+                      CheckConstraint("login = lower(login) AND length(login) >= 2", name="login"))
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    login: str = Field(sa_column_kwargs={"unique": True, "nullable": False})
+    name: str
+    role: str
+    password_hash: str
+    created_at: dt.datetime = Field(sa_type=DateTime)
+    disabled_at: Optional[dt.datetime] = Field(default=None, sa_type=DateTime)
+
+
+class PersonVesselRow(SQLModel, table=True):
+    """A vessel a vessel keeper keeps (counts its stock and filter hours). (Revision 0009.)"""
+
+    __tablename__ = "person_vessels"
+
+    person_id: int = Field(foreign_key="people.id", ondelete="CASCADE", primary_key=True)
+    vessel_id: str = Field(foreign_key="vessels.id", ondelete="CASCADE", primary_key=True)
+
+
+class WebSessionRow(SQLModel, table=True):
+    """A signed-in browser: the SHA-256 of its session cookie (the cookie itself is never stored),
+    its person, its CSRF token, when it started and was last used, and when it ended (logout or
+    expiry). Kept in the database so several servers share it. (Revision 0009.)"""
+
+    __tablename__ = "web_sessions"
+
+    id: str = Field(primary_key=True)
+    person_id: int = Field(foreign_key="people.id", ondelete="CASCADE")
+    csrf: str
+    started_at: dt.datetime = Field(sa_type=DateTime)
+    seen_at: dt.datetime = Field(sa_type=DateTime)
+    ended_at: Optional[dt.datetime] = Field(default=None, sa_type=DateTime)
+
+
+class LoginFailureRow(SQLModel, table=True):
+    """A failed sign-in: the login tried (lower case), the client's address, when. Counted over a
+    window to throttle guessing per account and per address. (Revision 0009.)"""
+
+    __tablename__ = "login_failures"
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    login: str = Field(index=True)
+    address: str = Field(index=True)
+    at: dt.datetime = Field(sa_type=DateTime)
+
+
+class AuditEventRow(SQLModel, table=True):
+    """Who did what and when: the person (their login, or the command line's user), how (web or
+    command line), the action, what it was done to, and the before and after as JSON text. kit only
+    ever inserts these rows; the database refuses to update or delete them (triggers, revision 0009)."""
+
+    __tablename__ = "audit_events"
+
+    id: Optional[int] = Field(default=None, primary_key=True)
+    at: dt.datetime = Field(sa_type=DateTime, index=True)
+    person: str
+    via: str
+    action: str
+    subject: str
+    before: Optional[str] = Field(default=None, sa_type=Text)
+    after: Optional[str] = Field(default=None, sa_type=Text)

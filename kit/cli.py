@@ -37,6 +37,8 @@ COMMANDS: dict[str, tuple[str, str, str]] = {
     "delivery": ("kit.commands.delivery", "delivery", "Set, list or remove where and when an order must be on board."),
     "vessels": ("kit.commands.vessels", "vessels", "List the fleet's vessels: units, last stock count, next delivery."),
     "serve": ("kit.commands.serve", "serve", "Serve the fleet database as pages in a browser on this PC."),
+    "people": ("kit.commands.people", "people", "Add, change and list who may sign in to the office server, and their roles."),
+    "audit": ("kit.commands.audit", "audit", "List who changed what in the fleet database, and when."),
     "enquiry": ("kit.commands.enquiry", "enquiry", "Write enquiries to suppliers from the order; read their replies back."),
 }
 

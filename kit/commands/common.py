@@ -31,6 +31,8 @@ OPTIONS = {
     "rates import": {"decimal mark": "--decimal-mark"},
     "demo": {"demo folder": "--out", "port": "--port"},
     "serve": {"port": "--port"},
+    "people add": {"login": "LOGIN", "name": "--name", "role": "--role"},
+    "people change": {"login": "LOGIN", "name": "--name", "role": "--role"},
     "bom": {"days": "--days"},
     "check": {"days": "--days"},
     "enquiry write": {"days": "--days", "reply-by date": "--reply-by"},
