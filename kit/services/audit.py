@@ -51,3 +51,18 @@ def read_audit(engine: Engine, *, since: dt.datetime | None = None, person: str 
 
     with engine.connect() as conn:
         return events(conn, since=since, person=person, subject=subject, limit=limit)
+
+
+def stock_snapshot(conn: Connection, vessel_id: str) -> dict:
+    """A vessel's stock as the audit trail records it: "part key @ location" -> [quantity, counted on]."""
+    from kit.store.stock_import import vessel_stock
+
+    return {f"{r.key} @ {r.location}": [r.quantity, None if r.counted_on is None else r.counted_on.isoformat()]
+            for r in vessel_stock(conn, vessel_id)}
+
+
+def deliveries_snapshot(conn: Connection, vessel_id: str) -> list:
+    """A vessel's deliveries, past ones too: [due on, port, note]."""
+    from kit.store.purchasing_records import list_deliveries
+
+    return [[d.delivery.due_on.isoformat(), d.delivery.port, d.note] for d in list_deliveries(conn, vessel_id)]

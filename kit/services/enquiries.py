@@ -48,7 +48,7 @@ def _new_id(today: dt.date, taken: Iterable[str] = ()):
 
 def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, folder: str | Path,
                     reply_by: dt.date | None = None, policy_file: str | None = None,
-                    progress: Progress = no_progress, paper: str = "a4") -> WrittenEnquiries:
+                    progress: Progress = no_progress, paper: str = "a4", actor=None) -> WrittenEnquiries:
     """Build the order of the vessels (all, or ``vessel_ids``) over ``days`` and write one enquiry
     workbook per supplier it buys from, and one open enquiry for the lines no supplier offers, into
     ``folder``, to print on ``paper`` ("a4" or "letter"); each line names the next delivery on board
@@ -78,7 +78,14 @@ def write_enquiries(engine: Engine, vessel_ids: Iterable[str], days: float, fold
     for path in paths:
         refuse_bad_target(path)
     with staged([(path, enquiry_writer(e, paper)) for e, path in zip(found, paths)]) as publish:
-        write_transaction(engine, lambda conn: record_enquiries(conn, found))
+        def record(conn):
+            from kit.services.audit import audit
+
+            record_enquiries(conn, found)
+            for e in found:
+                audit(conn, actor, "write enquiry", e.id, None, {"supplier": e.supplier or "any supplier", "lines": len(e.lines)})
+
+        write_transaction(engine, record)
         publish()
     skipped = sum(1 for line in order.lines if line.to_order <= 0)
     return WrittenEnquiries(list(zip(found, paths)), scope, len(order.lines), skipped)
@@ -93,7 +100,7 @@ class ReplyReport:
     unmatched: list  # (where, part number, part key) of quoted lines whose part is not registered
 
 
-def read_enquiry_reply(engine: Engine, path: str | Path) -> ReplyReport:
+def read_enquiry_reply(engine: Engine, path: str | Path, actor=None) -> ReplyReport:
     """Read ``path``, a filled-in enquiry, and store its quoted lines as the supplier's offers (its
     catalogue entries for those parts; the rest of its catalogue stays)."""
     from catalog_schema.engine import write_transaction
@@ -109,6 +116,14 @@ def read_enquiry_reply(engine: Engine, path: str | Path) -> ReplyReport:
     checked = check_reply(reply, record)
     report = None
     if checked.quoted:
-        report = write_transaction(engine, lambda conn: write_catalogue(conn, checked.catalogue, whole=False))
+        def work(conn):
+            from kit.services.audit import audit
+
+            done = write_catalogue(conn, checked.catalogue, whole=False)
+            audit(conn, actor, "read enquiry reply", reply.enquiry_id, None,
+                  {"supplier": done.supplier, "quoted": checked.quoted, "file": Path(path).name})
+            return done
+
+        report = write_transaction(engine, work)
     return ReplyReport(reply.enquiry_id, report.supplier if report else checked.catalogue.supplier, checked.quoted, checked.skipped,
                        report.unmatched if report else [])

@@ -19,14 +19,25 @@ def read_particulars(path: str | Path) -> list:
     return read(path)
 
 
-def load_particulars(engine: Engine, path: str | Path) -> list[str]:
+def load_particulars(engine: Engine, path: str | Path, actor=None) -> list[str]:
     """Check every vessel of ``path`` (see :func:`read_particulars`), then save them all in one
     transaction; return their ids."""
     from catalog_schema.engine import write_transaction
+    from kit.services.audit import audit
     from kit.store.fleet_store import save_vessels
+    from kit.store.vessel_ids import known_vessel_ids
 
     vessels = read_particulars(path)
-    return write_transaction(engine, lambda conn: save_vessels(conn, vessels))
+
+    def work(conn):
+        before = known_vessel_ids(conn, [v.id for v in vessels])
+        saved = save_vessels(conn, vessels)
+        for vid in saved:
+            audit(conn, actor, "load particulars", vid, {"stored": vid in before},
+                  {"stored": True, "file": Path(path).name, "units": len(next(v for v in vessels if v.id == vid).units)})
+        return saved
+
+    return write_transaction(engine, work)
 
 
 def work_out(path: str | Path, days: float, policy_file: str | None = None):

@@ -9,6 +9,7 @@ from pathlib import Path
 from sqlalchemy.engine import Engine
 
 from kit.errors import ArgumentError
+from kit.services.audit import Actor, audit, stock_snapshot
 
 
 def supplier_name(supplier: str, path: str | Path) -> str:
@@ -21,7 +22,7 @@ def supplier_name(supplier: str, path: str | Path) -> str:
     return name
 
 
-def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None):
+def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None, actor: Actor | None = None):
     """Replace ``supplier``'s catalogue by the rows of ``path``: a
     :class:`kit.store.catalogue_import.CatalogueReport` listing what matched no generic part.
     ``decimal`` is the decimal mark of the file's numbers ("point", "comma"; None: by the file's kind)."""
@@ -29,11 +30,22 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
     from kit.files.catalogue_sheet import read_catalogue
     from kit.store.catalogue_import import write_catalogue
 
+    from kit.store.catalogue_import import supplier_entry_count
+
     catalogue = read_catalogue(path, supplier_name(supplier, path), decimal)
-    return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
+
+    def work(conn):
+        before = supplier_entry_count(conn, catalogue.supplier)
+        report = write_catalogue(conn, catalogue)
+        audit(conn, actor, "import catalogue", report.supplier, {"entries": before},
+              {"entries": report.rows, "matched": report.matched, "file": Path(path).name})
+        return report
+
+    return write_transaction(engine, work)
 
 
-def import_stock(engine: Engine, path: str | Path, vessel_id: str | None, mode: str = "count", decimal: str | None = None):
+def import_stock(engine: Engine, path: str | Path, vessel_id: str | None, mode: str = "count", decimal: str | None = None,
+                 actor: Actor | None = None):
     """Write the stock rows of ``path`` for ``vessel_id`` (``mode`` "count" or "adjust"): a
     :class:`kit.store.stock_import.StockReport`. The vessel id in any letter case. A file made for one vessel (its column
     ``vessel``) is refused for another; ``vessel_id`` None takes the file's, and a file that
@@ -54,4 +66,12 @@ def import_stock(engine: Engine, path: str | Path, vessel_id: str | None, mode: 
         vessel_id = stock.vessel
     stock.refuse_other_vessel(vessel_id)  # before the database is opened
     chosen = vessel_id
-    return write_transaction(engine, lambda conn: write_stock(conn, stock, resolve_vessel_id(conn, chosen)))
+
+    def work(conn):
+        vessel = resolve_vessel_id(conn, chosen)
+        before = stock_snapshot(conn, vessel)
+        report = write_stock(conn, stock, vessel)
+        audit(conn, actor, "stock " + mode, vessel, before, stock_snapshot(conn, vessel) | {"file": Path(path).name})
+        return report
+
+    return write_transaction(engine, work)

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import datetime as dt
 from dataclasses import dataclass
+from pathlib import Path
 
 from sqlalchemy.engine import Engine
 
@@ -28,7 +29,8 @@ def check_policy_values(*, name: str, cover_days: int, company: str | None, vess
 
 
 def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.date, company: str | None = None,
-               vessel: str | None = None, note: str | None = None, policy_file: str | None = None) -> None:
+               vessel: str | None = None, note: str | None = None, policy_file: str | None = None,
+               actor=None) -> None:
     """Record a policy for one company or one vessel from ``in_force_from``; with ``policy_file``
     its content is stored too, checked first (see :func:`kit.store.policy_store.set_policy`)."""
     from catalog_schema.engine import write_transaction
@@ -39,9 +41,17 @@ def set_policy(engine: Engine, *, name: str, cover_days: int, in_force_from: dt.
     check_policy_values(name=name, cover_days=cover_days, company=company, vessel=vessel, note=note)
     from kit.store.vessel_ids import resolve_vessel_id
 
-    write_transaction(engine, lambda conn: record(conn, name=name, cover_days=cover_days, in_force_from=in_force_from,
-                                                  company=company, vessel=vessel and resolve_vessel_id(conn, vessel),
-                                                  note=note, content=content, content_source=str(policy_file)))
+    from kit.services.audit import audit
+
+    def work(conn):
+        stored_vessel = vessel and resolve_vessel_id(conn, vessel)
+        record(conn, name=name, cover_days=cover_days, in_force_from=in_force_from, company=company,
+               vessel=stored_vessel, note=note, content=content, content_source=str(policy_file))
+        audit(conn, actor, "set policy", stored_vessel or company, None,
+              {"name": name, "days of cover": cover_days, "in force from": in_force_from.isoformat(), "note": note,
+               "content": "kit's default" if content is None else f"from {Path(str(policy_file)).name}"})
+
+    write_transaction(engine, work)
 
 
 @dataclass(frozen=True)

@@ -16,6 +16,7 @@ from pathlib import Path
 from sqlalchemy.engine import Engine
 
 from kit.errors import ArgumentError
+from kit.services.audit import Actor, audit, deliveries_snapshot
 
 MAX_HANDLING_DAYS = 365  # as the database's check on purchasing.handling_days
 NO_BASE = "a base currency set first (kit purchasing set sets it)"
@@ -51,7 +52,8 @@ def _shown(conn, today: dt.date) -> PurchasingShown:
     return PurchasingShown(settings, rate_counts(conn), len(rates_in_force(conn, base, today)) if base else 0, today)
 
 
-def set_purchasing(engine: Engine, *, base_currency: str | None = None, handling_days: int | None = None) -> PurchasingShown:
+def set_purchasing(engine: Engine, *, base_currency: str | None = None, handling_days: int | None = None,
+                   actor: Actor | None = None) -> PurchasingShown:
     """Set the base currency offers are compared in and/or the handling margin in days (0 to
     :data:`MAX_HANDLING_DAYS`); the other setting is kept. Rates stored into another base stay
     stored (each carries its base); the result counts them so a face can say so."""
@@ -71,10 +73,18 @@ def set_purchasing(engine: Engine, *, base_currency: str | None = None, handling
         values["handling_days"] = handling_days
 
     def work(conn):
-        record(conn, **values)
+        from kit.store.purchasing_records import purchasing_settings
+
+        before = purchasing_settings(conn)
+        after = record(conn, **values)
+        audit(conn, actor, "set purchasing", "purchasing", _settings(before), _settings(after))
         return _shown(conn, dt.date.today())
 
     return write_transaction(engine, work)
+
+
+def _settings(s) -> dict:
+    return {"base currency": s.base_currency, "handling days": s.handling_days}
 
 
 def show_purchasing(engine: Engine) -> PurchasingShown:
@@ -95,7 +105,7 @@ def _base(conn) -> str:
     return base
 
 
-def set_rate(engine: Engine, currency: str, rate: float, on: dt.date | None = None, source: str = ""):
+def set_rate(engine: Engine, currency: str, rate: float, on: dt.date | None = None, source: str = "", actor: Actor | None = None):
     """Record that one unit of ``currency`` is worth ``rate`` units of the base currency, as set on
     ``on`` (default today, never after it) from ``source``: the :class:`kit.engine.purchasing.Rate`
     stored. The same currency and day again replaces the rate."""
@@ -121,7 +131,9 @@ def set_rate(engine: Engine, currency: str, rate: float, on: dt.date | None = No
         if code == base:
             raise ArgumentError("", "currency", f"a currency other than the base currency {base} (its rate is 1)", got=code)
         stored = Rate(code, base, float(rate), day, text)
+        before = _rates_snapshot(conn, base, [code])
         set_rates(conn, [stored])
+        audit(conn, actor, "set rate", code, before, _rates_snapshot(conn, base, [code]))
         return stored
 
     return write_transaction(engine, work)
@@ -134,7 +146,16 @@ class RatesImported:
     rates: list  # the kit.engine.purchasing.Rate rows written
 
 
-def import_rates(engine: Engine, path: str | Path, decimal: str | None = None) -> RatesImported:
+def _rates_snapshot(conn, base: str, currencies) -> dict:
+    """The rates in force today into ``base`` for ``currencies``: code -> [rate, set on, source]."""
+    from kit.store.purchasing_records import rates_in_force
+
+    wanted = set(currencies)
+    return {r.currency: [r.rate, r.set_on.isoformat(), r.source]
+            for r in rates_in_force(conn, base, dt.date.today()) if r.currency in wanted}
+
+
+def import_rates(engine: Engine, path: str | Path, decimal: str | None = None, actor: Actor | None = None) -> RatesImported:
     """Store every rate of the CSV file ``path`` (columns currency, rate, set_on, source; see
     :mod:`kit.files.rates_sheet`) into the base currency, all or nothing."""
     from catalog_schema.engine import write_transaction
@@ -151,7 +172,10 @@ def import_rates(engine: Engine, path: str | Path, decimal: str | None = None) -
 
             raise InputError("fleet database", "base currency", f"still {base} while the rates were written",
                              got=_base(conn))
+        codes = {r.currency for r in rates}
+        before = _rates_snapshot(conn, base, codes)
         set_rates(conn, rates)
+        audit(conn, actor, "import rates", Path(path).name, before, _rates_snapshot(conn, base, codes))
         return RatesImported(str(path), base, rates)
 
     return write_transaction(engine, work)
@@ -187,7 +211,8 @@ class Preference:
     offered: bool = True  # False: the supplier offers nothing for that part (yet), so it cannot be chosen
 
 
-def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, note: str | None = None) -> Preference:
+def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, note: str | None = None,
+                    actor: Actor | None = None) -> Preference:
     """Prefer ``supplier`` over price: for everything it offers, or with ``part_key`` for that one
     part (one supplier per part; it wins over a supplier preferred for everything)."""
     from catalog_schema.engine import write_transaction
@@ -202,14 +227,17 @@ def prefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, 
     def work(conn):
         name = supplier_named(conn, given) or given
         if key is None:
-            return Preference(name, None, not set_preferred(conn, name, True))
+            done = Preference(name, None, not set_preferred(conn, name, True))
+            audit(conn, actor, "prefer supplier", name, None, {"for": "everything it offers"})
+            return done
         before = prefer_for_part(conn, name, key, remark)
+        audit(conn, actor, "prefer supplier", name, {"part": key, "preferred": before}, {"part": key, "preferred": name, "note": remark})
         return Preference(name, key, True, before if before != name else None, offers_part(conn, name, key))
 
     return write_transaction(engine, work)
 
 
-def unprefer_supplier(engine: Engine, supplier: str, part_key: str | None = None) -> Preference:
+def unprefer_supplier(engine: Engine, supplier: str, part_key: str | None = None, actor: Actor | None = None) -> Preference:
     """Undo :func:`prefer_supplier`: for everything, or with ``part_key`` for that part only."""
     from catalog_schema.engine import write_transaction
     from kit.store.purchasing_records import set_preferred, supplier_named, unprefer_for_part
@@ -220,8 +248,11 @@ def unprefer_supplier(engine: Engine, supplier: str, part_key: str | None = None
     def work(conn):
         name = supplier_named(conn, given) or given
         if key is None:
-            return Preference(name, None, set_preferred(conn, name, False))
-        return Preference(name, key, unprefer_for_part(conn, name, key))
+            done = Preference(name, None, set_preferred(conn, name, False))
+        else:
+            done = Preference(name, key, unprefer_for_part(conn, name, key))
+        audit(conn, actor, "unprefer supplier", name, None, {"for": key or "everything it offers"})
+        return done
 
     return write_transaction(engine, work)
 
@@ -244,7 +275,8 @@ class DeliverySet:
     replaced: str | None  # the port set before for that vessel and day
 
 
-def set_delivery(engine: Engine, vessel_id: str, port: str, due_on: dt.date, note: str | None = None) -> DeliverySet:
+def set_delivery(engine: Engine, vessel_id: str, port: str, due_on: dt.date, note: str | None = None,
+                 actor: Actor | None = None) -> DeliverySet:
     """Record where (``port``) and when (``due_on``, today or later) an order must be on board
     ``vessel_id``; the same vessel and day again replaces the port."""
     from catalog_schema.engine import write_transaction
@@ -260,13 +292,16 @@ def set_delivery(engine: Engine, vessel_id: str, port: str, due_on: dt.date, not
 
     def write(conn):
         stored = resolve_vessel_id(conn, vessel)  # any letter case, as every command takes an id
-        return stored, record(conn, stored, where, due_on, remark)
+        before = deliveries_snapshot(conn, stored)
+        replaced = record(conn, stored, where, due_on, remark)
+        audit(conn, actor, "set delivery", stored, before, deliveries_snapshot(conn, stored))
+        return stored, replaced
 
     stored, replaced = write_transaction(engine, write)
     return DeliverySet(stored, where, due_on, replaced)
 
 
-def remove_delivery(engine: Engine, vessel_id: str, due_on: dt.date) -> str:
+def remove_delivery(engine: Engine, vessel_id: str, due_on: dt.date, actor: Actor | None = None) -> str:
     """Remove ``vessel_id``'s delivery on ``due_on``: the port it had (:class:`ArgumentError` when
     there is none that day)."""
     from catalog_schema.engine import write_transaction
@@ -274,7 +309,15 @@ def remove_delivery(engine: Engine, vessel_id: str, due_on: dt.date) -> str:
 
     from kit.store.vessel_ids import resolve_vessel_id
 
-    port = write_transaction(engine, lambda conn: remove(conn, resolve_vessel_id(conn, vessel_id), due_on))
+    def work(conn):
+        stored = resolve_vessel_id(conn, vessel_id)
+        before = deliveries_snapshot(conn, stored)
+        gone = remove(conn, stored, due_on)
+        if gone is not None:
+            audit(conn, actor, "remove delivery", stored, before, deliveries_snapshot(conn, stored))
+        return gone
+
+    port = write_transaction(engine, work)
     if port is None:
         raise ArgumentError("", "delivery date", f"the day of one of {vessel_id}'s deliveries (kit delivery list shows them)",
                             got=due_on.isoformat())

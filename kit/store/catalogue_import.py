@@ -94,3 +94,14 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
     located(conn, ENTRIES, ROW_COLUMNS, rows, lambda c, some: insert_rows(c, ENTRIES, ROW_COLUMNS, some),
             lambda i: table.where(entries[i][0]), {"supplier_id": "supplier name", "part_id": "part_key"})
     return report
+
+
+def supplier_entry_count(conn: Connection, supplier: str) -> int:
+    """How many catalogue entries ``supplier`` (any letter case) has; 0 for a supplier not yet stored."""
+    from sqlalchemy import func
+
+    name = supplier_named(conn, supplier)
+    if name is None:
+        return 0
+    return conn.execute(select(func.count()).select_from(ENTRIES).join(SUPPLIERS, SUPPLIERS.c.id == ENTRIES.c.supplier_id)
+                        .where(SUPPLIERS.c.name == name)).scalar_one()

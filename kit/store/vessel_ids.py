@@ -67,3 +67,13 @@ def refuse_case_twins(conn: Connection, vessels: Iterable) -> None:
             raise InputError(v.source or f"vessel {v.id}", "vessel.id",
                              f"an id that differs from vessel {other!r} by more than letter case "
                              "(kit matches vessel ids whatever the case)", got=repr(v.id))
+
+
+def known_vessel_ids(conn: Connection, ids: Iterable[str]) -> set[str]:
+    """Those of ``ids`` (exactly as stored) the database holds."""
+    from sqlalchemy import select
+
+    from catalog_schema.core_tables import VESSELS
+
+    wanted = list(dict.fromkeys(ids))
+    return set(conn.execute(select(VESSELS.c.id).where(VESSELS.c.id.in_(wanted))).scalars()) if wanted else set()
