@@ -103,3 +103,64 @@ def test_demo_serve_builds_the_demo_then_serves_it(tmp_path, stop):
     cookie = r.getheader("set-cookie").split(";")[0]
     r, body = get(port, "/", {"Cookie": cookie})
     assert r.status == 200 and b"CORVINA-BAY" in body
+
+
+def _with_person(tmp_path) -> str:
+    """A fleet database with one person in it (so the server asks people to sign in)."""
+    db = str(tmp_path / "fleet.sqlite")
+    pw = tmp_path / "pw"
+    pw.write_text("gangway watch 0400\n")
+    done = subprocess.run(kit("people", "add", "ada", "--name", "Ada Lind", "--role", "administrator",
+                              "--password-file", str(pw), "--db", db), capture_output=True, text=True, timeout=120)
+    assert done.returncode == 0, done.stderr
+    return db
+
+
+@pytest.mark.parametrize("extra,expected", [
+    ([], "unless people sign in"),  # no people: never beyond this PC
+])
+def test_beyond_this_pc_without_people_is_refused(tmp_path, extra, expected):
+    done = subprocess.run(kit("serve", "--db", str(tmp_path / "fleet.sqlite"), "--host", "127.0.0.2", "--port", "0", *extra),
+                          capture_output=True, text=True, timeout=60)
+    assert done.returncode == 2 and expected in done.stderr and len(done.stderr.strip().splitlines()) == 1
+
+
+def test_beyond_this_pc_without_tls_or_a_proxy_is_refused(tmp_path):
+    db = _with_person(tmp_path)
+    done = subprocess.run(kit("serve", "--db", db, "--host", "127.0.0.2", "--port", "0"), capture_output=True, text=True, timeout=60)
+    assert done.returncode == 2 and "TLS" in done.stderr and len(done.stderr.strip().splitlines()) == 1
+    done = subprocess.run(kit("serve", "--db", db, "--host", "127.0.0.2", "--port", "0", "--behind-proxy"),
+                          capture_output=True, text=True, timeout=60)
+    assert done.returncode == 2 and "--trusted-proxy" in done.stderr
+
+
+def test_with_people_and_tls_it_serves_https_with_secure_cookies(tmp_path, stop):
+    import ssl
+
+    db = _with_person(tmp_path)
+    cert, key = tmp_path / "cert.pem", tmp_path / "key.pem"
+    made = subprocess.run(["openssl", "req", "-x509", "-newkey", "rsa:2048", "-nodes", "-keyout", str(key), "-out", str(cert),
+                           "-days", "2", "-subj", "/CN=kit.office.test"], capture_output=True, timeout=120)
+    assert made.returncode == 0, made.stderr
+    proc = subprocess.Popen(kit("serve", "--db", db, "--host", "127.0.0.2", "--port", "0", "--hostname", "kit.office.test",
+                                "--tls-cert", str(cert), "--tls-key", str(key)),
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    stop(proc)
+    line = proc.stdout.readline().strip()
+    found = re.match(r"^kit: serving https://kit\.office\.test:(\d+)/ \(people sign in\)$", line)
+    assert found, line
+    port = int(found.group(1))
+    context = ssl._create_unverified_context()  # our own throwaway certificate
+    conn = http.client.HTTPSConnection("127.0.0.2", port, timeout=30, context=context)
+    conn.request("GET", "/sign-in", headers={"Host": f"kit.office.test:{port}"})
+    r = conn.getresponse()
+    r.read()
+    assert r.status == 200
+    cookie = r.getheader("set-cookie")
+    assert "Secure" in cookie and "HttpOnly" in cookie
+    assert "frame-ancestors 'none'" in r.getheader("content-security-policy")
+    conn.request("GET", "/sign-in", headers={"Host": f"rebound.example:{port}"})  # a name not given: refused
+    r = conn.getresponse()
+    r.read()
+    assert r.status == 400
+    conn.close()

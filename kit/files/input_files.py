@@ -46,6 +46,7 @@ TOML_POLICY = Kind("a readable spares policy file", MAX_TOML_BYTES)
 SHEET_CSV = Kind("an existing .xlsx or .csv file", MAX_CSV_BYTES)
 SHEET_XLSX = Kind("an existing .xlsx or .csv file", MAX_XLSX_BYTES)
 PARTICULARS_XLSX = Kind("an existing .xlsx file", MAX_XLSX_BYTES)
+TLS_FILE = Kind("a readable PEM file", 1024 * 1024)
 PASSWORD_FILE = Kind("a readable file holding a password on its first line", 4096)
 
 

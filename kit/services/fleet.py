@@ -117,10 +117,12 @@ class FleetPage:
     search: str
 
 
-def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 25, today=None) -> FleetPage:
+def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 25, today=None,
+               only: tuple[str, ...] | None = None) -> FleetPage:
     """One page of the fleet, sorted by id, for vessels whose id, name or ship type contains
-    ``search`` (any letter case). Only the page's vessels are worked out (rules, stock against
-    their policy's days of cover), so a thousand vessels cost what one page does."""
+    ``search`` (any letter case), among ``only`` (ids as stored; None: every vessel). Only the
+    page's vessels are worked out (rules, stock against their policy's days of cover), so a
+    thousand vessels cost what one page does."""
     import datetime as dt
 
     from kit.engine.preflight import shortfall_of, vessel_order
@@ -134,8 +136,9 @@ def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 
     today = today or dt.date.today()
     needle = search.strip().casefold()
     with engine.connect() as conn, conn.begin():
-        glance = [g for g in fleet_glance(conn, today)
-                  if not needle or any(needle in (t or "").casefold() for t in (g.id, g.name, g.ship_type))]
+        among = None if only is None else set(only)
+        glance = [g for g in fleet_glance(conn, today) if (among is None or g.id in among)
+                  and (not needle or any(needle in (t or "").casefold() for t in (g.id, g.name, g.ship_type)))]
         pages = max(1, -(-len(glance) // per_page))
         page = min(max(1, page), pages)
         shown = glance[(page - 1) * per_page: page * per_page]

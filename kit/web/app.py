@@ -12,12 +12,15 @@ from __future__ import annotations
 
 from kit.web.guard import UPLOAD_LIMIT
 
-PAGES = ("fleet", "vessel", "order", "suppliers", "particulars")  # modules of kit.web.pages, each with a ``router``
+PAGES = ("fleet", "vessel", "order", "suppliers", "particulars", "signin", "audit")  # modules of kit.web.pages, each with a ``router``
 
 
-def create_app(engine, *, token: str, host: str = "127.0.0.1", port: int = 8750, upload_limit: int = UPLOAD_LIMIT):
+def create_app(engine, *, token: str, host: str = "127.0.0.1", port: int = 8750, upload_limit: int = UPLOAD_LIMIT,
+               people: bool | None = None, secure_cookies: bool = False, names: tuple[str, ...] = ()):
     """The web application over ``engine`` (the fleet database), answering at ``host``:``port``
-    to a browser that opened the link with ``token``."""
+    (and at the host ``names`` given) to a browser that opened the link with ``token``; or, with
+    ``people`` (default: whether the database holds any), to people who sign in. ``secure_cookies``
+    when the browser reaches it over TLS (directly or through a proxy)."""
     import importlib
 
     from fastapi import FastAPI, Request
@@ -26,6 +29,8 @@ def create_app(engine, *, token: str, host: str = "127.0.0.1", port: int = 8750,
     from fastapi.staticfiles import StaticFiles
 
     from kit.errors import KitError
+    from kit.services.people import anyone_signs_in
+    from kit.web.access import Forbidden
     from kit.web.guard import BodyTooLarge, CsrfRefused, Guard, Sessions, allowed_hosts
     from kit.web.render import HERE, refusal_page
 
@@ -33,6 +38,8 @@ def create_app(engine, *, token: str, host: str = "127.0.0.1", port: int = 8750,
     app.state.engine = engine
     app.state.upload_limit = upload_limit
     app.state.sessions = Sessions()
+    app.state.people = anyone_signs_in(engine) if people is None else people
+    app.state.secure_cookies = secure_cookies
 
     def refused(request: Request, status: int, text: str) -> HTMLResponse:
         return HTMLResponse(refusal_page(status, text, request), status_code=status)
@@ -44,6 +51,10 @@ def create_app(engine, *, token: str, host: str = "127.0.0.1", port: int = 8750,
     @app.exception_handler(BodyTooLarge)
     async def too_large(request: Request, exc: BodyTooLarge):
         return refused(request, 413, str(exc))
+
+    @app.exception_handler(Forbidden)
+    async def forbidden(request: Request, exc: Forbidden):
+        return refused(request, 403, exc.text)
 
     @app.exception_handler(CsrfRefused)
     async def no_csrf(request: Request, exc: CsrfRefused):
@@ -67,5 +78,7 @@ def create_app(engine, *, token: str, host: str = "127.0.0.1", port: int = 8750,
     app.mount("/static", StaticFiles(directory=HERE / "static"), name="static")
     for name in PAGES:
         app.include_router(importlib.import_module(f"kit.web.pages.{name}").router)
-    app.add_middleware(Guard, token=token, hosts=allowed_hosts(host, port), sessions=app.state.sessions, limit=upload_limit)
+    hosts = allowed_hosts(host, port) | frozenset(n for name in names for n in (name, f"{name}:{port}"))
+    app.add_middleware(Guard, token=token, hosts=hosts, sessions=app.state.sessions, limit=upload_limit,
+                       engine=engine, people=app.state.people)
     return app

@@ -22,6 +22,9 @@ from __future__ import annotations
 
 import hmac
 import secrets
+from urllib.parse import quote
+
+from starlette.requests import Request
 import time
 from dataclasses import dataclass, field
 
@@ -30,6 +33,7 @@ CSRF_FIELD = "csrf"
 TOKEN_PARAM = "token"
 UPLOAD_LIMIT = 20 * 1024 * 1024  # bytes of one request body: a 100,000-row catalogue is about 8 MB as CSV
 OPEN_PATHS = ("/static/",)  # the style sheet and icons: no data, so the refusal page is styled too
+SIGN_IN = "/sign-in"  # with people: the one page open without a session
 
 SECURITY_HEADERS = {
     "content-security-policy": ("default-src 'self'; script-src 'self'; style-src 'self'; img-src 'self' data:; "
@@ -50,6 +54,7 @@ def same(a: str | None, b: str | None) -> bool:
 class Session:
     csrf: str
     started: float = field(default_factory=time.monotonic)
+    person: object = None  # kit.store.people.Person when people sign in; None: the one user of this PC
 
 
 class Sessions:
@@ -81,8 +86,10 @@ class Guard:
     knows its form; this middleware makes sure a POST never reaches a page without a session.
     """
 
-    def __init__(self, app, *, token: str, hosts: frozenset[str], sessions: Sessions, limit: int = UPLOAD_LIMIT):
+    def __init__(self, app, *, token: str, hosts: frozenset[str], sessions: Sessions, limit: int = UPLOAD_LIMIT,
+                 engine=None, people: bool = False):
         self.app, self.token, self.hosts, self.sessions, self.limit = app, token, hosts, sessions, limit
+        self.engine, self.people = engine, people
 
     async def __call__(self, scope, receive, send):
         if scope["type"] != "http":
@@ -108,6 +115,8 @@ class Guard:
         if path.startswith(OPEN_PATHS):
             return await self.app(scope, _bounded(receive, self.limit), send_secured)
         sid = _cookie(headers.get("cookie", ""), COOKIE)
+        if self.people:
+            return await self._with_person(scope, receive, send_secured, sid, path)
         session = self.sessions.get(sid)
         if session is None:
             given = _query_param(scope.get("query_string", b"").decode("latin-1"), TOKEN_PARAM)
@@ -117,6 +126,35 @@ class Guard:
                                  "(kit: serving http://127.0.0.1:N/?token=...); this browser has no session.")
         scope = {**scope, "state": {**scope.get("state", {}), "session": session}}
         return await self.app(scope, _bounded(receive, self.limit), send_secured)
+
+
+    async def _with_person(self, scope, receive, send, cookie: str | None, path: str):
+        """People sign in: the session is the database's (shared by every server), found by the
+        cookie's digest; without one, a page asks to sign in."""
+        from starlette.concurrency import run_in_threadpool
+
+        from kit.services.people import session_of
+
+        found = await run_in_threadpool(session_of, self.engine, cookie) if cookie else None
+        if found is None:
+            if path == SIGN_IN:
+                return await self.app(scope, _bounded(receive, self.limit), send)
+            if scope["method"] == "GET":
+                return await _redirect(send, f"{SIGN_IN}?next={quote(path, safe='/')}")
+            return await _refuse(send, 401, "Sign in first: this browser has no session (or it has ended).")
+        scope = {**scope, "state": {**scope.get("state", {}), "session": Session(found.csrf, person=found.person)}}
+        return await self.app(scope, _bounded(receive, self.limit), send)
+
+
+async def _redirect(send, location: str) -> None:
+    await send({"type": "http.response.start", "status": 303,
+                "headers": [(b"location", location.encode()), (b"content-length", b"0")]})
+    await send({"type": "http.response.body", "body": b""})
+
+
+def local_path(path: str | None) -> str:
+    """``path`` if it is a path on this server, else "/" (a sign-in never sends the browser elsewhere)."""
+    return path if path and path.startswith("/") and not path.startswith("//") and "\\" not in path else "/"
 
 
 def _bounded(receive, limit: int):
@@ -156,7 +194,7 @@ def _query_param(query: str, name: str) -> str | None:
 
 
 async def _start_session(send, sid: str, path: str) -> None:
-    path = path if path.startswith("/") and not path.startswith("//") else "/"  # never to another site
+    path = local_path(path)  # never to another site
     cookie = f"{COOKIE}={sid}; Path=/; HttpOnly; SameSite=Strict"
     await send({"type": "http.response.start", "status": 303,
                 "headers": [(b"location", (path or "/").encode()), (b"set-cookie", cookie.encode()),
@@ -177,7 +215,7 @@ class CsrfRefused(Exception):
     """A POST without its session's CSRF token (a page of another site posting into this one)."""
 
 
-async def checked_form(request):
+async def checked_form(request: Request):
     """The request's form, once its CSRF field has been checked against the session's token (a
     FastAPI dependency for every page that takes a POST). Field and file counts are bounded."""
     form = await request.form(max_files=4, max_fields=400)

@@ -14,8 +14,9 @@ from pathlib import Path
 from kit.safety import SAFETY
 
 HERE = Path(__file__).resolve().parent
-# (path, label) of the pages named in the navigation bar, in the order a user meets them
-NAVIGATION = (("/", "Fleet"), ("/order", "Order"), ("/suppliers", "Suppliers"), ("/particulars", "Particulars"))
+# (path, label, the action that shows it) of the pages named in the navigation bar, in the order a user meets them
+NAVIGATION = (("/", "Fleet", "view fleet"), ("/order", "Order", "view order"), ("/suppliers", "Suppliers", "view suppliers"),
+              ("/particulars", "Particulars", "view particulars"), ("/audit", "Audit trail", "view audit"))
 
 
 @lru_cache(maxsize=1)
@@ -41,10 +42,15 @@ def number(value, places: int = 1) -> str:
 
 def render(template: str, request=None, **values) -> str:
     """``template`` filled with ``values`` and what every page shows."""
+    from kit.engine.access import allowed
+
     session = getattr(getattr(request, "state", None), "session", None) if request is not None else None
     path = request.url.path if request is not None else ""
+    person = getattr(session, "person", None)
+    navigation = [] if session is None else [(p, label) for p, label, action in NAVIGATION
+                                             if person is None or allowed(person.role, action)]
     return environment().get_template(template).render(
-        safety=SAFETY, navigation=NAVIGATION, here=path, csrf=session.csrf if session else "", **values)
+        safety=SAFETY, navigation=navigation, here=path, csrf=session.csrf if session else "", person=person, **values)
 
 
 def page(template: str, request, status: int = 200, **values):

@@ -6,6 +6,7 @@ from __future__ import annotations
 
 from fastapi import APIRouter, Query, Request
 
+from kit.web.access import require, vessels_seen
 from kit.web.render import page
 
 router = APIRouter()
@@ -16,5 +17,6 @@ PER_PAGE = 25
 def fleet(request: Request, q: str = Query("", max_length=100), p: int = Query(1, ge=1, le=100_000)):
     from kit.services.fleet import fleet_page
 
-    found = fleet_page(request.app.state.engine, q, p, PER_PAGE)
+    require(request, "view fleet")
+    found = fleet_page(request.app.state.engine, q, p, PER_PAGE, only=vessels_seen(request))
     return page("fleet.html", request, fleet=found, title="Fleet")
