@@ -395,16 +395,21 @@ def _seconds(value: float | None) -> str:
     return f"{value:.2f}" if value >= 0.1 else f"{value:.3g}"
 
 
-def main() -> None:
-    parser = argparse.ArgumentParser(description="kit's fleet-scale benchmark (not a test; not run in CI).")
+def fleet_options(parser: argparse.ArgumentParser) -> None:
+    """The options of the fleet and the databases, shared with ``python -m benchmarks.serve_load``."""
     parser.add_argument("--vessels", type=int, default=1000)
-    parser.add_argument("--small", type=int, default=100)
     parser.add_argument("--catalogue-rows", type=int, default=100_000)
-    parser.add_argument("--runs", type=int, default=3, help="runs per figure; the median is reported")
     parser.add_argument("--pg", default=os.environ.get("KIT_TEST_PG_URL"),
                         help="PostgreSQL URL of a server to use (a database of the benchmark's own is made there)")
     parser.add_argument("--no-pg", dest="pg", action="store_const", const=None)
     parser.add_argument("--work", help="folder for the generated fleet and databases (default a temporary one)")
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description="kit's fleet-scale benchmark (not a test; not run in CI).")
+    fleet_options(parser)
+    parser.add_argument("--small", type=int, default=100)
+    parser.add_argument("--runs", type=int, default=3, help="runs per figure; the median is reported")
     parser.add_argument("--keep", action="store_true", help="keep the temporary folder")
     parser.add_argument("--serve-clients", type=int, default=10, help="step 7: clients at once")
     parser.add_argument("--serve-seconds", type=float, default=30.0, help="step 7: seconds of each load run (0: skip)")

@@ -287,18 +287,13 @@ def main() -> None:
         print(json.dumps(drive(**order)))
         return
     from benchmarks.fleet import generate
-    from benchmarks.run import ROOT, table
+    from benchmarks.run import ROOT, fleet_options, table
 
     parser = argparse.ArgumentParser(description="kit serve under load: each page beside the floor page (not a test).")
-    parser.add_argument("--vessels", type=int, default=1000)
-    parser.add_argument("--catalogue-rows", type=int, default=100_000)
+    fleet_options(parser)
     parser.add_argument("--clients", type=int, default=10)
-    parser.add_argument("--seconds", type=float, default=30.0)
+    parser.add_argument("--seconds", type=float, default=30.0, help="seconds of each run of the load")
     parser.add_argument("--runs", type=int, default=3, help="runs of the load on each database")
-    parser.add_argument("--pg", default=os.environ.get("KIT_TEST_PG_URL"),
-                        help="PostgreSQL URL of a server to use (a database of the step's own is made there)")
-    parser.add_argument("--no-pg", dest="pg", action="store_const", const=None)
-    parser.add_argument("--work", help="folder for the generated fleet and databases (default a temporary one)")
     parser.add_argument("--out", default=str(ROOT / "benchmarks" / "serve-results.json"))
     args = parser.parse_args()
     work = Path(args.work or tempfile.mkdtemp(prefix="kit-serve-bench-"))
