@@ -78,9 +78,10 @@ def list_vessels(engine: Engine, today=None) -> list:
     the units, last stock count and next delivery due on or after ``today`` (default today)."""
     import datetime as dt
 
+    from catalog_schema.engine import read_transaction
     from kit.store.fleet_overview import fleet_glance
 
-    with engine.connect() as conn:
+    with read_transaction(engine) as conn:
         return fleet_glance(conn, today or dt.date.today())
 
 
