@@ -239,10 +239,10 @@ def serve_step(engine: str, db: str, fleet: dict[str, Path], work: Path, *, clie
         ratio = None if page is FLOOR else middle["ratio"]
         entries.append({
             "step": "7", "what": f"kit serve {page.path} ({page.name}), {clients} clients [{engine}]",
-            "kit_s": None if middle["p95_ms"] is None else middle["p95_ms"] / 1000,
-            "kit_median_s": None if middle["median_ms"] is None else middle["median_ms"] / 1000,
-            "unit": "p95", "baseline": "p95 of /alive (floor), same load",
-            "baseline_s": floor["p95_ms"] / 1000, "ratio": ratio,
+            "kit_s": None if middle["p95_ms"] is None else round(middle["p95_ms"] / 1000, 5),
+            "kit_median_s": None if middle["median_ms"] is None else round(middle["median_ms"] / 1000, 5),
+            "baseline": "p95 of /alive (floor), same load",
+            "baseline_s": round(floor["p95_ms"] / 1000, 5), "ratio": ratio,
             "ratio_spread": [min(ratios), max(ratios)] if ratios and page is not FLOOR else None,
             "target": page.target, "requests": sum(r["requests"] for r in runs_of), "errors": errors,
             "met": False if errors else None if page.target is None else ratio is not None and ratio <= page.target,
