@@ -18,6 +18,9 @@ Steps (targets from issue 6):
 5. ``kit bom`` at ``--small`` vessels against N vessels (time grows at most 11x for 10x);
 6. the load, the imports and the BOM against PostgreSQL (``--pg``, default ``KIT_TEST_PG_URL``),
    beside SQLite. The benchmark makes a database of its own there and drops it at the end.
+7. ``kit serve``'s pages under ``--serve-clients`` clients for ``--serve-seconds``, each page's
+   95th percentile response time against the floor page's under the same load (vessel page
+   <= 5, fleet page <= 10, no errors; issue 15), on both databases (:mod:`benchmarks.serve_load`).
 
 Each kit run takes turns with a run of its baseline, so a figure and its baseline meet the same
 state of the machine. The databases are prepared (untimed) with kit itself: ``kit db upgrade``,
@@ -110,28 +113,28 @@ def kit(*args: str, cwd: Path) -> None:
 # --- databases --------------------------------------------------------------------------------
 
 
-def pg_url(base: str) -> str:
+def pg_url(base: str, name: str = PG_DB) -> str:
     from sqlalchemy.engine import make_url
 
-    return make_url(base).set(database=PG_DB).render_as_string(hide_password=False)
+    return make_url(base).set(database=name).render_as_string(hide_password=False)
 
 
-def pg_recreate(base: str) -> None:
+def pg_recreate(base: str, name: str = PG_DB) -> None:
     from sqlalchemy import create_engine, text
 
     engine = create_engine(base, isolation_level="AUTOCOMMIT")
     with engine.connect() as conn:
-        conn.execute(text(f"DROP DATABASE IF EXISTS {PG_DB} WITH (FORCE)"))
-        conn.execute(text(f"CREATE DATABASE {PG_DB}"))
+        conn.execute(text(f"DROP DATABASE IF EXISTS {name} WITH (FORCE)"))
+        conn.execute(text(f"CREATE DATABASE {name}"))
     engine.dispose()
 
 
-def pg_drop(base: str) -> None:
+def pg_drop(base: str, name: str = PG_DB) -> None:
     from sqlalchemy import create_engine, text
 
     engine = create_engine(base, isolation_level="AUTOCOMMIT")
     with engine.connect() as conn:
-        conn.execute(text(f"DROP DATABASE IF EXISTS {PG_DB} WITH (FORCE)"))
+        conn.execute(text(f"DROP DATABASE IF EXISTS {name} WITH (FORCE)"))
     engine.dispose()
 
 
@@ -353,6 +356,13 @@ def bench(args: argparse.Namespace) -> dict:
               f"x{growth:.2f}", flush=True)
     if args.pg:
         pg_drop(args.pg)
+
+    # 7. kit serve's pages under load, each beside the floor page under the same load (issue 15)
+    if args.serve_seconds > 0:
+        from benchmarks.serve_load import bench_serve
+
+        results["steps"] += bench_serve(work, big, args.pg, clients=args.serve_clients, seconds=args.serve_seconds,
+                                        runs=args.serve_runs)
     if not args.keep and not args.work:
         shutil.rmtree(work, ignore_errors=True)
     return results
@@ -366,24 +376,44 @@ def table(results: dict) -> str:
         met = {True: "yes", False: "**no**", None: ""}[s["met"]]
         if "peak_met" in s:
             met += f"; peak {s['kit_peak_mb']:.0f} MB {'yes' if s['peak_met'] else '**no**'}"
+        if "errors" in s:  # step 7: a page's requests and errors, its ratio's spread over the runs
+            notes = [met] if met else []
+            notes.append(f"{s['requests']} requests, {s['errors']} {'**errors**' if s['errors'] else 'errors'}")
+            if s.get("ratio_spread"):
+                notes.append(f"runs {s['ratio_spread'][0]} to {s['ratio_spread'][1]}")
+            met = "; ".join(notes)
         target = "" if s["target"] is None else f"<= {s['target']:g}"
-        lines.append(f"| {s['step']} | {s['what']} | {s['kit_s']:.2f} | {s['baseline']} | "
-                     f"{'' if s['baseline_s'] is None else format(s['baseline_s'], '.2f')} | {s['ratio']} | "
-                     f"{target} | {met} |")
+        lines.append(f"| {s['step']} | {s['what']} | {_seconds(s['kit_s'])} | {s['baseline']} | "
+                     f"{_seconds(s['baseline_s'])} | {'' if s['ratio'] is None else s['ratio']} | {target} | {met} |")
     return "\n".join(lines)
 
 
-def main() -> None:
-    parser = argparse.ArgumentParser(description="kit's fleet-scale benchmark (not a test; not run in CI).")
+def _seconds(value: float | None) -> str:
+    """Seconds to two places, or three significant digits below 0.1 s (a page's response time)."""
+    if value is None:
+        return ""
+    return f"{value:.2f}" if value >= 0.1 else f"{value:.3g}"
+
+
+def fleet_options(parser: argparse.ArgumentParser) -> None:
+    """The options of the fleet and the databases, shared with ``python -m benchmarks.serve_load``."""
     parser.add_argument("--vessels", type=int, default=1000)
-    parser.add_argument("--small", type=int, default=100)
     parser.add_argument("--catalogue-rows", type=int, default=100_000)
-    parser.add_argument("--runs", type=int, default=3, help="runs per figure; the median is reported")
     parser.add_argument("--pg", default=os.environ.get("KIT_TEST_PG_URL"),
                         help="PostgreSQL URL of a server to use (a database of the benchmark's own is made there)")
     parser.add_argument("--no-pg", dest="pg", action="store_const", const=None)
     parser.add_argument("--work", help="folder for the generated fleet and databases (default a temporary one)")
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description="kit's fleet-scale benchmark (not a test; not run in CI).")
+    fleet_options(parser)
+    parser.add_argument("--small", type=int, default=100)
+    parser.add_argument("--runs", type=int, default=3, help="runs per figure; the median is reported")
     parser.add_argument("--keep", action="store_true", help="keep the temporary folder")
+    parser.add_argument("--serve-clients", type=int, default=10, help="step 7: clients at once")
+    parser.add_argument("--serve-seconds", type=float, default=30.0, help="step 7: seconds of each load run (0: skip)")
+    parser.add_argument("--serve-runs", type=int, default=3, help="step 7: load runs on each database")
     parser.add_argument("--out", default=str(ROOT / "benchmarks" / "results.json"))
     args = parser.parse_args()
     results = bench(args)

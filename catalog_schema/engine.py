@@ -10,15 +10,19 @@ is a path to a SQLite file.
 SQLite is opened in WAL mode with a busy timeout, foreign keys on, and every transaction begun
 with ``BEGIN IMMEDIATE``, so two processes sharing one file queue for the write lock instead of
 failing half way. On both engines :func:`write_transaction` retries a transaction that lost a
-lock or serialisation race, and says so in one line when it keeps losing.
+lock or serialisation race, and says so in one line when it keeps losing. A transaction that
+only reads may be opened by :func:`read_transaction` instead: on SQLite it takes no write lock
+(one snapshot of the write-ahead log, so readers neither queue behind each other nor hold up a
+writer) and the connection refuses any write while it lasts.
 """
 
 from __future__ import annotations
 
 import os
 import time
+from contextlib import contextmanager
 from pathlib import Path
-from typing import Callable, TypeVar
+from typing import Callable, Iterator, TypeVar
 
 from sqlalchemy import create_engine, event
 from sqlalchemy.engine import Connection, Engine, make_url
@@ -30,6 +34,7 @@ ENV_VAR = "KIT_DB"
 BUSY_TIMEOUT_MS = 30_000
 SQLITE_CACHE_KIB = 64 * 1024
 WRITE_ATTEMPTS = 6
+READ_ONLY = "kit_read_only"  # a Connection's execution option: its transactions only read (see read_transaction)
 
 # PostgreSQL SQLSTATEs worth one more try: serialization_failure, deadlock_detected.
 _PG_RETRY_STATES = {"40001", "40P01"}
@@ -109,9 +114,32 @@ def _sqlite_engine(url: str, database: str | None, busy_timeout_ms: int) -> Engi
 
     @event.listens_for(engine, "begin")
     def _on_begin(conn: Connection) -> None:
-        conn.exec_driver_sql("BEGIN IMMEDIATE")
+        # A reader's deferred BEGIN takes its snapshot at the first SELECT and no write lock; SQLite
+        # would take the lock at a first write, and fail rather than wait if another writer had
+        # committed since the snapshot, so query_only refuses any write in it outright. The pragma
+        # stays with the pooled DB-API connection: it is switched only when the kind changes.
+        read_only = bool(conn.get_execution_options().get(READ_ONLY))
+        info = conn.connection.info
+        if info.get(READ_ONLY, False) != read_only:
+            conn.exec_driver_sql(f"PRAGMA query_only={int(read_only)}")
+            info[READ_ONLY] = read_only
+        conn.exec_driver_sql("BEGIN" if read_only else "BEGIN IMMEDIATE")
 
     return engine
+
+
+@contextmanager
+def read_transaction(engine: Engine) -> Iterator[Connection]:
+    """A connection in one transaction that only reads.
+
+    On SQLite it takes no write lock, so concurrent readers (the pages of ``kit serve``) run side
+    by side and beside a writer, each on one consistent snapshot; a write in it is refused
+    (``attempt to write a readonly database``). On PostgreSQL it is an ordinary transaction.
+    """
+    with engine.connect() as conn:
+        conn.execution_options(**{READ_ONLY: True})
+        with conn.begin():
+            yield conn
 
 
 def worth_retrying(exc: DBAPIError) -> bool:

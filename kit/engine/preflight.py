@@ -36,6 +36,13 @@ def shortfall_of(full: Order) -> Order:
     return only_to_order(full)
 
 
+def lines_short(result: VesselResult, on_board: Mapping[tuple[str, str], float]) -> int:
+    """How many lines of the vessel's shortfall (:func:`preflight_order`) there are. A line is short
+    when what the voyage needs exceeds what is on board; the suppliers' offers choose who sells
+    it and in what packs, never whether it is short, so none are needed to count the lines."""
+    return sum(1 for line in vessel_order(result, on_board).lines if line.to_order > EPS)
+
+
 @dataclass(frozen=True)
 class CheckRow:
     """One line of the check as a reader sees it: the part, its unit of measure, what the voyage

@@ -2,8 +2,8 @@
 """The service layer: one plain function per thing a user does.
 
 Each service takes an :class:`sqlalchemy.engine.Engine` (where it needs the fleet database),
-opens the unit of work itself (a read in ``engine.connect()``, a write in
-:func:`catalog_schema.engine.write_transaction`), reads through the store and the files, runs
+opens the unit of work itself (a read in :func:`catalog_schema.engine.read_transaction`, which
+takes no write lock on SQLite, a write in :func:`catalog_schema.engine.write_transaction`), reads through the store and the files, runs
 the engine and returns plain results. The faces (the command line, the demo, a web page) call one
 service and show or write what it returns; they never open a transaction or run a query.
 

@@ -89,9 +89,10 @@ def list_vessels(engine: Engine, today=None) -> list:
     the units, last stock count and next delivery due on or after ``today`` (default today)."""
     import datetime as dt
 
+    from catalog_schema.engine import read_transaction
     from kit.store.fleet_overview import fleet_glance
 
-    with engine.connect() as conn:
+    with read_transaction(engine) as conn:
         return fleet_glance(conn, today or dt.date.today())
 
 
@@ -121,42 +122,40 @@ def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 
                only: tuple[str, ...] | None = None) -> FleetPage:
     """One page of the fleet, sorted by id, for vessels whose id, name or ship type contains
     ``search`` (any letter case), among ``only`` (ids as stored; None: every vessel). Only the
-    page's vessels are worked out (rules, stock against their policy's days of cover), so a
-    thousand vessels cost what one page does."""
+    page's vessels are read and worked out (glance, rules, stock against their policy's days of
+    cover), so a thousand vessels cost what one page does; the reading takes no write lock
+    (:func:`catalog_schema.engine.read_transaction`), so pages asked for at once are worked out
+    side by side."""
     import datetime as dt
 
-    from kit.engine.preflight import shortfall_of, vessel_order
+    from catalog_schema.engine import read_transaction
+    from kit.engine.preflight import lines_short
     from kit.engine.requirements import assess_vessel
-    from kit.store.fleet_overview import fleet_glance
+    from kit.store.fleet_overview import fleet_glance, vessel_labels
     from kit.store.policy_store import cover_days_in_force, policies_in_force
     from kit.store.fleet_store import read_vessels
-    from kit.store.order_sources import catalogue_offers, stock_on_board
-    from kit.store.purchasing_store import purchasing_context
+    from kit.store.order_sources import stock_on_board
 
     today = today or dt.date.today()
     needle = search.strip().casefold()
-    with engine.connect() as conn, conn.begin():
-        among = None if only is None else set(only)
-        glance = [g for g in fleet_glance(conn, today) if (among is None or g.id in among)
-                  and (not needle or any(needle in (t or "").casefold() for t in (g.id, g.name, g.ship_type)))]
-        pages = max(1, -(-len(glance) // per_page))
+    among = None if only is None else set(only)
+    with read_transaction(engine) as conn:
+        found = [v.id for v in vessel_labels(conn) if (among is None or v.id in among)
+                 and (not needle or any(needle in (t or "").casefold() for t in (v.id, v.name, v.ship_type)))]
+        pages = max(1, -(-len(found) // per_page))
         page = min(max(1, page), pages)
-        shown = glance[(page - 1) * per_page: page * per_page]
-        ids = [g.id for g in shown]
+        ids = found[(page - 1) * per_page: page * per_page]
+        shown = fleet_glance(conn, today, ids) if ids else []
         vessels = {v.id: v for v in read_vessels(conn, ids)} if ids else {}
         policies = policies_in_force(conn, ids, today) if ids else {}
         cover = cover_days_in_force(conn, ids, today) if ids else {}
-        results = {i: assess_vessel(vessels[i], float(cover.get(i) or 0), policies[i], today) for i in ids}
-        keys = {li.key for r in results.values() for li in r.lines}
-        on_board, offers = stock_on_board(conn, ids), catalogue_offers(conn, keys)
-        purchasing = purchasing_context(conn, ids, today)
+        on_board = stock_on_board(conn, ids) if ids else {}
     rows = []
     for g in shown:
-        r = results[g.id]
+        r = assess_vessel(vessels[g.id], float(cover.get(g.id) or 0), policies[g.id], today)
         verdicts = [rule.verdict for u in r.units for rule in u.checks.rules]
         days = cover.get(g.id)
-        short = None if days is None else len(shortfall_of(vessel_order(r, on_board, offers, purchasing)).lines)
         rows.append(VesselStatus(g, verdicts.count("not met"), verdicts.count("not shown"),
                                  sum(len(u.warnings) + len(u.checks.warnings) for u in r.units),
-                                 None if days is None else float(days), short))
-    return FleetPage(rows, len(glance), page, pages, search)
+                                 None if days is None else float(days), None if days is None else lines_short(r, on_board)))
+    return FleetPage(rows, len(found), page, pages, search)

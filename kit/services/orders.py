@@ -44,8 +44,10 @@ def read_fleet(engine: Engine, vessel_ids: Iterable[str], policy_file: str | Non
     from kit.store.policy_store import policies_in_force
     from kit.files.policy_file import load_policy
 
+    from catalog_schema.engine import read_transaction
+
     ids = list(vessel_ids)
-    with engine.connect() as conn:
+    with read_transaction(engine) as conn:
         vessels = _vessels(conn, ids, str(engine.url.database or engine.url))
         if policy_file is None:
             return vessels, policies_in_force(conn, [v.id for v in vessels], dt.date.today())
@@ -93,9 +95,10 @@ def _order_sources(engine: Engine, vessel_ids: list[str], keys: set[str]) -> tup
     """Stock on board, every offer for ``keys`` and the purchasing records as of today, read in one
     transaction so they agree with each other."""
     from kit.store.order_sources import catalogue_offers, stock_on_board
+    from catalog_schema.engine import read_transaction
     from kit.store.purchasing_store import purchasing_context
 
-    with engine.connect() as conn, conn.begin():
+    with read_transaction(engine) as conn:
         return (stock_on_board(conn, vessel_ids), catalogue_offers(conn, keys),
                 purchasing_context(conn, vessel_ids, dt.date.today()))
 

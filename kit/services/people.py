@@ -140,9 +140,10 @@ def list_people(engine: Engine) -> list:
 
 def anyone_signs_in(engine: Engine) -> bool:
     """Whether the database holds people (then the server asks them to sign in)."""
+    from catalog_schema.engine import read_transaction
     from kit.store.people import anyone
 
-    with engine.connect() as conn:
+    with read_transaction(engine) as conn:
         return anyone(conn)
 
 
@@ -225,7 +226,9 @@ def session_of(engine: Engine, cookie: str | None, idle: dt.timedelta = IDLE, ab
     if not cookie or len(cookie) > 100:
         return None
     digest, at = digest_of(cookie), now()
-    with engine.connect() as conn:  # a read: most requests write nothing
+    from catalog_schema.engine import read_transaction
+
+    with read_transaction(engine) as conn:  # a read without the write lock: most requests write nothing
         found = store.session(conn, digest)
     if found is None or found.ended_at is not None:
         return None
