@@ -340,6 +340,10 @@ def test_a_form_whose_rows_do_not_line_up_is_refused(web):
     before = dump(web.engine)
     r = web.browser.post(f"/vessel/{VESSEL}/count", data=form)
     assert r.status_code == 400 and "count form: expected a part, location and count on every row" in r.text
+    long = count_form(web)  # a long stock list passes the form's field bound and is checked row by row
+    long.update(part=[f"no-such-{n}" for n in range(600)], location=[""] * 600, counted=["1"] * 600)
+    r = web.browser.post(f"/vessel/{VESSEL}/count", data=long)
+    assert r.status_code == 400 and "part_key &#39;no-such-0&#39;" in r.text and "generic part in the database" in r.text
     assert dump(web.engine) == before
 
 
@@ -390,3 +394,24 @@ def test_a_vessel_named_with_markup_is_shown_as_text(web, tmp_path):
         r = web.browser.get(path)
         assert r.status_code == 200 and "<script>alert(1)</script>" not in r.text
         assert "&lt;script&gt;alert(1)&lt;/script&gt; Bay" in r.text
+
+
+def test_a_vessel_without_days_of_cover_is_asked_for_days(web, tmp_path):
+    """A vessel of a company with no spares policy recorded: the page works it out over 0 days
+    (kit calc's default) and the check asks for the days, as kit check does without --days."""
+    from kit.services.demo import demo_fleet_folder
+    from kit.services.fleet import load_particulars, register_parts
+
+    text = (demo_fleet_folder() / "corvina_bay.toml").read_text()
+    other = tmp_path / "other.toml"
+    other.write_text(text.replace('id = "CORVINA-BAY"', 'id = "LONE-GULL"')
+                     .replace('name = "Marrowgate Ship Management Ltd"', 'name = "Unlisted Owners (invented)"'))
+    load_particulars(web.engine, other)
+    register_parts(web.engine, ["LONE-GULL"])
+    r = web.browser.get("/vessel/lone-gull")
+    assert r.status_code == 200 and "no days of cover stated" in r.text and "Figures for a period of 0 days" in r.text
+    r = web.browser.get("/vessel/lone-gull/check")
+    assert r.status_code == 400
+    assert "no spares policy with days of cover is in force for LONE-GULL" in r.text and '<label for="days">' in r.text
+    r = web.browser.get("/vessel/lone-gull/check?days=30")
+    assert r.status_code == 200 and "30-day voyage" in r.text

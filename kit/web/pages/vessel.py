@@ -22,6 +22,10 @@ from kit.web.guard import checked_form
 from kit.web.render import page, refusal_page
 
 router = APIRouter()
+# Fields of one count form: a part, its location and its count a row, three a filter position; the
+# guard's own bound (400) would stop a vessel of more than about 130 rows. The body stays bounded
+# by the upload limit.
+COUNT_FORM_FIELDS = 6000
 XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
 
 
@@ -68,8 +72,15 @@ def vessel(request: Request, vessel_id: str, recorded: int | None = Query(None, 
                 recorded=recorded, hours=hours, title=f"{view.vessel.name} ({view.vessel.id})")
 
 
+async def checked_count_form(request: Request):
+    """The count form, read with room for a long stock list, then checked as every form is
+    (:func:`kit.web.guard.checked_form` takes the form already read)."""
+    await request.form(max_files=0, max_fields=COUNT_FORM_FIELDS)
+    return await checked_form(request)
+
+
 @router.post("/vessel/{vessel_id}/count")
-def record_count(request: Request, vessel_id: str, form=Depends(checked_form)):
+def record_count(request: Request, vessel_id: str, form=Depends(checked_count_form)):
     """The count typed in the stock table: each row's part, location and count (blank: not counted),
     the filters' running hours, the date counted and where parts with no location go."""
     from urllib.parse import quote
@@ -102,10 +113,16 @@ def check(request: Request, vessel_id: str, days: str | None = Query(None, max_l
     from kit.engine.report_rows import fmt, quantity
     from kit.services.vessels import voyage_check
 
+    chosen = _days(days)
     try:
-        found = voyage_check(request.app.state.engine, vessel_id, _days(days))
+        found = voyage_check(request.app.state.engine, vessel_id, chosen)
     except UnknownVesselError as exc:
         return _unknown(request, exc)
+    except ArgumentError as exc:  # no days given and none of cover in force: ask for them
+        if chosen is not None:
+            raise
+        return page("vessel_days.html", request, status=400, vessel_id=vessel_id, text=str(exc),
+                    title="Pre-voyage check: how many days?")
     result = found.full.results[0] if found.full is not None and found.full.results else None
     return page("vessel_check.html", request, check=found, v=found.vessel, rows=shortfall_rows(found.short),
                 words=short_words(found.short), oil=unit_oil(result) if result is not None else [],
