@@ -415,3 +415,35 @@ def test_a_vessel_without_days_of_cover_is_asked_for_days(web, tmp_path):
     assert "no spares policy with days of cover is in force for LONE-GULL" in r.text and '<label for="days">' in r.text
     r = web.browser.get("/vessel/lone-gull/check?days=30")
     assert r.status_code == 200 and "30-day voyage" in r.text
+
+
+# --- the service under the form: the count sheet's checks and writer ------------------------
+
+
+def test_a_count_in_place_writes_what_the_count_sheets_import_writes(web, tmp_path):
+    """The same count, typed in place or imported from the vessel's count sheet, leaves the same
+    rows; and the same bad count is refused by both with the same column and expectation."""
+    from kit.errors import InputError
+    from kit.files.stock_sheet import fill_count
+    from kit.services.imports import import_stock
+    from kit.services.templates import write_stock_template
+    from kit.services.vessels import record_counts, vessel_view
+
+    lines = [li for li in vessel_view(web.engine, VESSEL).count.lines if li.location is not None][:3]
+    day = dt.date.today() - dt.timedelta(days=1)
+    sheet = tmp_path / "count.xlsx"
+    write_stock_template(web.engine, sheet, VESSEL, 90)
+    fill_count(sheet, {li.key: 4.0 + n for n, li in enumerate(lines)}, on=day)
+    import_stock(web.engine, sheet, VESSEL)
+    imported = dump(web.engine)
+    report = record_counts(web.engine, VESSEL.lower(), [(li.key, li.location, str(4 + n)) for n, li in enumerate(lines)], day)
+    assert report.rows == len(lines) and dump(web.engine) == imported
+    for bad in (-1.0, 2e9):
+        write_stock_template(web.engine, sheet, VESSEL, 90)
+        fill_count(sheet, {lines[0].key: bad}, on=day)
+        with pytest.raises(InputError) as from_sheet:
+            import_stock(web.engine, sheet, VESSEL)
+        with pytest.raises(InputError) as typed:
+            record_counts(web.engine, VESSEL, [(lines[0].key, lines[0].location, str(bad))], day)
+        assert (typed.value.field, typed.value.expected) == (from_sheet.value.field, from_sheet.value.expected)
+    assert dump(web.engine) == imported
