@@ -5,11 +5,11 @@ The library below knows nothing of terminals; only the commands import this."""
 
 from __future__ import annotations
 
-import math
 import sys
 from dataclasses import dataclass
 from typing import Any, Iterable
 
+VERDICT_MARKUP = {True: "[green]{}[/green]", False: "[red]{}[/red]"}  # a check's verdict: met or enough, not met or short
 VERDICT_STYLE = {"met": "[green]{}[/green]", "not met": "[red]NOT MET[/red]", "not shown": "[yellow]{}[/yellow]"}
 
 
@@ -105,13 +105,13 @@ SHORTFALL_COLUMNS = [Col("no", 1, right=True), Col("part", wraps=True), Col("uom
 def shortfall_table(check, width: int = 80) -> Any:
     """The rich table of a :class:`kit.services.orders.VoyageCheck` with lines short, fitted to ``width``."""
     from kit.engine.preflight import shortfall_rows
+    from kit.engine.report_rows import quantity
 
     vessel, days = check.vessel, check.days
     rows = []
     for n, row in enumerate(shortfall_rows(check.short), 1):
-        nd = 1 if row.uom == "L" else 0
-        rows.append([str(n), shown(row.part), shown(row.uom), f"{row.needed:,.{nd}f}", f"{row.on_board:,.{nd}f}",
-                     f"{row.short:,.{nd}f}", shown(row.basis)])
+        rows.append([str(n), shown(row.part), shown(row.uom), quantity(row.needed, row.uom), quantity(row.on_board, row.uom),
+                     quantity(row.short, row.uom), shown(row.basis)])
     return fitted_table(SHORTFALL_COLUMNS, rows, width,
                         title=f"{shown(vessel.name)} ({shown(vessel.id)}): short for a {days:g}-day voyage")
 
@@ -168,12 +168,6 @@ def order_summary(order) -> list[str]:
     return out
 
 
-def _fmt(x: float | None, unit: str = "", nd: int = 1) -> str:
-    if x is None or (isinstance(x, float) and math.isnan(x)):
-        return "-"
-    return f"{x:,.{nd}f}{unit}"
-
-
 class _Rows:
     """The rows of a titled table, gathered before it is fitted (:func:`fitted_table`)."""
 
@@ -196,6 +190,7 @@ LINE_COLUMNS = [Col("unit"), Col("designation", wraps=True), Col("standard", 2, 
 def render(r, console) -> None:
     """Print the readable report of ``r`` on a rich ``console``, its tables fitted to its width."""
     from kit.engine.report import vessel_json
+    from kit.engine.report_rows import fmt, gear_rows, oil_words, seal_cells
     from kit.files.safe_text import each_text
 
     width = console.width
@@ -205,47 +200,23 @@ def render(r, console) -> None:
                   f" -- period {r.days:g} days -- spares policy: {data['policy']}")
     for u in data["units"]:
         t = _Rows(f"Unit {u['id']}: {u['service']}, {u['actuator']} x {u['count']}, {u['fluid']}")
-        if u["torque_knm"]["midships"] is not None:
-            t.add_row("torque at relief setting, midships", _fmt(u["torque_knm"]["midships"], " kNm"), "")
-            t.add_row("torque at relief setting, max angle (least of both directions)", _fmt(u["torque_knm"]["max_angle"], " kNm"), "")
-            s = u["swing_time_s"]
-            t.add_row("swing 35 deg to 30 deg, one pump", _fmt(s["one_pump"], " s"), "")
-            t.add_row("swing 35 deg to 30 deg, all pumps", _fmt(s["all_pumps"], " s"), "")
-            verdict = "[green]met[/green]" if u["swing_rule_met"] else "[red]NOT MET[/red]"
-            t.add_row("swing time judged", _fmt(s["judged"], " s"), f"28 s, {u['swing_rule_case']}: {verdict}")
-            t.add_row("torque basis", "", u["torque_basis"] or "")
-        if u["rudder_torque_knm"] is not None:
-            q = u["rudder_torque_knm"]
-            t.add_row("rudder torque ahead / astern", f"{_fmt(q['ahead'])} / {_fmt(q['astern'])} kNm", "classification-rule formula")
-            short = u["rudder_torque_margin_pct"] < 0
-            t.add_row(f"gear torque at 35 deg, {u['gear_torque_pressure_bar']:g} bar", _fmt(u["gear_torque_35_knm"], " kNm"),
-                      f"margin {u['rudder_torque_margin_pct']:+.1f} %: " + ("[red]SHORT[/red]" if short else "[green]enough[/green]"))
-            t.add_row("rudder angle reachable each side", _fmt(u["reachable_angle_deg"], " deg"), "35 deg (SOLAS II-1/29.3.2)")
-            t.add_row("pump flow needed each, judged case", _fmt(u["pump_flow_needed_l_min"], " L/min"), "for 28 s")
-        if u["travel_mm"] is not None:
-            t.add_row("travel between hard-over angles", _fmt(u["travel_mm"], " mm", 0), f"stroke {_fmt(u['stroke_mm'], ' mm', 0)}")
-        t.add_row("system charge", _fmt(u["system_oil_l"], " L"), u["system_oil_basis"])
-        if u["storage_tank_min_l"] is not None:
-            t.add_row("storage tank minimum", _fmt(u["storage_tank_min_l"], " L"), "SOLAS II-1/29.12.3")
-        t.add_row("top-up for the period", _fmt(u["top_up_l"], " L", 2), "leakage rate x period")
+        for row in gear_rows(u):
+            t.add_row(row.check, row.value, row.against_with(None if row.verdict is None else VERDICT_MARKUP[row.ok].format(row.verdict)))
         console.print(fitted_table(CHECK_COLUMNS, t.rows, width, title=t.title))
         if u["rules"]:
             rules = [[rule["clause"], VERDICT_STYLE.get(rule["verdict"], "{}").format(rule["verdict"]), rule["text"]]
                      for rule in u["rules"]]
             console.print(fitted_table(RULE_COLUMNS, rules, width, title=f"SOLAS II-1/29 verdicts of unit {u['id']}"))
-        seals = [[s["role"], s["part"], _fmt(s["d_mm"], "", 2), _fmt(s["D_mm"], "", 2), _fmt(s["L_mm"], "", 1),
-                  str(s["qty"]), s["compound"], s["origin"]] for s in u["seals"]]
+        seals = [seal_cells(s) for s in u["seals"]]
         console.print(fitted_table(SEAL_COLUMNS, seals, width, title=f"Seal kit of unit {u['id']} (per unit)"))
         for line in u["inspections"]:
             console.print(f"inspect {u['id']}: {line}")
         for w in u["warnings"]:
             console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
-    lines = [[li["unit"], li["designation"], li["standard"], li["compound"], _fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
+    lines = [[li["unit"], li["designation"], li["standard"], li["compound"], fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
               li["uom"], li["basis"]] for li in data["lines"]]
     console.print(fitted_table(LINE_COLUMNS, lines, width, title="Requirement list (to keep on board)"))
     for o in data["oil"]:
-        packs = ", ".join(f"{p['count']} x {p['name']} ({p['volume_l']:g} L)" for p in o["packages"]) or "none"
-        console.print(f"oil {o['fluid']}: need {o['need_l']:,.1f} L = {o['need_kg']:,.1f} kg = {o['need_us_gal']:,.1f} US gal;"
-                      f" buy {packs} = {o['supply_l']:,.1f} L")
+        console.print(f"oil {o['fluid']}: {oil_words(o)}")
     console.print("[dim]Series housings and O-rings are to be checked against the maker's drawing before ordering. "
                   "Table rows marked 'from memory' in kit/data are not confirmed from the standard's text.[/dim]")

@@ -16,6 +16,7 @@ One module per idea, data flowing one way:
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall and what it covered
 ``enquiry``  an order shaped into enquiries, one per supplier and one open; what a reply answers
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in
+``report_rows``  that dict as the readable report's rows, the same on a terminal and a page
 ``text_checks``  the control-character check every stored text passes
 
 The engine reads no file a user gives: it takes parsed data (``particulars.vessel_from_dict``,

@@ -35,7 +35,7 @@ from __future__ import annotations
 
 import datetime as dt
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 from typing import Any, Mapping, Sequence
@@ -43,7 +43,7 @@ from typing import Any, Mapping, Sequence
 from catalog_schema.conventions import DEFAULT_LOCATION
 from kit.errors import InputError
 from kit.files.dates import iso_date
-from kit.files.numbers import MAX_QUANTITY, DecimalMark, decimal_mark, number
+from kit.files.numbers import MAX_CHARS, MAX_QUANTITY, DecimalMark, decimal_mark, number, parse_decimal
 from kit.files.safe_text import CONTROL, NO_CONTROL, is_risky, visible
 from kit.files.sheets import Row, Sheet, Table, read_table, sheet_names
 
@@ -408,3 +408,63 @@ def fill_count(path: str | Path, counted: Mapping[str, float], hours: Mapping[tu
         wb.save(tmp)
 
     replace_atomically(Path(path), write)
+
+
+@dataclass(frozen=True)
+class EnteredTable(Table):
+    """Rows typed into a form rather than read from a file: a refusal names the row by what it
+    holds (``names``, by row number: the part and its location), as a file's names its line."""
+
+    names: Mapping[int, str] = field(default_factory=dict)
+
+    def where(self, line: int | None = None) -> str:
+        if line is None:
+            return self.path
+        return f"{self.path}, {self.names.get(line, f'entry {line}')}"
+
+
+TYPED = "a plain number of at least 0 with a decimal point, e.g. 12.50 (no exponent, no grouping separators)"
+_TYPED_MARK = DecimalMark("point", "the mark of a number typed on a page")
+
+
+def _typed_numbers(table: Table, column: str) -> None:
+    """Refuse a typed entry that is not a plain decimal with a point, before the file readers'
+    checks (which would name the decimal mark setting a file has and a form has not)."""
+    for row in table.rows:
+        value = row.values.get(column)
+        if isinstance(value, str) and parse_decimal(value, "point") is None:
+            raise table.error(row, column, TYPED, value if len(value) <= MAX_CHARS else value[:MAX_CHARS] + "...")
+
+
+def read_count_entries(source: str, counts: Sequence[tuple[str, str | None, Any]], counted_on: Any,
+                       location: str | None = None,
+                       hours: Sequence[tuple[str, str, Any]] = ()) -> StockFile:
+    """A count typed in a form, checked as a count sheet's rows are (:func:`read_stock`): each of
+    ``counts`` a (part key, location or None, counted) where counted is a number or its text, blank
+    (None or "") for a part not counted; ``counted_on`` the day of the count (a date or its ISO text;
+    blank: today; never after today); ``location`` where a part with none goes (blank:
+    :data:`DEFAULT_LOCATION`); ``hours`` (unit, position, running hours since the filter change).
+    ``source`` names the form in refusals, e.g. ``count of CORVINA-BAY, part_key ... at ...: column
+    counted: expected ...``."""
+    day = counted_on.isoformat() if isinstance(counted_on, dt.date) else counted_on
+    blank = lambda v: None if v is None or (isinstance(v, str) and not v.strip()) else (v.strip() if isinstance(v, str) else v)  # noqa: E731
+    place = blank(location)
+    rows, names = [], {}
+    for n, (key, where, counted) in enumerate(counts, start=1):
+        spot = blank(where) or place
+        rows.append(Row(n, {"part_key": blank(key), "location": spot, "counted": blank(counted), "counted_on": blank(day)}))
+        names[n] = f"part_key {key!r} at {(spot or DEFAULT_LOCATION)!r}"
+    table = EnteredTable(source, None, ("part_key", "location", "counted", "counted_on"), rows, None, names)
+    _typed_numbers(table, "counted")
+    skipped: list[Row] = []
+    counted_rows = _rows(table, "count", _TYPED_MARK, "counted", skipped)
+    filter_rows, names = [], {}
+    for n, (unit, position, run) in enumerate(hours, start=1):
+        filter_rows.append(Row(n, {"unit": blank(unit), "position": blank(position), "hours_since_change": blank(run),
+                                   "counted_on": blank(day)}))
+        names[n] = f"unit {unit!r} filter {position!r}"
+    filters = EnteredTable(source, None, ("unit", "position", "hours_since_change", "counted_on"), filter_rows, None, names)
+    _typed_numbers(filters, "hours_since_change")
+    filters_skipped: list[Row] = []
+    filter_hours = _filter_rows(filters, _TYPED_MARK, filters_skipped)
+    return StockFile(table, "count", counted_rows, tuple(skipped), None, filters, tuple(filter_hours), tuple(filters_skipped))

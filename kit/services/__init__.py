@@ -14,6 +14,7 @@ service and show or write what it returns; they never open a transaction or run 
 ``policies``   set and show the spares policy in force; the days of cover an order defaults to
 ``purchasing`` base currency, handling margin, exchange rates, preferred suppliers, deliveries
 ``templates``  the sheets kit reads, written empty or filled
+``vessels``    one vessel whole (the vessel page): worked out, its stock and check, a count typed in place
 ``database``   what the fleet database holds
 ``demo``       the whole job on the invented demo fleet
 

@@ -15,18 +15,20 @@ leaves the address bar and, with ``Referrer-Policy: no-referrer``, is never sent
 - every response carries a Content-Security-Policy that allows no inline script and no other
   origin, and forbids framing.
 
-Sessions live in this process (:class:`Sessions`): restarting the server ends them.
+With no people in the fleet database, sessions live in this process (:class:`Sessions`):
+restarting the server ends them. Once people sign in (the office server), sessions are the
+database's (:mod:`kit.services.people`), shared by every server in front of it.
 """
 
 from __future__ import annotations
 
 import hmac
 import secrets
+import time
+from dataclasses import dataclass, field
 from urllib.parse import quote
 
 from starlette.requests import Request
-import time
-from dataclasses import dataclass, field
 
 COOKIE = "kit_session"
 CSRF_FIELD = "csrf"
@@ -217,7 +219,9 @@ class CsrfRefused(Exception):
 
 async def checked_form(request: Request):
     """The request's form, once its CSRF field has been checked against the session's token (a
-    FastAPI dependency for every page that takes a POST). Field and file counts are bounded."""
+    FastAPI dependency for every page that takes a POST). Field and file counts are bounded.
+    ``request`` is annotated so FastAPI hands over the request rather than reading a query
+    parameter of that name (which refused every POST with 422)."""
     form = await request.form(max_files=4, max_fields=400)
     session = getattr(request.state, "session", None)
     if session is None or not same(form.get(CSRF_FIELD) if isinstance(form.get(CSRF_FIELD), str) else None, session.csrf):
