@@ -74,7 +74,7 @@ def voyage_check(engine: Engine, vessel_id: str, days: float | None = None):
 
 def record_counts(engine: Engine, vessel_id: str, counts: Sequence[tuple[str, str | None, Any]],
                   counted_on: Any = None, location: str | None = None,
-                  hours: Sequence[tuple[str, str, Any]] = ()):
+                  hours: Sequence[tuple[str, str, Any]] = (), actor=None):
     """Record a count of ``vessel_id``'s stock typed in place: ``counts`` (part key, location or
     None, what was counted; blank: not counted), counted on ``counted_on`` (blank: today), parts
     with no location at ``location``; and ``hours`` (unit, position, running hours since the
@@ -87,9 +87,15 @@ def record_counts(engine: Engine, vessel_id: str, counts: Sequence[tuple[str, st
     from kit.store.stock_import import write_stock
     from kit.store.vessel_ids import resolve_vessel_id
 
+    from kit.services.audit import audit, stock_snapshot
+
     def work(conn):
         vessel = resolve_vessel_id(conn, vessel_id)
         stock = read_count_entries(f"count of {vessel}", counts, counted_on, location, hours)
-        return write_stock(conn, stock, vessel)
+        before = stock_snapshot(conn, vessel)
+        report = write_stock(conn, stock, vessel)
+        if report.rows or report.filter_hours:
+            audit(conn, actor, "stock count", vessel, before, stock_snapshot(conn, vessel) | {"filter hours recorded": report.filter_hours})
+        return report
 
     return write_transaction(engine, work)

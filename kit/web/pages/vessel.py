@@ -18,6 +18,7 @@ from fastapi.responses import FileResponse, RedirectResponse
 from starlette.background import BackgroundTask
 
 from kit.errors import ArgumentError, UnknownVesselError
+from kit.web.access import actor_of, require
 from kit.web.guard import checked_form
 from kit.web.render import page, refusal_page
 
@@ -58,6 +59,7 @@ def vessel(request: Request, vessel_id: str, recorded: int | None = Query(None, 
     from kit.engine.report_rows import fmt, gear_rows, oil_words, quantity, seal_cells, unit_particulars
     from kit.services.vessels import vessel_view
 
+    require(request, "view vessel", vessel_id)
     try:
         view = vessel_view(request.app.state.engine, vessel_id)
     except UnknownVesselError as exc:
@@ -87,6 +89,8 @@ def record_count(request: Request, vessel_id: str, form=Depends(checked_count_fo
 
     from kit.services.vessels import record_counts
 
+    require(request, "count stock", vessel_id)
+
     def texts(name: str) -> list[str]:
         return [v if isinstance(v, str) else "" for v in form.getlist(name)]
 
@@ -100,7 +104,7 @@ def record_count(request: Request, vessel_id: str, form=Depends(checked_count_fo
     try:
         report = record_counts(request.app.state.engine, vessel_id, list(zip(parts, places, counted)),
                                on if isinstance(on, str) else None, where if isinstance(where, str) else None,
-                               list(zip(units, positions, run)))
+                               list(zip(units, positions, run)), actor=actor_of(request))
     except UnknownVesselError as exc:
         return _unknown(request, exc)
     return RedirectResponse(f"/vessel/{quote(report.vessel, safe='')}?recorded={report.rows}&hours={report.filter_hours}#stock",
@@ -113,6 +117,7 @@ def check(request: Request, vessel_id: str, days: str | None = Query(None, max_l
     from kit.engine.report_rows import fmt, quantity
     from kit.services.vessels import voyage_check
 
+    require(request, "view check", vessel_id)
     chosen = _days(days)
     try:
         found = voyage_check(request.app.state.engine, vessel_id, chosen)
@@ -149,6 +154,7 @@ def count_sheet(request: Request, vessel_id: str, days: str | None = Query(None,
     from kit.services.policies import days_of_cover
     from kit.services.templates import write_stock_template
 
+    require(request, "download count sheet", vessel_id)
     engine = request.app.state.engine
     folder = Path(tempfile.mkdtemp(prefix="kit-download-"))
     try:
@@ -172,6 +178,7 @@ def check_workbook(request: Request, vessel_id: str, days: str | None = Query(No
     from kit.files.check_workbook import write_check_workbook
     from kit.services.vessels import voyage_check
 
+    require(request, "download check", vessel_id)
     folder = Path(tempfile.mkdtemp(prefix="kit-download-"))
     try:
         found = voyage_check(request.app.state.engine, vessel_id, _days(days))
