@@ -152,10 +152,17 @@ def order_page(request: Request,
 
 
 def _asked_in(form) -> Asked:
-    """The choice a download or enquiry form carries (the vessels and days the page showed)."""
+    """The choice a download or enquiry form carries (the vessels and days the page showed; the
+    vessels in one field, so a thousand of them stay within the form's bound on fields)."""
     scope = form.get("scope", "chosen")
-    return Asked(scope == "fleet", _ids("", [str(v) for v in form.getlist("vessel")]), str(form.get("days", "")),
-                 form.get("hide") == "1", "line")
+    return Asked(scope == "fleet", _ids(str(form.get("ids", "")), [str(v) for v in form.getlist("vessel")]),
+                 str(form.get("days", "")), form.get("hide") == "1", "line")
+
+
+async def _checked_form(request: Request):
+    """:func:`kit.web.guard.checked_form` with its request typed, so that FastAPI passes the request
+    rather than look for a query parameter of that name."""
+    return await checked_form(request)
 
 
 def _paper(value) -> str:
@@ -167,6 +174,7 @@ def _paper(value) -> str:
 @router.get("/order/workbook")
 def order_workbook(request: Request,
                    scope: str = Query("chosen", pattern="^(chosen|fleet)$"),
+                   ids: str = Query("", max_length=40_000),
                    vessel: list[str] = Query([]),
                    days: str = Query("", max_length=40),
                    hide: bool = Query(False),
@@ -174,7 +182,7 @@ def order_workbook(request: Request,
     """The order workbook, written by the same writer and with the same arguments as ``kit bom --out``."""
     from kit.files.workbook import write_workbook
 
-    shown = _order_of(request.app.state.engine, Asked(scope == "fleet", _ids("", vessel), days, hide, "line"))
+    shown = _order_of(request.app.state.engine, Asked(scope == "fleet", _ids(ids, vessel), days, hide, "line"))
     folder = Path(tempfile.mkdtemp(prefix="kit-order-"))
     try:
         path = write_workbook(shown["order"], folder / "order.xlsx", shown["days"], shown["scope"], _paper(paper))
@@ -210,7 +218,7 @@ def _download(request: Request, key: str | None) -> Written | None:
 
 
 @router.post("/order/enquiries")
-def order_enquiries(request: Request, form=Depends(checked_form)):
+def order_enquiries(request: Request, form=Depends(_checked_form)):
     """Write the order as supplier enquiries (recorded in the fleet database, as ``kit enquiry
     write`` does), zip the workbooks and send the browser to the order page that offers the zip."""
     from kit.files.dates import EXPECTED, iso_date
