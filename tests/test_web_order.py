@@ -227,7 +227,9 @@ def test_unknown_vessel_and_no_vessel_are_refused(web):
     assert r.status_code == 400
     assert ("order page: vessel: expected the id of a vessel in the fleet database (the Fleet page lists them; letter "
             "case does not matter) (got &#39;NO-SUCH-SHIP&#39;)") in r.text
-    r = web.browser.get("/order?go=1&days=90")
+    r = web.browser.get("/order?go=1&days=90&q=tide")  # Enter in the search field before ticking any: a search
+    assert r.status_code == 200 and "Tick the vessels to order for" in r.text and 'id="order-lines"' not in r.text
+    r = web.browser.get("/order/workbook?days=90")
     assert r.status_code == 400 and "order page: vessels: expected at least one vessel ticked or typed" in r.text
     r = web.browser.get("/order?go=1&scope=fleet&sort=price")
     assert r.status_code == 422 and "/order: sort: expected" in r.text
@@ -281,7 +283,7 @@ def _post(browser, data):
     return browser.post("/order/enquiries", data=data)
 
 
-ENQUIRY_FORM = {"scope": "chosen", "ids": " ".join(TWO), "days": "120.0", "reply_by": "", "paper": "a4"}
+ENQUIRY_FORM = {"scope": "chosen", "ids": " ".join(TWO), "days": "120", "reply_by": "", "paper": "a4"}
 
 
 @pytest.mark.parametrize("csrf", [None, "", "not-the-session-token"])
@@ -317,7 +319,7 @@ def test_enquiries_are_recorded_once_and_offered_as_one_zip_per_supplier(web):
     assert r.status_code == 303
     target = r.headers["location"]
     query = parse_qs(urlsplit(target).query)
-    assert query["vessel"] == list(TWO) and query["days"] == ["120.0"] and query["written"]
+    assert query["vessel"] == list(TWO) and query["days"] == ["120"] and query["written"]
     assert dump(web.engine) != before  # recorded, so that the replies can be matched
     recorded = dump(web.engine)
     shown = web.browser.get(target)
@@ -342,3 +344,14 @@ def test_enquiries_are_recorded_once_and_offered_as_one_zip_per_supplier(web):
 def test_no_session_no_order(web):
     for path in ("/order", ASK_TWO, "/order/workbook?scope=fleet&days=90", "/order/enquiries/anything"):
         assert client(web.app).get(path).status_code == 401
+
+
+def test_find_vessels_searches_any_letter_case_and_pages(web):
+    from kit.services.fleet import find_vessels, list_vessels
+
+    every = [g.id for g in list_vessels(web.engine)]
+    found = find_vessels(web.engine, "  CORVINA ", 1, 4)
+    assert [g.id for g in found.rows] == ["CORVINA-BAY"] and (found.total, found.pages) == (1, 1)
+    first, last = find_vessels(web.engine, "", 1, 4), find_vessels(web.engine, "", 99, 4)
+    assert first.pages == last.pages == -(-len(every) // 4) and last.page == last.pages  # past the end: the last page
+    assert [g.id for g in first.rows] + [g.id for g in last.rows] == every[:4] + every[(last.pages - 1) * 4:]

@@ -81,10 +81,17 @@ def _period(engine, asked: Asked) -> tuple[list[str], float, str]:
     if not asked.fleet and not vessel_ids:
         raise ArgumentError(SOURCE, "vessels", "at least one vessel ticked or typed, or the whole fleet")
     if asked.days.strip():
-        return vessel_ids, days_typed(asked.days, SOURCE), "as asked"
+        days = days_typed(asked.days, SOURCE)
+        return vessel_ids, days, f"{days_text(days)} days, as asked"
     with _named_vessel():
         cover = days_of_cover(engine, vessel_ids)
     return vessel_ids, float(cover.days), cover.explained()
+
+
+def days_text(days: float) -> str:
+    """``days`` as a form field carries it: whole days without a decimal point, others exactly."""
+    text = repr(float(days))
+    return text.removesuffix(".0")
 
 
 @contextlib.contextmanager
@@ -109,7 +116,7 @@ def _order_of(engine, asked: Asked) -> dict:
     if asked.sort == "order_by":  # undated lines (no offer, or no delivery set) last
         lines = sorted(lines, key=lambda li: (li.order_by is None, li.order_by or dt.date.max, li.number))
     notes = order_notes(order)
-    return {"order": order, "scope": scope, "days": days, "days_why": why, "lines": lines,
+    return {"order": order, "scope": scope, "days": days, "days_text": days_text(days), "days_why": why, "lines": lines,
             "notes": [n for n in notes if not n.startswith(WARNING)],
             "warnings": [n.removeprefix(WARNING) for n in notes if n.startswith(WARNING)],
             "totals": sorted(order.totals_by_currency().items()),
@@ -140,10 +147,12 @@ def order_page(request: Request,
               "by_date": replace(asked, sort="order_by").query(go="1"), "by_line": replace(asked, sort="line").query(go="1"),
               "written": written or "",
               "typed": " ".join(v for v in asked.vessels if v.casefold() not in listed),
-              "shown": None, "refusal": None, "papers": PAPERS, "enquiries": _download(request, written),
+              "shown": None, "refusal": None, "hint": None, "papers": PAPERS, "enquiries": _download(request, written),
               "expired": written is not None and _download(request, written) is None}
     status = 200
-    if go:
+    if go and not (asked.fleet or asked.vessels):  # Enter in the search field, nothing chosen yet: a search
+        values["hint"] = "Tick the vessels to order for, type their ids, or choose the whole fleet; then show the order."
+    elif go:
         try:
             values["shown"] = _order_of(engine, asked)
         except KitError as exc:
