@@ -5,6 +5,7 @@ and writes the supplier enquiries (one zip of workbooks); the page on screen and
 
 from __future__ import annotations
 
+import datetime as dt
 import io
 import zipfile
 
@@ -19,8 +20,13 @@ TWO = ("CORVINA-BAY", "SALTMERE-CREST")
 
 def test_a_purchaser_orders_for_two_vessels_and_downloads_the_workbook_and_enquiries(page, served, tmp_path):
     from kit.services.orders import build_order
+    from kit.services.purchasing import set_delivery
     from tests.spreadsheet_program import recalculated_sheets
 
+    today = dt.date.today()  # one vessel due too soon for every offer, one in good time (invented ports)
+    set_delivery(served.engine, "CORVINA-BAY", "Port Vellin (invented)", today + dt.timedelta(days=5))
+    set_delivery(served.engine, "SALTMERE-CREST", "Harrowgate Quay (invented)", today + dt.timedelta(days=60))
+    page.reload()
     page.get_by_role("link", name="Order", exact=True).click()
     page.wait_for_url("**/order")
     page.get_by_label("CORVINA-BAY").focus()
@@ -32,6 +38,7 @@ def test_a_purchaser_orders_for_two_vessels_and_downloads_the_workbook_and_enqui
     assert page.get_by_role("heading", name="Order for 2 vessel(s) over 120 days").is_visible()
     order = build_order(served.engine, list(TWO), 120.0)[0]
     assert page.locator("#order-lines tbody tr").count() == len(order.lines)
+    assert page.locator("#order-lines [data-col=late]").count() == len(order.late_lines()) > 0
     screenshot(page, f"order-{served.engine.dialect.name}")
     page.emulate_media(media="print")
     screenshot(page, f"order-print-{served.engine.dialect.name}")

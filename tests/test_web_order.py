@@ -204,11 +204,11 @@ def test_the_form_lists_vessels_labelled_and_keeps_the_choice(web):
     assert r.status_code == 200 and 'id="order-lines"' not in r.text  # no order before it is asked for
     for field in ("days", "hide", "sort", "ids", "q", "scope-chosen", "scope-fleet"):
         assert f'<label for="{field}"' in r.text
-    boxes = re.findall(r'<input id="(v-\d+)" name="vessel" type="checkbox" value="([^"]+)"( checked)?>', r.text)
+    boxes = re.findall(r'<input id="([vc]-\d+)" name="vessel" type="checkbox" value="([^"]+)"( checked)?>', r.text)
     assert boxes and all(f'<label for="{i}">' in r.text for i, _, _ in boxes)
-    assert ("CORVINA-BAY" in {v for _, v, c in boxes if c})  # ticked whatever the letter case typed
-    listed = {v for _, v, _ in boxes}
-    assert "TIDEWHISTLE" not in listed and 'value="TIDEWHISTLE"' in r.text  # typed, not listed: kept in the ids field
+    ticked = {v for i, v, c in boxes if c}
+    assert {v for i, v, _ in boxes if i.startswith("v-")} == {"CORVINA-BAY"}  # the list found
+    assert ticked == {"CORVINA-BAY", "TIDEWHISTLE"}  # whatever the letter case; typed, not listed: kept ticked apart
 
 
 @pytest.mark.parametrize("days", ["-1", "0", "NaN", "inf", "ninety", "1e3", "3651", "9" * 39, "12,5"])
@@ -283,7 +283,7 @@ def _post(browser, data):
     return browser.post("/order/enquiries", data=data)
 
 
-ENQUIRY_FORM = {"scope": "chosen", "ids": " ".join(TWO), "days": "120", "reply_by": "", "paper": "a4"}
+ENQUIRY_FORM = {"scope": "chosen", "ids": "\n".join(TWO), "days": "120", "reply_by": "", "paper": "a4"}
 
 
 @pytest.mark.parametrize("csrf", [None, "", "not-the-session-token"])
@@ -355,3 +355,24 @@ def test_find_vessels_searches_any_letter_case_and_pages(web):
     first, last = find_vessels(web.engine, "", 1, 4), find_vessels(web.engine, "", 99, 4)
     assert first.pages == last.pages == -(-len(every) // 4) and last.page == last.pages  # past the end: the last page
     assert [g.id for g in first.rows] + [g.id for g in last.rows] == every[:4] + every[(last.pages - 1) * 4:]
+
+
+def test_an_id_with_spaces_and_a_comma_is_carried_whole_to_the_downloads(web, tmp_path):
+    from pathlib import Path
+
+    from kit.services.fleet import load_particulars
+
+    odd = "HULL 7, YARD B"  # invented; an id may hold spaces and commas, so it is ticked, never split
+    demo = Path(__file__).resolve().parents[1] / "demo_fleet" / "corvina_bay.toml"
+    (tmp_path / "hull7.toml").write_text(demo.read_text(encoding="utf-8").replace('id = "CORVINA-BAY"', f'id = "{odd}"', 1),
+                                         encoding="utf-8")
+    load_particulars(web.engine, tmp_path / "hull7.toml")
+    r = web.browser.get("/order", params={"go": "1", "vessel": [odd, "SALTMERE-CREST"], "days": "90"})
+    assert r.status_code == 200 and "Order for 2 vessel(s) over 90 days" in r.text
+    carried = html.unescape(re.search(r'<input type="hidden" name="ids" value="([^"]*)">', r.text).group(1))
+    assert carried.split("\n") == [odd, "SALTMERE-CREST"]
+    wb = web.browser.get("/order/workbook", params={"ids": carried, "days": "90"})
+    assert wb.status_code == 200
+    assert odd in openpyxl.load_workbook(io.BytesIO(wb.content))["Cover"]["B3"].value
+    sent = _post(web.browser, {"csrf": web.csrf(ASK_TWO), "ids": carried, "days": "90"})
+    assert sent.status_code == 303 and parse_qs(urlsplit(sent.headers["location"]).query)["vessel"] == [odd, "SALTMERE-CREST"]

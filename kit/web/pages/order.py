@@ -36,11 +36,11 @@ from kit.web.render import page
 router = APIRouter()
 PER_PAGE = 20  # vessels listed to tick at a time
 SOURCE = "order page"  # how a refusal names where the value came from
-SORTS = ("line", "order_by")  # the order's own line order, or the date each line must be ordered by
 PAPERS = (("a4", "A4"), ("letter", "US Letter"))
 KEPT_DOWNLOADS = 8  # enquiry zips kept in memory per server, newest first
 XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
-_SEPARATORS = re.compile(r"[\s,;]+")
+_TYPED = re.compile(r"[\s,;]+")  # between ids a person types (an id with a space or comma in it is ticked instead)
+_CARRIED = re.compile(r"\n")  # between ids a page's hidden field carries (no stored text holds a control character)
 
 
 @dataclass(frozen=True)
@@ -60,11 +60,11 @@ class Asked:
         return urlencode(pairs + [(k, v) for k, v in more.items() if v is not None])
 
 
-def _ids(typed: str, ticked: list[str]) -> list[str]:
-    """The vessel ids typed (separated by spaces, commas or semicolons) and ticked, each once
-    whatever its letter case, in the order given."""
+def _ids(typed: str, ticked: list[str], between: re.Pattern = _TYPED) -> list[str]:
+    """The vessel ids typed (separated by ``between``) and ticked, each once whatever its letter
+    case, in the order given."""
     seen: dict[str, str] = {}
-    for vessel_id in [*_SEPARATORS.split(typed), *ticked]:
+    for vessel_id in [*between.split(typed), *ticked]:
         vessel_id = vessel_id.strip()
         if vessel_id:
             seen.setdefault(vessel_id.casefold(), vessel_id)
@@ -132,7 +132,7 @@ def order_page(request: Request,
                vessel: list[str] = Query([]),
                days: str = Query("", max_length=40),
                hide: bool = Query(False),
-               sort: str = Query("line", pattern="^(line|order_by)$"),
+               sort: str = Query("line", pattern="^(line|order_by)$"),  # line number, or order-by date
                q: str = Query("", max_length=100),
                p: int = Query(1, ge=1, le=100_000),
                written: str | None = Query(None, max_length=64)):
@@ -146,7 +146,7 @@ def order_page(request: Request,
     values = {"asked": asked, "found": found, "listing": [(g, g.id.casefold() in chosen) for g in found.rows],
               "by_date": replace(asked, sort="order_by").query(go="1"), "by_line": replace(asked, sort="line").query(go="1"),
               "written": written or "",
-              "typed": " ".join(v for v in asked.vessels if v.casefold() not in listed),
+              "also": [v for v in asked.vessels if v.casefold() not in listed],
               "shown": None, "refusal": None, "hint": None, "papers": PAPERS, "enquiries": _download(request, written),
               "expired": written is not None and _download(request, written) is None}
     status = 200
@@ -164,7 +164,7 @@ def _asked_in(form) -> Asked:
     """The choice a download or enquiry form carries (the vessels and days the page showed; the
     vessels in one field, so a thousand of them stay within the form's bound on fields)."""
     scope = form.get("scope", "chosen")
-    return Asked(scope == "fleet", _ids(str(form.get("ids", "")), [str(v) for v in form.getlist("vessel")]),
+    return Asked(scope == "fleet", _ids(str(form.get("ids", "")), [str(v) for v in form.getlist("vessel")], _CARRIED),
                  str(form.get("days", "")), form.get("hide") == "1", "line")
 
 
@@ -191,7 +191,7 @@ def order_workbook(request: Request,
     """The order workbook, written by the same writer and with the same arguments as ``kit bom --out``."""
     from kit.files.workbook import write_workbook
 
-    shown = _order_of(request.app.state.engine, Asked(scope == "fleet", _ids(ids, vessel), days, hide, "line"))
+    shown = _order_of(request.app.state.engine, Asked(scope == "fleet", _ids(ids, vessel, _CARRIED), days, hide, "line"))
     folder = Path(tempfile.mkdtemp(prefix="kit-order-"))
     try:
         path = write_workbook(shown["order"], folder / "order.xlsx", shown["days"], shown["scope"], _paper(paper))
