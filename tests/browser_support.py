@@ -75,20 +75,37 @@ def served(engine, tmp_path):  # noqa: F811
         sock.close()
 
 
+_STARTED: dict = {}  # the one Playwright and browser of this test process (see chromium)
+
+
+def _stop_browser() -> None:
+    browser, playwright = _STARTED.pop("browser", None), _STARTED.pop("playwright", None)
+    if browser is not None:
+        browser.close()
+        playwright.stop()
+
+
 @pytest.fixture(scope="session")
 def chromium():
-    """Debian's chromium under Playwright, shared by the session's tests."""
+    """Debian's chromium under Playwright, shared by the session's tests.
+
+    Each test module that imports this fixture gets its own copy of it, and a second Playwright
+    started while the first runs is refused ("Sync API inside the asyncio loop"); so the copies
+    share one Playwright and browser, stopped when the process ends."""
     path = chromium_path()
     if not path:
         if os.environ.get("KIT_REQUIRE_BROWSER") == "1":
             pytest.fail("KIT_REQUIRE_BROWSER=1 but no chromium was found (apt-get install chromium)")
         pytest.skip("no chromium on this machine (apt-get install chromium; KIT_CHROMIUM=PATH)")
-    from playwright.sync_api import sync_playwright
+    if "browser" not in _STARTED:
+        import atexit
 
-    with sync_playwright() as p:
-        browser = p.chromium.launch(executable_path=path, args=["--no-sandbox", "--disable-dev-shm-usage"])
-        yield browser
-        browser.close()
+        from playwright.sync_api import sync_playwright
+
+        _STARTED["playwright"] = playwright = sync_playwright().start()
+        _STARTED["browser"] = playwright.chromium.launch(executable_path=path, args=["--no-sandbox", "--disable-dev-shm-usage"])
+        atexit.register(_stop_browser)
+    yield _STARTED["browser"]
 
 
 @pytest.fixture
