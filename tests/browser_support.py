@@ -84,7 +84,11 @@ _SHARED: dict = {"users": 0}
 
 @pytest.fixture(scope="session")
 def chromium():
-    """Debian's chromium under Playwright, shared by the session's tests."""
+    """Debian's chromium under Playwright, shared by the session's tests.
+
+    Each test module that imports this fixture gets its own copy of it, and a second Playwright
+    started while the first runs is refused ("Sync API inside the asyncio loop"); so the copies
+    share one Playwright and browser, stopped when the process ends."""
     path = chromium_path()
     if not path:
         if os.environ.get("KIT_REQUIRE_BROWSER") == "1":

@@ -50,7 +50,9 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
 
     Example: kit bom --days 180 --out fleet-order.xlsx
     """
-    from kit.commands.terminal import order_summary, progress_bar
+    from kit.commands.terminal import progress_bar
+    from kit.engine.order_notes import order_notes
+    from kit.files.safe_text import visible
     from kit.files.output_targets import check_outputs
     from kit.services.orders import build_order
     from kit.files.workbook import write_workbook
@@ -70,5 +72,5 @@ def bom(engine, vessel_ids, days, out, csv_out, json_out, particulars, policy_fi
         written.append(str(write_json(order, json_out, days)))
     for w in written:
         click.echo(f"wrote {w}")
-    for line in order_summary(order):
-        click.echo(line)
+    for line in order_notes(order):
+        click.echo(visible(line))

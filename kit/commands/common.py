@@ -258,11 +258,5 @@ def default_days(engine: Any, days: float | None, vessel_ids: Any = (), particul
 
     cover = days_of_cover(engine, vessel_ids, particulars=particulars, policy_file=policy_file)
     if cover.differ:
-        groups: dict[int, list[str]] = {}
-        for vessel, d in sorted(cover.by_vessel.items()):
-            groups.setdefault(d, []).append(vessel)
-        each = "; ".join(f"{d} for {', '.join(ids[:3])}" + (f" and {len(ids) - 3} more" if len(ids) > 3 else "")
-                         for d, ids in sorted(groups.items(), reverse=True))
-        click.echo(visible(f"kit: --days not given: {cover.days} days, the largest days of cover of the spares "
-                           f"policies in force ({each})"), err=True)
+        click.echo(visible(f"kit: --days not given: {cover.explained()}"), err=True)
     return cover.days

@@ -128,44 +128,6 @@ def vessels_table(vessels: list, width: int = 80) -> Any:
     return fitted_table(VESSEL_COLUMNS, rows, width, title=f"{len(vessels)} vessel(s) in the fleet database")
 
 
-RULES_LISTED = 10  # rule checks not met listed one a line; past this, a count
-
-
-def order_summary(order) -> list[str]:
-    """The lines ``kit bom`` ends with (plain text, stored text made visible): the order's lines
-    and those with something to order, the series of sister ships, the total of the priced lines per currency (as the
-    workbook's cover sums them), then the warnings that matter: lines to order with no catalogue
-    price, and each rule check of the gear that is not met."""
-    from kit.files.safe_text import visible
-
-    to_order = [line for line in order.lines if line.to_order > 0]
-    out = [f"{len(order.lines)} order line(s) for {len(order.results)} vessel(s), {len(to_order)} with something to order"]
-    for s in order.series[:RULES_LISTED]:
-        alike = sum(1 for line in order.lines if line.hulls == len(s.hulls) and s.lead in line.split)
-        out.append(visible(f"series {s.lead}: {len(s.hulls)} hulls built alike ({', '.join(s.hulls)}); "
-                           f"{alike} line(s) give the quantity per hull"))
-    totals = order.totals_by_currency()
-    if totals:
-        out.append("total of priced lines: " + "; ".join(f"{totals[c]:,.2f} {visible(c) or '(no currency)'}" for c in sorted(totals)))
-    if order.base_currency:
-        out.append(f"total in the base currency: {order.total_in_currency():,.2f} {visible(order.base_currency)}")
-    unpriced = [line for line in to_order if line.line_total is None]
-    if unpriced:
-        kinds = ", ".join(dict.fromkeys(line.kind.replace("_", " ") for line in unpriced))
-        out.append(f"warning: {len(unpriced)} of the {len(to_order)} line(s) to order have no catalogue price ({kinds})")
-    late = order.late_lines()
-    if late:
-        out.append(f"warning: {len(late)} line(s) late: no offer arrives by the delivery date (see the Late column)")
-    if order.missing_rates:
-        out.append(visible(f"warning: no exchange rate into {order.currency} for {', '.join(order.missing_rates)}: "
-                           "those offers were not compared on price (kit rates set)"))
-    failed = [(r.vessel.id, u.unit.id, rule.clause) for r in order.results for u in r.units
-              for rule in u.checks.rules if rule.verdict == "not met"]
-    for vessel_id, unit_id, clause in failed[:RULES_LISTED]:
-        out.append(visible(f"warning: {vessel_id} unit {unit_id}: {clause} not met (see the Gear checks sheet)"))
-    if len(failed) > RULES_LISTED:
-        out.append(f"warning: {len(failed) - RULES_LISTED} more rule check(s) not met (see the Gear checks sheet)")
-    return out
 
 
 class _Rows:

@@ -14,6 +14,7 @@ One module per idea, data flowing one way:
 ``supplier_choice``  each line's supplier (money, preference, time), order-by dates, oil in offered packs
 ``series_of_hulls``  sister ships built alike, and each order line's quantity per hull
 ``bom``, ``preflight``  consolidation over vessels less stock; the pre-voyage shortfall and what it covered
+``order_notes``  what an order comes to, in words: totals, late lines, missing rates, rules not met
 ``enquiry``  an order shaped into enquiries, one per supplier and one open; what a reply answers
 ``report``, ``display_units``  a result as a JSON dict; the units results are shown in
 ``report_rows``  that dict as the readable report's rows, the same on a terminal and a page

@@ -159,3 +159,42 @@ def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 
                                  sum(len(u.warnings) + len(u.checks.warnings) for u in r.units),
                                  None if days is None else float(days), None if days is None else lines_short(r, on_board)))
     return FleetPage(rows, len(found), page, pages, search)
+
+
+def _matching(glance: list, search: str) -> list:
+    """The glance rows whose id, name or ship type contains ``search`` (any letter case)."""
+    needle = search.strip().casefold()
+    return [g for g in glance if not needle or any(needle in (t or "").casefold() for t in (g.id, g.name, g.ship_type))]
+
+
+def _one_page(rows: list, page: int, per_page: int) -> tuple[int, int, list]:
+    """``page`` brought within 1..pages, the number of pages, and that page's rows."""
+    pages = max(1, -(-len(rows) // per_page))
+    page = min(max(1, page), pages)
+    return page, pages, rows[(page - 1) * per_page: page * per_page]
+
+
+@dataclass(frozen=True)
+class VesselsFound:
+    """One page of the vessels to choose from (the order page's list): glance rows only, no vessel
+    worked out, so a thousand vessels cost one query."""
+
+    rows: list  # kit.store.fleet_overview.VesselGlance
+    total: int  # vessels matching the search, over all pages
+    page: int
+    pages: int
+    search: str
+
+
+def find_vessels(engine: Engine, search: str = "", page: int = 1, per_page: int = 25, today=None) -> VesselsFound:
+    """One page of the vessels whose id, name or ship type contains ``search`` (any letter case), sorted by id."""
+    import datetime as dt
+
+    from kit.store.fleet_overview import fleet_glance
+
+    from catalog_schema.engine import read_transaction
+
+    with read_transaction(engine) as conn:
+        glance = _matching(fleet_glance(conn, today or dt.date.today()), search)
+    page, pages, shown = _one_page(glance, page, per_page)
+    return VesselsFound(shown, len(glance), page, pages, search)

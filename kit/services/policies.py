@@ -89,6 +89,19 @@ class CoverDays:
     def differ(self) -> bool:
         return len(set(self.by_vessel.values())) > 1
 
+    def explained(self) -> str:
+        """The days taken, and why: "120 days, the largest days of cover of the spares policies in
+        force (120 for A; 90 for B, C, D and 2 more)" where the vessels' policies differ, else
+        "90 days, the days of cover of the spares policy in force"."""
+        if not self.differ:
+            return f"{self.days} days, the days of cover of the spares policy in force"
+        groups: dict[int, list[str]] = {}
+        for vessel, d in sorted(self.by_vessel.items()):
+            groups.setdefault(d, []).append(vessel)
+        each = "; ".join(f"{d} for {', '.join(ids[:3])}" + (f" and {len(ids) - 3} more" if len(ids) > 3 else "")
+                         for d, ids in sorted(groups.items(), reverse=True))
+        return f"{self.days} days, the largest days of cover of the spares policies in force ({each})"
+
 
 NO_COVER_IN_FILES = ("a number of days (a spares policy file holds no days of cover; kit policy set "
                      "records them in the fleet database)")
