@@ -19,13 +19,19 @@ def read_particulars(path: str | Path) -> list:
     return read(path)
 
 
-def load_particulars(engine: Engine, path: str | Path) -> list[str]:
+def load_particulars(engine: Engine, path: str | Path, source: str | None = None) -> list[str]:
     """Check every vessel of ``path`` (see :func:`read_particulars`), then save them all in one
-    transaction; return their ids."""
+    transaction; return their ids. Each vessel records the file it came from: ``path``, or
+    ``source`` where a face read a copy (a page's upload, saved in a temporary folder, is recorded
+    by the name it was uploaded under)."""
+    from dataclasses import replace
+
     from catalog_schema.engine import write_transaction
     from kit.store.fleet_store import save_vessels
 
     vessels = read_particulars(path)
+    if source is not None:
+        vessels = [replace(v, source=source) for v in vessels]
     return write_transaction(engine, lambda conn: save_vessels(conn, vessels))
 
 

@@ -42,7 +42,7 @@ def load(request: Request, form=Depends(posted_form)):
     upload = one_upload(form, "particulars", "particulars file", SUFFIXES)
     engine = request.app.state.engine
     with reading(upload, request.app.state.upload_limit) as path:
-        ids = load_particulars(engine, path)
+        ids = load_particulars(engine, path, source=safe_name(upload.filename))
     loaded = Loaded(safe_name(upload.filename), ids)
     if register:  # as `kit parts register --vessel ID ...` run next: its own transaction
         try:
