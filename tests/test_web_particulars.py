@@ -16,8 +16,6 @@ import zipfile
 from pathlib import Path
 
 import openpyxl
-import pytest
-
 from tests.db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtures)
 from tests.upload_support import cli_line, post_file, refusal_of, refused_unchanged
 from tests.web_support import PORT, TOKEN, client, logged_in, web  # noqa: F401  (fixture)
@@ -134,14 +132,18 @@ def both_refuse(web, path: Path) -> str:
     return said
 
 
-def test_bad_particulars_are_refused_in_the_commands_line(web, tmp_path):
-    """Every case of test_hostile_particulars.py (one fleet database for them all)."""
+def test_bad_and_hostile_particulars_are_refused_in_the_commands_line(web, tmp_path):
+    """Every case of test_hostile_particulars.py, TOML nested past the limit, not UTF-8, an entity
+    bomb (one fleet database for them all: the demo fleet takes seconds to fill)."""
     for case, (old, new), field, expected in CASES:
         path = toml(tmp_path, "bad.toml", TOML_CYLINDER.replace(old, new, 1))
         assert both_refuse(web, path) == f"bad.toml: {field}: expected {expected}", case
+    bad_workbooks_refused(web, tmp_path)
+    too_deep_refused(web, tmp_path)
+    not_utf8_or_entities_refused(web, tmp_path)
 
 
-def test_a_bad_particulars_workbook_is_refused_in_the_commands_line(web, tmp_path):
+def bad_workbooks_refused(web, tmp_path):
     from kit.files.particulars_sheet import write_particulars_template
 
     source = toml(tmp_path, text=TOML_CYLINDER.replace("TEST-ONE", "TEST-BOOK"))
@@ -154,14 +156,14 @@ def test_a_bad_particulars_workbook_is_refused_in_the_commands_line(web, tmp_pat
         assert both_refuse(web, path) == f"v.xlsx{line}", case
 
 
-def test_toml_nested_past_the_limit_is_refused_before_parsing(web, tmp_path):
+def too_deep_refused(web, tmp_path):
     for kind in ("arrays", "inline tables", "dotted key"):
         path = toml(tmp_path, "deep.toml", TOML_CYLINDER.replace("[vessel]", nested(5000, kind) + "\n\n[vessel]"))
         line = TOML_CYLINDER[:TOML_CYLINDER.index("[vessel]")].count("\n") + 1
         assert both_refuse(web, path) == f"deep.toml: file: expected {DEEP} (got deeper at line {line})", kind
 
 
-def test_toml_not_in_utf8_and_an_entity_bomb_in_a_workbook_are_refused(web, tmp_path):
+def not_utf8_or_entities_refused(web, tmp_path):
     path = tmp_path / "latin1.toml"
     path.write_bytes(TOML_CYLINDER.replace("Test One", "Tést Øne").encode("latin-1"))
     assert both_refuse(web, path) == "latin1.toml: file: expected UTF-8 text (got undecodable bytes)"
@@ -180,7 +182,7 @@ def test_toml_not_in_utf8_and_an_entity_bomb_in_a_workbook_are_refused(web, tmp_
     assert both_refuse(web, evil) == "evil.xlsx: file: expected a workbook without XML entity declarations (got EntitiesForbidden)"
 
 
-def test_the_form_refuses_another_suffix_an_empty_file_no_file_or_two(web, tmp_path):
+def test_the_form_refuses_another_suffix_an_empty_file_no_file_two_or_a_bad_box(web, tmp_path):
     txt = toml(tmp_path, "vessel.txt")
     said = refused_unchanged(web, web.engine, lambda: load(web, txt))
     assert said == "vessel.txt: file: expected a file ending in .toml or .xlsx (got '.txt')"
@@ -195,19 +197,17 @@ def test_the_form_refuses_another_suffix_an_empty_file_no_file_or_two(web, tmp_p
         "/particulars", data={"csrf": web.csrf("/particulars")},
         files=[("particulars", ("a.toml", good)), ("particulars", ("b.toml", good.replace(b"TEST-ONE", b"TEST-TWO")))]))
     assert said == "particulars file: expected one .toml or .xlsx file (got 2 files)"
+    said = refused_unchanged(web, web.engine, lambda: load(web, toml(tmp_path), register="maybe"))
+    assert said == "register the parts: expected one of '', 'yes' (got 'maybe')"
 
 
-def test_without_a_session_nothing_is_shown_or_done(web, tmp_path):
+def test_without_a_session_or_its_csrf_token_nothing_is_shown_or_done(web, tmp_path):
     before = dump(web.engine)
     stranger = client(web.app)
     for r in (stranger.get("/particulars"), stranger.get("/particulars/template.xlsx"),
               stranger.post("/particulars", files={"particulars": ("v.toml", TOML_CYLINDER.encode())})):
         assert r.status_code == 401 and "Particulars</h1>" not in r.text
     assert dump(web.engine) == before
-
-
-def test_a_post_without_its_csrf_token_is_refused(web, tmp_path):
-    before = dump(web.engine)
     for token in (None, "", "forged", web.csrf("/particulars") + "x"):
         data = {} if token is None else {"csrf": token}
         r = web.browser.post("/particulars", data=data, files={"particulars": ("v.toml", TOML_CYLINDER.encode())})
@@ -225,9 +225,3 @@ def test_an_upload_over_the_limit_is_refused_with_413(web, tmp_path):
     r = browser.post("/particulars", data={"csrf": csrf}, files={"particulars": ("big.toml", big)})
     assert r.status_code == 413 and refusal_of(r) == "The upload is larger than the limit of 1 MB."
     assert dump(web.engine) == before
-
-
-@pytest.mark.parametrize("field", ["register"])
-def test_a_checkbox_value_not_offered_is_refused(web, tmp_path, field):
-    said = refused_unchanged(web, web.engine, lambda: load(web, toml(tmp_path), **{field: "maybe"}))
-    assert said == "register the parts: expected one of '', 'yes' (got 'maybe')"

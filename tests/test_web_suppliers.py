@@ -298,7 +298,7 @@ def zip_bomb(tmp_path_factory):
     return path
 
 
-def test_a_zip_bomb_is_refused_from_the_archives_directory(web, zip_bomb):
+def zip_bomb_refused(web, zip_bomb):
     assert zip_bomb.stat().st_size < 2 * 1024 * 1024  # it fits the upload limit: kit's reader must refuse it
     said = catalogue_refused(web, zip_bomb)
     assert said == "bomb.xlsx: file: expected a workbook that unpacks to at most 512 MiB (got 600 MiB)"
@@ -319,22 +319,22 @@ def huge_catalogue(path: Path, rows: int) -> Path:
     return path
 
 
-@pytest.mark.parametrize("suffix", [".csv", ".xlsx"])
-def test_a_sheet_past_the_row_limit_is_refused(web, tmp_path, monkeypatch, suffix):
+def past_the_row_limit_refused(web, tmp_path, monkeypatch):
     monkeypatch.setattr(kit.files.sheets, "MAX_ROWS", 500)
-    path = huge_catalogue(tmp_path / f"huge{suffix}", 2_000)
-    said = catalogue_refused(web, path)
-    assert "rows: expected at most 500 data rows" in said
+    for suffix in (".csv", ".xlsx"):
+        path = huge_catalogue(tmp_path / f"huge{suffix}", 2_000)
+        said = catalogue_refused(web, path)
+        assert "rows: expected at most 500 data rows" in said
 
 
-def test_a_csv_not_in_utf8_is_refused(web, tmp_path):
+def not_utf8_refused(web, tmp_path):
     path = tmp_path / "latin1.csv"
     path.write_bytes("supplier_ref,part_key,description,price,currency\nNMS-1,oil:hees 46,Öl für Ruder,9,EUR\n".encode("latin-1"))
     said = catalogue_refused(web, path)
     assert said.startswith("latin1.csv") and "UTF-8" in said
 
 
-def test_a_file_that_is_no_workbook_is_refused(web, tmp_path):
+def no_workbook_refused(web, tmp_path):
     path = tmp_path / "fake.xlsx"
     path.write_bytes(b"PK\x03\x04 this is no zip at all")
     assert catalogue_refused(web, path) == ("fake.xlsx: file: expected an .xlsx workbook (Office Open XML spreadsheet) "
@@ -342,9 +342,17 @@ def test_a_file_that_is_no_workbook_is_refused(web, tmp_path):
     both_refuse(web, path, "/suppliers/reply", "reply", ["enquiry", "read", path])
 
 
+def test_a_zip_bomb_a_sheet_past_the_row_limit_bad_encoding_and_a_fake_workbook_are_refused(web, tmp_path, zip_bomb, monkeypatch):
+    """One fleet database for them all (the demo fleet takes seconds to fill)."""
+    zip_bomb_refused(web, zip_bomb)
+    not_utf8_refused(web, tmp_path)
+    no_workbook_refused(web, tmp_path)
+    past_the_row_limit_refused(web, tmp_path, monkeypatch)
+
+
 # --- what the form itself refuses ---------------------------------------------------------------
 
-def test_a_suffix_the_reader_does_not_take_is_refused_as_by_the_command(web, tmp_path):
+def suffix_refused(web, tmp_path):
     path = tmp_path / "catalogue.txt"
     path.write_text("supplier_ref,part_key\n", encoding="utf-8")
     assert catalogue_refused(web, path) == "catalogue.txt: file: expected a file ending in .xlsx or .csv (got '.txt')"
@@ -354,9 +362,7 @@ def test_a_suffix_the_reader_does_not_take_is_refused_as_by_the_command(web, tmp
     assert said == "reply.csv: file: expected a file ending in .xlsx (got '.csv')"
 
 
-@pytest.mark.parametrize(("action", "field", "fields"), [("/suppliers/catalogue", "catalogue", {"supplier": SEALS}),
-                                                         ("/suppliers/reply", "reply", {})], ids=["catalogue", "reply"])
-def test_an_empty_file_no_file_or_two_files_are_refused(web, tmp_path, action, field, fields):
+def empty_none_or_two_refused(web, tmp_path, action, field, fields):
     empty = tmp_path / "empty.xlsx"
     empty.write_bytes(b"")
     said = refused_unchanged(web, web.engine, lambda: post_file(web, action, "/suppliers", field, empty, **fields))
@@ -372,7 +378,7 @@ def test_an_empty_file_no_file_or_two_files_are_refused(web, tmp_path, action, f
     assert said == f"{what}: expected one {kinds} file (got 2 files)"
 
 
-def test_a_decimal_mark_not_offered_or_a_file_for_the_name_is_refused(web, tmp_path):
+def bad_fields_refused(web, tmp_path):
     path = mixed_catalogue(web, tmp_path / "c.csv")
     said = refused_unchanged(web, web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
                                                                 supplier=SEALS, decimal="dot"))
@@ -383,9 +389,16 @@ def test_a_decimal_mark_not_offered_or_a_file_for_the_name_is_refused(web, tmp_p
     assert said == "supplier name: expected text (got a file)"
 
 
+def test_the_form_refuses_another_suffix_an_empty_file_no_file_two_files_and_bad_fields(web, tmp_path):
+    suffix_refused(web, tmp_path)
+    empty_none_or_two_refused(web, tmp_path, "/suppliers/catalogue", "catalogue", {"supplier": SEALS})
+    empty_none_or_two_refused(web, tmp_path, "/suppliers/reply", "reply", {})
+    bad_fields_refused(web, tmp_path)
+
+
 # --- the guard in front -------------------------------------------------------------------------
 
-def test_without_a_session_nothing_is_shown_or_done(web, tmp_path):
+def test_without_a_session_or_its_csrf_token_nothing_is_shown_or_done(web, tmp_path):
     before = dump(web.engine)
     stranger = client(web.app)
     content = mixed_catalogue(web, tmp_path / "c.csv").read_bytes()
@@ -394,11 +407,7 @@ def test_without_a_session_nothing_is_shown_or_done(web, tmp_path):
               stranger.post("/suppliers/reply", files={"reply": ("r.xlsx", content)})):
         assert r.status_code == 401 and "Suppliers</h1>" not in r.text
     assert dump(web.engine) == before
-
-
-def test_a_post_without_its_csrf_token_is_refused(web, tmp_path):
     path = mixed_catalogue(web, tmp_path / "c.csv")
-    before = dump(web.engine)
     for action, field in (("/suppliers/catalogue", "catalogue"), ("/suppliers/reply", "reply")):
         for token in (None, "", "forged", web.csrf("/suppliers") + "x"):
             data = {"supplier": SEALS} | ({} if token is None else {"csrf": token})
