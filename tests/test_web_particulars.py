@@ -10,19 +10,17 @@ The command line is the reference: what ``kit load`` prints and stores for the s
 
 from __future__ import annotations
 
-import html
 import re
-import zipfile
 from pathlib import Path
 
 import openpyxl
 from tests.db_support import TOML_CYLINDER, db_url, dump, engine  # noqa: F401  (fixtures)
-from tests.upload_support import cli_line, post_file, refusal_of, refused_unchanged
-from tests.web_support import PORT, TOKEN, client, logged_in, web  # noqa: F401  (fixture)
+from tests.upload_support import cli_line, followed_to, notice, post_file, refusal_of, refused_unchanged
+from tests.web_support import CSRF_IN_FORM, PORT, TOKEN, client, logged_in, web  # noqa: F401  (fixture)
 
 from test_hostile_inputs import DEEP, nested
 from test_hostile_particulars import CASES, _book_cases
-from test_hostile_sheets import BOMB
+from test_hostile_sheets import BOMB, doctored
 
 
 def toml(tmp_path: Path, name: str = "new.toml", text: str = TOML_CYLINDER) -> Path:
@@ -36,17 +34,7 @@ def load(web, path: Path, **fields):
 
 
 def followed(web, response):
-    assert response.status_code == 303, (response.status_code, response.text[:400])
-    assert response.headers["location"].startswith("/particulars?done=")
-    page = web.browser.get(response.headers["location"])
-    assert page.status_code == 200
-    return page
-
-
-def notice(page) -> str:
-    found = re.search(r'<section class="notice".*?</section>', page.text, re.S)
-    assert found, page.text[:400]
-    return html.unescape(re.sub(r"\s+", " ", re.sub(r"<[^>]+>", " ", found.group())))
+    return followed_to(web, response, "/particulars")
 
 
 def test_the_page_has_a_labelled_upload_form(web):
@@ -167,18 +155,8 @@ def not_utf8_or_entities_refused(web, tmp_path):
     path = tmp_path / "latin1.toml"
     path.write_bytes(TOML_CYLINDER.replace("Test One", "Tést Øne").encode("latin-1"))
     assert both_refuse(web, path) == "latin1.toml: file: expected UTF-8 text (got undecodable bytes)"
-    from kit.files.particulars_sheet import write_particulars_template
 
-    good = tmp_path / "good.xlsx"
-    write_particulars_template(good, toml(tmp_path))
-    evil = tmp_path / "evil.xlsx"
-    with zipfile.ZipFile(good) as src, zipfile.ZipFile(evil, "w") as dst:
-        for info in src.infolist():
-            data = src.read(info.filename)
-            if info.filename == "xl/workbook.xml":
-                body = data.decode()
-                data = (BOMB + (body[body.index("?>") + 2:] if body.startswith("<?xml") else body)).encode()
-            dst.writestr(info, data)
+    evil = doctored(tmp_path, "xl/workbook.xml", BOMB)  # a stock workbook: refused before any sheet is looked for
     assert both_refuse(web, evil) == "evil.xlsx: file: expected a workbook without XML entity declarations (got EntitiesForbidden)"
 
 
@@ -219,7 +197,7 @@ def test_an_upload_over_the_limit_is_refused_with_413(web, tmp_path):
     from kit.web.app import create_app
 
     browser = logged_in(create_app(web.engine, token=TOKEN, port=PORT, upload_limit=1024 * 1024))
-    csrf = re.search(r'name="csrf" value="([^"]+)"', browser.get("/particulars").text).group(1)
+    csrf = CSRF_IN_FORM.search(browser.get("/particulars").text).group(1)
     before = dump(web.engine)
     big = (TOML_CYLINDER + "#" * (1100 * 1024) + "\n").encode()
     r = browser.post("/particulars", data={"csrf": csrf}, files={"particulars": ("big.toml", big)})

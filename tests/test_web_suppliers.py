@@ -24,12 +24,12 @@ from sqlalchemy import select
 import kit.files.sheets
 from catalog_schema.core_tables import CATALOGUE_ENTRIES
 from tests.db_support import db_url, dump, engine  # noqa: F401  (fixtures)
-from tests.upload_support import cli_line, post_file, refusal_of, refused_unchanged
-from tests.web_support import PORT, TOKEN, client, logged_in, web  # noqa: F401  (fixture)
+from tests.upload_support import cli_line, followed_to, notice, post_file, refusal_of, refused_unchanged
+from tests.web_support import CSRF_IN_FORM, PORT, TOKEN, client, logged_in, web  # noqa: F401  (fixture)
 
 from benchmarks.hostile_workbooks import CASES, hostile
 from test_enquiry import _enquiry_id, _fill, _rows
-from test_hostile_sheets import BOMB, EXTERNAL, book
+from test_hostile_sheets import BOMB, EXTERNAL, book, doctored
 
 SEALS = "Northgate Marine Seals & Hydraulics (invented)"  # the demo's first supplier (kit.services.demo)
 ISO_4217 = re.compile(r"^[A-Z]{3}$")  # ISO 4217: three capital letters
@@ -56,17 +56,7 @@ def mixed_catalogue(web, path: Path, unmatched: int = 2) -> Path:
 
 
 def followed(web, response):
-    assert response.status_code == 303, (response.status_code, response.text[:400])
-    assert response.headers["location"].startswith("/suppliers?done=")
-    page = web.browser.get(response.headers["location"])
-    assert page.status_code == 200
-    return page
-
-
-def notice(page) -> str:
-    found = re.search(r'<section class="notice".*?</section>', page.text, re.S)
-    assert found, page.text[:400]
-    return html.unescape(re.sub(r"\s+", " ", re.sub(r"<[^>]+>", " ", found.group())))
+    return followed_to(web, response, "/suppliers")
 
 
 # --- what the page shows ------------------------------------------------------------------------
@@ -265,17 +255,9 @@ def test_a_hostile_workbook_is_refused_in_the_commands_line(web, tmp_path):
 
 def test_xml_entity_tricks_are_refused(web, tmp_path):
     """A billion laughs and an external entity (test_hostile_sheets.py) in each XML part kit reads."""
-    good = book(tmp_path / "good.xlsx", {"catalogue": [["supplier_ref", "part_key", "price", "currency"], ["X", "oil:hees 46", 1, "EUR"]]})
     for part in ("xl/worksheets/sheet1.xml", "xl/workbook.xml", "[Content_Types].xml"):
         for prolog in (BOMB, EXTERNAL):
-            path = tmp_path / "evil.xlsx"
-            with zipfile.ZipFile(good) as src, zipfile.ZipFile(path, "w") as dst:
-                for info in src.infolist():
-                    data = src.read(info.filename)
-                    if info.filename == part:
-                        body = data.decode()
-                        data = (prolog + (body[body.index("?>") + 2:] if body.startswith("<?xml") else body)).encode()
-                    dst.writestr(info, data)
+            path = doctored(tmp_path, part, prolog)
             said = catalogue_refused(web, path)
             assert said == "evil.xlsx: file: expected a workbook without XML entity declarations (got EntitiesForbidden)", part
             both_refuse(web, path, "/suppliers/reply", "reply", ["enquiry", "read", path])
@@ -423,7 +405,7 @@ def test_an_upload_over_the_limit_is_refused_with_413(web, tmp_path):
     browser = logged_in(app)
     path = mixed_catalogue(web, tmp_path / "big.csv")
     path.write_text(path.read_text(encoding="utf-8") + "\n" * (1100 * 1024), encoding="utf-8")
-    csrf = re.search(r'name="csrf" value="([^"]+)"', browser.get("/suppliers").text).group(1)
+    csrf = CSRF_IN_FORM.search(browser.get("/suppliers").text).group(1)
     before = dump(web.engine)
     r = browser.post("/suppliers/catalogue", data={"csrf": csrf, "supplier": SEALS}, files={"catalogue": (path.name, path.read_bytes())})
     assert r.status_code == 413 and refusal_of(r) == "The upload is larger than the limit of 1 MB."

@@ -15,7 +15,6 @@ from pathlib import Path
 from click.testing import CliRunner
 
 from tests.db_support import dump
-from tests.web_support import CSRF_IN_FORM
 
 REFUSAL = re.compile(r'<p class="refusal" role="alert">(.*?)</p>', re.S)
 
@@ -60,5 +59,17 @@ def refused_unchanged(web, engine, send) -> str:
     return refusal_of(r)
 
 
-def csrf_of(text: str) -> str:
-    return CSRF_IN_FORM.search(text).group(1)
+def followed_to(web, response, page: str):
+    """The page a successful POST redirected to (303, post/redirect/get), as the browser gets it."""
+    assert response.status_code == 303, (response.status_code, response.text[:400])
+    assert response.headers["location"].startswith(f"{page}?done=")
+    shown = web.browser.get(response.headers["location"])
+    assert shown.status_code == 200
+    return shown
+
+
+def notice(page) -> str:
+    """The text of the page's notice of what was done, as read."""
+    found = re.search(r'<section class="notice".*?</section>', page.text, re.S)
+    assert found, page.text[:400]
+    return html.unescape(re.sub(r"\s+", " ", re.sub(r"<[^>]+>", " ", found.group())))
