@@ -82,13 +82,19 @@ def test_the_page_lists_the_suppliers_with_entries_and_currencies(web):
         assert f'<label for="{input_id}"' in r.text, input_id
 
 
-def test_a_supplier_priced_in_two_currencies_lists_both(web, tmp_path):
+def test_a_supplier_priced_in_two_currencies_lists_both(web, tmp_path, monkeypatch):
     from kit.services.purchasing import list_suppliers
 
-    followed(web, post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", mixed_catalogue(web, tmp_path / "c.csv"),
-                            supplier="Web Test Seals"))
+    monkeypatch.setattr("kit.web.pages.suppliers.SHOW_UNMATCHED", 1)
+    sent = post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", mixed_catalogue(web, tmp_path / "c.csv"),
+                     supplier="Web Test Seals")
+    page = followed(web, sent)
     shown = next(s for s in list_suppliers(web.engine) if s.name == "Web Test Seals")
     assert shown.currencies == ["EUR", "USD"] and (shown.entries, shown.matched) == (7, 5)
+    # one unmatched row listed, the other counted
+    assert "c.csv, line 8" not in page.text and "c.csv, line 7" in page.text and "\u2026 and 1 more." in notice(page)
+    # the notice is this session's only: another browser with a session of its own does not see it
+    assert 'class="notice"' not in logged_in(web.app).get(sent.headers["location"]).text
 
 
 # --- a catalogue import -------------------------------------------------------------------------

@@ -26,15 +26,22 @@ SHOW_UNMATCHED = 1000  # rows listed on the page; the rest counted (kit catalogu
 
 @dataclass(frozen=True)
 class Imported:
+    """What an import reported, as the page shows it (kept for the redirect, so bounded: never
+    the service's report of a 100,000-row file whole)."""
+
     kind: str  # "catalogue" or "reply"
     filename: str  # as uploaded
-    report: object  # the service's CatalogueReport or ReplyReport
+    supplier: str
+    rows: int  # catalogue rows read (a reply: lines quoted)
+    matched: int  # of them, matched to a generic part
+    unmatched_total: int
     unmatched: list[tuple[str, str, str]]  # the first SHOW_UNMATCHED (where, supplier_ref, part key), of the file as uploaded
+    enquiry_id: str | None = None  # a reply: the enquiry it answers
+    skipped: tuple[str, ...] = ()  # a reply: its line references not quoted
 
 
-def _imported(kind: str, upload, path, report) -> Imported:
-    shown = [(as_uploaded(where, path, upload.filename), ref, key) for where, ref, key in report.unmatched[:SHOW_UNMATCHED]]
-    return Imported(kind, safe_name(upload.filename), report, shown)
+def _unmatched(upload, path, report) -> list[tuple[str, str, str]]:
+    return [(as_uploaded(where, path, upload.filename), ref, key) for where, ref, key in report.unmatched[:SHOW_UNMATCHED]]
 
 
 @router.get("/suppliers")
@@ -54,7 +61,9 @@ def import_catalogue(request: Request, form=Depends(posted_form)):
     decimal = choice_field(form, "decimal", "decimal mark", DECIMAL_MARKS)
     upload = one_upload(form, "catalogue", "catalogue file", CATALOGUE_SUFFIXES)
     with reading(upload, request.app.state.upload_limit) as path:
-        done = _imported("catalogue", upload, path, imported(request.app.state.engine, path, supplier, decimal))
+        report = imported(request.app.state.engine, path, supplier, decimal)
+        done = Imported("catalogue", safe_name(upload.filename), report.supplier, report.rows, report.matched,
+                        len(report.unmatched), _unmatched(upload, path, report))
     return redirect_with(request, "/suppliers", done)
 
 
@@ -65,7 +74,9 @@ def read_reply(request: Request, form=Depends(posted_form)):
 
     upload = one_upload(form, "reply", "enquiry reply", REPLY_SUFFIXES)
     with reading(upload, request.app.state.upload_limit) as path:
-        done = _imported("reply", upload, path, read_enquiry_reply(request.app.state.engine, path))
+        report = read_enquiry_reply(request.app.state.engine, path)
+        done = Imported("reply", safe_name(upload.filename), report.supplier, report.quoted, report.quoted - len(report.unmatched),
+                        len(report.unmatched), _unmatched(upload, path, report), report.enquiry_id, tuple(report.skipped))
     return redirect_with(request, "/suppliers", done)
 
 
