@@ -75,6 +75,13 @@ def served(engine, tmp_path):  # noqa: F811
         sock.close()
 
 
+# One Playwright and one browser for the whole session. Each test module imports the fixture, and
+# pytest keeps a session fixture per module that defines it, so a second module would start a
+# second Playwright while the first runs, which Playwright's sync API refuses ("Sync API inside
+# the asyncio loop"): the modules' fixtures share this one, and the last to finish closes it.
+_SHARED: dict = {"users": 0}
+
+
 @pytest.fixture(scope="session")
 def chromium():
     """Debian's chromium under Playwright, shared by the session's tests."""
@@ -83,12 +90,20 @@ def chromium():
         if os.environ.get("KIT_REQUIRE_BROWSER") == "1":
             pytest.fail("KIT_REQUIRE_BROWSER=1 but no chromium was found (apt-get install chromium)")
         pytest.skip("no chromium on this machine (apt-get install chromium; KIT_CHROMIUM=PATH)")
-    from playwright.sync_api import sync_playwright
+    if "browser" not in _SHARED:
+        from playwright.sync_api import sync_playwright
 
-    with sync_playwright() as p:
-        browser = p.chromium.launch(executable_path=path, args=["--no-sandbox", "--disable-dev-shm-usage"])
-        yield browser
-        browser.close()
+        _SHARED["playwright"] = sync_playwright().start()
+        _SHARED["browser"] = _SHARED["playwright"].chromium.launch(executable_path=path,
+                                                                   args=["--no-sandbox", "--disable-dev-shm-usage"])
+    _SHARED["users"] += 1
+    try:
+        yield _SHARED["browser"]
+    finally:
+        _SHARED["users"] -= 1
+        if _SHARED["users"] == 0:
+            _SHARED.pop("browser").close()
+            _SHARED.pop("playwright").stop()
 
 
 @pytest.fixture
