@@ -19,22 +19,28 @@ def read_particulars(path: str | Path) -> list:
     return read(path)
 
 
-def load_particulars(engine: Engine, path: str | Path, actor=None) -> list[str]:
+def load_particulars(engine: Engine, path: str | Path, source: str | None = None, actor=None) -> list[str]:
     """Check every vessel of ``path`` (see :func:`read_particulars`), then save them all in one
-    transaction; return their ids."""
+    transaction; return their ids. Each vessel records the file it came from: ``path``, or
+    ``source`` where a face read a copy (a page's upload, saved in a temporary folder, is recorded
+    by the name it was uploaded under)."""
+    from dataclasses import replace
+
     from catalog_schema.engine import write_transaction
     from kit.services.audit import audit
     from kit.store.fleet_store import save_vessels
     from kit.store.vessel_ids import known_vessel_ids
 
     vessels = read_particulars(path)
+    if source is not None:
+        vessels = [replace(v, source=source) for v in vessels]
 
     def work(conn):
         before = known_vessel_ids(conn, [v.id for v in vessels])
         saved = save_vessels(conn, vessels)
         for vid in saved:
             audit(conn, actor, "load particulars", vid, {"stored": vid in before},
-                  {"stored": True, "file": Path(path).name, "units": len(next(v for v in vessels if v.id == vid).units)})
+                  {"stored": True, "file": source or Path(path).name, "units": len(next(v for v in vessels if v.id == vid).units)})
         return saved
 
     return write_transaction(engine, work)

@@ -157,10 +157,12 @@ class SupplierListed:
     matched: int  # of them, matched to a generic part
     preferred: bool
     parts: list[tuple[str, str | None]] = field(default_factory=list)  # (part key, note) it is preferred for
+    currencies: list[str] = field(default_factory=list)  # ISO 4217 codes its entries are priced in, sorted
 
 
 def list_suppliers(conn: Connection) -> list[SupplierListed]:
-    """Every supplier by name, with its entry counts, preferred flag and the parts it is preferred for."""
+    """Every supplier by name, with its entry counts, preferred flag, the parts it is preferred for and
+    the currencies its entries are priced in."""
     counts = (select(CATALOGUE_ENTRIES.c.supplier_id, func.count().label("entries"),
                      func.count(CATALOGUE_ENTRIES.c.part_id).label("matched"))
               .group_by(CATALOGUE_ENTRIES.c.supplier_id).subquery())
@@ -170,7 +172,12 @@ def list_suppliers(conn: Connection) -> list[SupplierListed]:
     for sid, key, note in conn.execute(select(PART_SUPPLIERS.c.supplier_id, PARTS.c.key, PART_SUPPLIERS.c.note)
                                        .join(PARTS, PARTS.c.id == PART_SUPPLIERS.c.part_id).order_by(PARTS.c.key)):
         parts.setdefault(sid, []).append((key, note))
-    return [SupplierListed(row.name, row.entries or 0, row.matched or 0, bool(row.preferred), parts.get(row.id, []))
+    currencies: dict[int, list[str]] = {}
+    for sid, code in conn.execute(select(CATALOGUE_ENTRIES.c.supplier_id, CATALOGUE_ENTRIES.c.currency).distinct()
+                                  .order_by(CATALOGUE_ENTRIES.c.supplier_id, CATALOGUE_ENTRIES.c.currency)):
+        currencies.setdefault(sid, []).append(code)
+    return [SupplierListed(row.name, row.entries or 0, row.matched or 0, bool(row.preferred), parts.get(row.id, []),
+                           currencies.get(row.id, []))
             for row in conn.execute(query)]
 
 
