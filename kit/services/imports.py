@@ -4,13 +4,12 @@ and checked whole before the transaction opens, then written all or nothing."""
 
 from __future__ import annotations
 
-import gc
-from contextlib import contextmanager
 from pathlib import Path
 
 from sqlalchemy.engine import Engine
 
 from kit.errors import ArgumentError
+from kit.services.bulk_work import without_cycle_collection
 
 
 def supplier_name(supplier: str, path: str | Path) -> str:
@@ -23,21 +22,6 @@ def supplier_name(supplier: str, path: str | Path) -> str:
     return name
 
 
-@contextmanager
-def _without_cycle_collection():
-    """Python's cycle collector paused while a catalogue is read, checked and written: its rows
-    (100,000 of them, each a dict, a tuple and their strings) hold no cycles, yet every few hundred
-    new objects the collector would walk them again, a fifth of a large import's time. Restored
-    as it was, errors or not; cycles made meanwhile are collected after."""
-    was = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if was:
-            gc.enable()
-
-
 def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: str | None = None):
     """Replace ``supplier``'s catalogue by the rows of ``path``: a
     :class:`kit.store.catalogue_import.CatalogueReport` listing what matched no generic part.
@@ -46,7 +30,7 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
     from kit.files.catalogue_sheet import read_catalogue
     from kit.store.catalogue_import import write_catalogue
 
-    with _without_cycle_collection():
+    with without_cycle_collection():  # 100,000 rows, no cycles (see kit.services.bulk_work)
         catalogue = read_catalogue(path, supplier_name(supplier, path), decimal)
         return write_transaction(engine, lambda conn: write_catalogue(conn, catalogue))
 
