@@ -73,7 +73,7 @@ class KeyReader:
         if shape is None:
             raise self.table.error(row, "part_kind", "one of " + ", ".join(PART_KINDS) + " (or fill part_key)", kind)
         names, prefixes, pair = shape
-        texts = [values.get(name) for name in names]
+        texts = list(map(values.get, names))
         if None in texts:
             name = names[texts.index(None)]
             raise self.table.error(row, name, f"a length with a unit, e.g. \"25 mm\" (every {kind} gives {', '.join(names)})", "an empty cell")

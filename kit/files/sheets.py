@@ -23,7 +23,6 @@ from kit.files.atomic import replace_atomically
 from kit.errors import InputError
 from kit.files.input_files import PARTICULARS_XLSX, SHEET_CSV, SHEET_XLSX, check_input, open_text
 from kit.files.safe_text import csv_field, from_csv_field, is_risky, visible
-from kit.files.xlsx_limits import Limits, measure_workbook
 
 # Data rows read from one sheet, refused at the first row past the limit. A CSV is read line by
 # line; a workbook's rows are counted before it is read (kit.files.xlsx_limits), then read by
@@ -142,6 +141,8 @@ def _open_workbook(path: Path) -> "_Book":
     it differently (see :class:`_CalamineBook`)."""
     from defusedxml import DefusedXmlException
     from openpyxl.xml import DEFUSEDXML
+
+    from kit.files.xlsx_limits import Limits, measure_workbook
 
     source = str(path)
     if not DEFUSEDXML:

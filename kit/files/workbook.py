@@ -96,6 +96,12 @@ class _Sheet:
             self.ws.column_dimensions[get_column_letter(i)].width = width
         names = [name for name, _, _ in self.columns]
         self.wrapped = {names.index(n): width for n, width in ((n, w) for n, w, _ in self.columns) if n in set(wrapped)}
+        # per wrapped column, the longest text that fits on one line whatever its letters
+        self._one_line = {i: width * WRAP_CHARS / WIDE_CAPITALS - 1 for i, width in self.wrapped.items()}
+        # (column, text) -> the text as written and its lines: a large order repeats its designations,
+        # parts and standards vessel by vessel, and wrapping one text costs a hundred plain cells
+        self._lines: dict[tuple[int, str], tuple[str, int]] = {}
+        self._plain: set[str] = set()  # text seen to hold no control character and start with no formula character
         self._wrap_cells = {i: WriteOnlyCell(self.ws) for i in self.wrapped}
         for cell in self._wrap_cells.values():
             cell.alignment = WRAP_ROW
@@ -151,12 +157,15 @@ class _Sheet:
                 v = row[i] if i < len(row) else None
                 if v is not None and (not isinstance(v, str) or isinstance(v, Formula)):
                     row[i] = self._styled(i, "fmt", v)
+            plain = self._plain
             for i, v in enumerate(row):
-                if isinstance(v, str) and not isinstance(v, Formula):
+                if isinstance(v, str) and v not in plain and not isinstance(v, Formula):
                     if CONTROL.search(v):  # stored by another program: openpyxl would refuse the cell
                         row[i] = v = visible(v)
                     if v.startswith(TRIGGERS):
                         row[i] = self._styled(i, "text", v)
+                    else:
+                        plain.add(v)
         self.ws.append(row)
         self.rows += 1
         return self.rows
@@ -168,12 +177,12 @@ class _Sheet:
         lines = 1
         for i, width in self.wrapped.items():
             v = row[i] if i < len(row) else None
-            if not isinstance(v, str) or isinstance(v, Formula) or len(v) <= width * WRAP_CHARS / WIDE_CAPITALS - 1:
+            if not isinstance(v, str) or isinstance(v, Formula) or len(v) <= self._one_line[i]:
                 continue
-            v = visible(v)
-            # capitals set up to a third wider than the mixed text WRAP_CHARS is for
-            wide = 1 + (WIDE_CAPITALS - 1) * sum(ch.isupper() for ch in v) / len(v)
-            n = len(textwrap.wrap(v, max(int(width * WRAP_CHARS / wide) - 1, 1)))
+            found = self._lines.get((i, v))
+            if found is None:
+                found = self._lines[(i, v)] = _wrapped_lines(visible(v), width)
+            v, n = found
             if n > 1:
                 lines = max(lines, n)
                 cell = self._wrap_cells[i]
@@ -187,6 +196,15 @@ class _Sheet:
             self.ws.print_area = f"A1:{get_column_letter(self.printed)}{max(self.rows, 1)}"
         if self.rows > 1:
             self.ws.auto_filter.ref = f"A1:{get_column_letter(len(self.columns))}{self.rows}"
+
+
+def _wrapped_lines(text: str, width: int) -> tuple[str, int]:
+    """``text`` and the lines it wraps to in a column ``width`` wide: capitals set up to a third
+    wider than the mixed text :data:`WRAP_CHARS` is for."""
+    wide = 1 + (WIDE_CAPITALS - 1) * sum(map(str.isupper, text)) / len(text)
+    chars = max(int(width * WRAP_CHARS / wide) - 1, 1)
+    # no longer than a line: one line, as textwrap would say (visible() left no tab to expand)
+    return text, 1 if len(text) <= chars else len(textwrap.wrap(text, chars))
 
 
 class Formula(str):

@@ -17,6 +17,7 @@ service and show or write what it returns; they never open a transaction or run 
 ``vessels``    one vessel whole (the vessel page): worked out, its stock and check, a count typed in place
 ``database``   what the fleet database holds
 ``demo``       the whole job on the invented demo fleet
+``bulk_work``  the cycle collector paused while a large import or order is built (not a user's step)
 
 Errors are the library's own (:mod:`kit.errors`) and name no command-line option; a face adds how
 the value was given (e.g. :class:`kit.errors.UnknownVesselError` carries only the vessel's id).

@@ -10,6 +10,7 @@ from sqlalchemy.engine import Engine
 
 from kit.errors import ArgumentError
 from kit.services.audit import Actor, audit, stock_snapshot
+from kit.services.bulk_work import without_cycle_collection
 
 
 def supplier_name(supplier: str, path: str | Path) -> str:
@@ -32,8 +33,6 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
 
     from kit.store.catalogue_import import supplier_entry_count
 
-    catalogue = read_catalogue(path, supplier_name(supplier, path), decimal)
-
     def work(conn):
         before = supplier_entry_count(conn, catalogue.supplier)
         report = write_catalogue(conn, catalogue)
@@ -41,7 +40,9 @@ def import_catalogue(engine: Engine, path: str | Path, supplier: str, decimal: s
               {"entries": report.rows, "matched": report.matched, "file": Path(path).name})
         return report
 
-    return write_transaction(engine, work)
+    with without_cycle_collection():  # 100,000 rows, no cycles (see kit.services.bulk_work)
+        catalogue = read_catalogue(path, supplier_name(supplier, path), decimal)
+        return write_transaction(engine, work)
 
 
 def import_stock(engine: Engine, path: str | Path, vessel_id: str | None, mode: str = "count", decimal: str | None = None,

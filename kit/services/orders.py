@@ -62,7 +62,10 @@ def build_order(engine: Engine | None, vessel_ids: Iterable[str], days: float, p
     catalogue's offers, rates, preferred suppliers and deliveries; or, with ``particulars`` (a .toml
     file, a particulars workbook or a folder of both), those vessels alone (``engine`` unused, may be None), under ``policy_file`` (or kit's default), no stock counted
     and no database. ``to_order_only`` leaves out the lines with nothing to order."""
-    order, scope = _build_order(engine, vessel_ids, days, particulars, policy_file, progress)
+    from kit.services.bulk_work import without_cycle_collection
+
+    with without_cycle_collection():  # every vessel's parts and lines, no cycles (see kit.services.bulk_work)
+        order, scope = _build_order(engine, vessel_ids, days, particulars, policy_file, progress)
     if to_order_only:
         from kit.engine.bom import only_to_order
 

@@ -75,15 +75,11 @@ def write_catalogue(conn: Connection, catalogue: CatalogueFile, whole: bool = Tr
     located(conn, SUPPLIERS, ["name"], [{"name": supplier}], lambda c, one: c.execute(upsert(c, SUPPLIERS, ["name"]), one),
             lambda _: path, {"name": "supplier name"})
     sid = conn.execute(select(SUPPLIERS.c.id).where(SUPPLIERS.c.name == supplier)).scalar_one()
-    known = part_ids(conn)
-    unmatched: list[tuple[int, str, str]] = []
-    rows = []
-    append = rows.append
-    for line, ref, key, *rest in entries:
-        pid = known.get(key)
-        if pid is None:
-            unmatched.append((line, ref, key))
-        append((sid, ref, key, pid, *rest))
+    part_id = part_ids(conn).get
+    # each entry unpacked by name into its row (a comprehension: 100,000 rows, no per-row list)
+    rows = [(sid, ref, key, part_id(key), description, pack_qty, price, currency, lead, content, label)
+            for _, ref, key, description, pack_qty, price, currency, lead, content, label in entries]
+    unmatched = [entry[:3] for entry, row in zip(entries, rows) if row[3] is None]  # (line, supplier_ref, part key)
     report = CatalogueReport(supplier, len(entries), len(rows) - len(unmatched), Unmatched(table.where, unmatched))
     if whole:
         conn.execute(delete(ENTRIES).where(ENTRIES.c.supplier_id == sid))

@@ -23,7 +23,6 @@ from catalog_schema.core_tables import (CATALOGUE_ENTRIES, DELIVERIES, EXCHANGE_
 from catalog_schema.sql import upsert
 from kit.engine.purchasing import DEFAULT_HANDLING_DAYS, Delivery, Rate
 from kit.errors import ArgumentError
-from kit.store.fleet_store import vessel_company
 
 RATES = EXCHANGE_RATES
 
@@ -189,11 +188,19 @@ class DeliveryListed:
     note: str | None
 
 
+def _known_vessel(conn: Connection, vessel_id: str) -> None:
+    """:class:`kit.errors.UnknownVesselError` unless ``vessel_id`` is in the database. The fleet's
+    store is imported here, not with this module, which a catalogue import loads for its suppliers."""
+    from kit.store.fleet_store import vessel_company
+
+    vessel_company(conn, vessel_id)
+
+
 def set_delivery(conn: Connection, vessel_id: str, port: str, due_on: dt.date, note: str | None) -> str | None:
     """Record where and when an order must be on board ``vessel_id`` (:class:`UnknownVesselError`
     for a vessel not in the database); the same vessel and day again replaces the port and note.
     The port it replaced, if any."""
-    vessel_company(conn, vessel_id)  # the vessel must exist
+    _known_vessel(conn, vessel_id)
     before = conn.execute(select(DELIVERIES.c.port).where(DELIVERIES.c.vessel_id == vessel_id,
                                                           DELIVERIES.c.due_on == due_on)).scalar()
     conn.execute(upsert(conn, DELIVERIES, ["vessel_id", "due_on"], update=["port", "note"]),
@@ -203,7 +210,7 @@ def set_delivery(conn: Connection, vessel_id: str, port: str, due_on: dt.date, n
 
 def remove_delivery(conn: Connection, vessel_id: str, due_on: dt.date) -> str | None:
     """Remove ``vessel_id``'s delivery on ``due_on``; its port, or None when there was none."""
-    vessel_company(conn, vessel_id)
+    _known_vessel(conn, vessel_id)
     port = conn.execute(select(DELIVERIES.c.port).where(DELIVERIES.c.vessel_id == vessel_id,
                                                         DELIVERIES.c.due_on == due_on)).scalar()
     if port is not None:
@@ -215,7 +222,7 @@ def list_deliveries(conn: Connection, vessel_id: str | None = None, since: dt.da
     """Deliveries by date then vessel: all, or ``vessel_id``'s; those due on or after ``since`` when given."""
     query = select(DELIVERIES).order_by(DELIVERIES.c.due_on, DELIVERIES.c.vessel_id)
     if vessel_id is not None:
-        vessel_company(conn, vessel_id)
+        _known_vessel(conn, vessel_id)
         query = query.where(DELIVERIES.c.vessel_id == vessel_id)
     if since is not None:
         query = query.where(DELIVERIES.c.due_on >= since)
