@@ -67,7 +67,7 @@ class PartsRegistered:
 
 
 def register_parts(engine: Engine, vessel_ids=(), policy_file: str | None = None,
-                   progress: Progress = no_progress, days: float = 0.0) -> PartsRegistered:
+                   progress: Progress = no_progress, days: float = 0.0, actor=None) -> PartsRegistered:
     """Work out the vessels (all, or ``vessel_ids``) over ``days`` and add the generic part of
     everything they keep in one transaction (:func:`kit.engine.requirements.kept_parts`: the
     oil of a unit that is only topped up too, whatever ``days``)."""
@@ -78,7 +78,15 @@ def register_parts(engine: Engine, vessel_ids=(), policy_file: str | None = None
 
     vessels, policies = read_fleet(engine, vessel_ids, policy_file)
     items = [line for r in assess_all(vessels, days, policies, progress) for line in kept_parts(r)]
-    done = write_transaction(engine, lambda conn: add_parts(conn, items))
+    from kit.services.audit import audit
+
+    def work(conn):
+        added = add_parts(conn, items)
+        audit(conn, actor, "register parts", ", ".join(v.id for v in vessels) if len(vessels) <= 5 else f"{len(vessels)} vessels",
+              None, {"parts": added.parts, "entries matched": added.entries_matched})
+        return added
+
+    done = write_transaction(engine, work)
     return PartsRegistered(len(vessels), done.parts, done.entries_matched)
 
 

@@ -34,7 +34,9 @@ class Notices:
         """The value kept under ``key`` for ``session``, or None (unknown, expired or another's)."""
         with self._lock:
             found = self._by_key.get(key) if key else None
-        return found[1] if found is not None and found[0] is session else None
+        # a session's CSRF token is its own secret: the same session asks, whether its object is
+        # this process's (start token) or made afresh for each request from the database (people)
+        return found[1] if found is not None and session is not None and found[0].csrf == session.csrf else None
 
 
 def notices(request) -> Notices:

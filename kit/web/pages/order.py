@@ -30,6 +30,7 @@ from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import RedirectResponse, Response
 
 from kit.errors import ArgumentError, KitError, UnknownVesselError
+from kit.web.access import actor_of, require
 from kit.web.guard import checked_form
 from kit.web.render import page
 
@@ -138,6 +139,7 @@ def order_page(request: Request,
                written: str | None = Query(None, max_length=64)):
     from kit.services.fleet import find_vessels
 
+    require(request, "view order")
     engine = request.app.state.engine
     asked = Asked(scope == "fleet", _ids(ids, vessel), days, hide, sort)
     found = find_vessels(engine, q, p, PER_PAGE)
@@ -191,6 +193,7 @@ def order_workbook(request: Request,
     """The order workbook, written by the same writer and with the same arguments as ``kit bom --out``."""
     from kit.files.workbook import write_workbook
 
+    require(request, "download order")
     shown = _order_of(request.app.state.engine, Asked(scope == "fleet", _ids(ids, vessel, _CARRIED), days, hide, "line"))
     folder = Path(tempfile.mkdtemp(prefix="kit-order-"))
     try:
@@ -233,6 +236,7 @@ def order_enquiries(request: Request, form=Depends(_checked_form)):
     from kit.files.dates import EXPECTED, iso_date
     from kit.services.enquiries import write_enquiries
 
+    require(request, "write enquiries")
     asked = _asked_in(form)
     reply_text = str(form.get("reply_by", "")).strip()
     reply_by = iso_date(reply_text) if reply_text else None
@@ -244,7 +248,7 @@ def order_enquiries(request: Request, form=Depends(_checked_form)):
     folder = Path(tempfile.mkdtemp(prefix="kit-enquiries-"))
     try:
         with _named_vessel():
-            result = write_enquiries(engine, vessel_ids, days, folder / "enquiries", reply_by, paper=paper)
+            result = write_enquiries(engine, vessel_ids, days, folder / "enquiries", reply_by, paper=paper, actor=actor_of(request))
         packed = io.BytesIO()
         with zipfile.ZipFile(packed, "w", zipfile.ZIP_DEFLATED) as z:
             for _, path in result.written:
@@ -263,6 +267,7 @@ def order_enquiries(request: Request, form=Depends(_checked_form)):
 @router.get("/order/enquiries/{key}")
 def enquiries_zip(request: Request, key: str):
     """The zip of the enquiry workbooks this session wrote (one per supplier, and the open enquiry)."""
+    require(request, "write enquiries")
     found = _download(request, key)
     if found is None:
         raise ArgumentError(SOURCE, "enquiries", "enquiries written in this session since the server started "

@@ -10,6 +10,7 @@ from typing import Literal
 
 from fastapi import APIRouter, Depends, Query, Request
 
+from kit.web.access import actor_of, require
 from kit.web.notices import notice_of, redirect_with
 from kit.web.render import page
 from kit.web.upload_forms import posted_form, choice_field, one_upload, reading
@@ -29,6 +30,7 @@ class Loaded:
 
 @router.get("/particulars")
 def particulars(request: Request, done: str | None = Query(None, max_length=64)):
+    require(request, "view particulars")
     return page("particulars.html", request, title="Particulars", done=notice_of(request, done))
 
 
@@ -38,23 +40,25 @@ def load(request: Request, form=Depends(posted_form)):
     from kit.errors import KitError
     from kit.services.fleet import load_particulars, register_parts
 
+    require(request, "load particulars")
     register = choice_field(form, "register", "register the parts", {"": False, "yes": True})
     upload = one_upload(form, "particulars", "particulars file", SUFFIXES)
     engine = request.app.state.engine
     with reading(upload, request.app.state.upload_limit) as path:
-        ids = load_particulars(engine, path, source=safe_name(upload.filename))
+        ids = load_particulars(engine, path, source=safe_name(upload.filename), actor=actor_of(request))
     loaded = Loaded(safe_name(upload.filename), ids)
     if register:  # as `kit parts register --vessel ID ...` run next: its own transaction
         try:
-            loaded = replace(loaded, registered=register_parts(engine, ids))
+            loaded = replace(loaded, registered=register_parts(engine, ids, actor=actor_of(request)))
         except KitError as exc:
             loaded = replace(loaded, not_registered=str(exc))
     return redirect_with(request, "/particulars", loaded)
 
 
 @router.get("/particulars/template.xlsx")
-def template(paper: Literal["a4", "letter"] = "a4"):
+def template(request: Request, paper: Literal["a4", "letter"] = "a4"):
     """As ``kit template particulars particulars.xlsx``."""
+    require(request, "view particulars")
     from kit.services.templates import write_particulars_template
     from kit.web.sent_files import sent_file
 

@@ -11,6 +11,7 @@ from typing import Literal
 
 from fastapi import APIRouter, Depends, Query, Request
 
+from kit.web.access import actor_of, require
 from kit.web.notices import notice_of, redirect_with
 from kit.web.render import page
 from kit.web.upload_forms import posted_form, choice_field, one_upload, reading, text_field
@@ -48,6 +49,7 @@ def _unmatched(upload, path, report) -> list[tuple[str, str, str]]:
 def suppliers(request: Request, done: str | None = Query(None, max_length=64)):
     from kit.services.purchasing import list_suppliers
 
+    require(request, "view suppliers")
     return page("suppliers.html", request, title="Suppliers", suppliers=list_suppliers(request.app.state.engine),
                 done=notice_of(request, done), show_unmatched=SHOW_UNMATCHED)
 
@@ -57,11 +59,12 @@ def import_catalogue(request: Request, form=Depends(posted_form)):
     """As ``kit catalogue import FILE --supplier NAME [--decimal-mark ...]``."""
     from kit.services.imports import import_catalogue as imported
 
+    require(request, "import catalogue")
     supplier = text_field(form, "supplier", "supplier name")
     decimal = choice_field(form, "decimal", "decimal mark", DECIMAL_MARKS)
     upload = one_upload(form, "catalogue", "catalogue file", CATALOGUE_SUFFIXES)
     with reading(upload, request.app.state.upload_limit) as path:
-        report = imported(request.app.state.engine, path, supplier, decimal)
+        report = imported(request.app.state.engine, path, supplier, decimal, actor=actor_of(request))
         done = Imported("catalogue", safe_name(upload.filename), report.supplier, report.rows, report.matched,
                         len(report.unmatched), _unmatched(upload, path, report))
     return redirect_with(request, "/suppliers", done)
@@ -72,17 +75,19 @@ def read_reply(request: Request, form=Depends(posted_form)):
     """As ``kit enquiry read REPLY``."""
     from kit.services.enquiries import read_enquiry_reply
 
+    require(request, "read reply")
     upload = one_upload(form, "reply", "enquiry reply", REPLY_SUFFIXES)
     with reading(upload, request.app.state.upload_limit) as path:
-        report = read_enquiry_reply(request.app.state.engine, path)
+        report = read_enquiry_reply(request.app.state.engine, path, actor=actor_of(request))
         done = Imported("reply", safe_name(upload.filename), report.supplier, report.quoted, report.quoted - len(report.unmatched),
                         len(report.unmatched), _unmatched(upload, path, report), report.enquiry_id, tuple(report.skipped))
     return redirect_with(request, "/suppliers", done)
 
 
 @router.get("/suppliers/catalogue-template.{suffix}")
-def catalogue_template(suffix: Literal["xlsx", "csv"], paper: Literal["a4", "letter"] = "a4"):
+def catalogue_template(request: Request, suffix: Literal["xlsx", "csv"], paper: Literal["a4", "letter"] = "a4"):
     """As ``kit template catalogue catalogue-template.xlsx``."""
+    require(request, "view suppliers")
     from kit.services.templates import write_catalogue_template
     from kit.web.sent_files import sent_file
 
