@@ -119,7 +119,9 @@ def days_of_cover(engine: Engine, vessel_ids=(), *, particulars: str | None = No
 
     if particulars or policy_file:
         raise ArgumentError("", "days", NO_COVER_IN_FILES)
-    with engine.connect() as conn:
+    from catalog_schema.engine import read_transaction
+
+    with read_transaction(engine) as conn:
         ids = list(dict.fromkeys(resolve_vessel_ids(conn, vessel_ids))) if vessel_ids else None
         found = cover_days_in_force(conn, ids, dt.date.today())
     if not found:

@@ -48,23 +48,35 @@ def count_sheet(engine: Engine, vessel_id: str, days: float):
     location; and its filter positions with the running hours last recorded."""
     import datetime as dt
 
-    from kit.engine.requirements import assess_vessel, kept_parts
-    from kit.errors import InputError
-    from kit.files.stock_sheet import CountLine, CountSheet, FilterLine
+    from catalog_schema.engine import read_transaction
+    from kit.engine.requirements import assess_vessel
     from kit.services.orders import read_fleet
-    from kit.store.stock_import import registered_parts, vessel_stock
 
     today = dt.date.today()
     (vessel,), policies = read_fleet(engine, [vessel_id], None)
-    lines = kept_parts(assess_vessel(vessel, days, policies[vessel.id], today))
+    result = assess_vessel(vessel, days, policies[vessel.id], today)
+    with read_transaction(engine) as conn:
+        return count_sheet_of(conn, result, today)
+
+
+def count_sheet_of(conn, result, today):
+    """:func:`count_sheet` of a vessel already worked out (``result``, a
+    :class:`kit.engine.requirements.VesselResult` over the sheet's days), read in the caller's
+    transaction ``conn``: the vessel page shows it beside the rest of the vessel from one read."""
+    from kit.engine.requirements import kept_parts
+    from kit.errors import InputError
+    from kit.files.stock_sheet import CountLine, CountSheet, FilterLine
+    from kit.store.stock_import import registered_parts, vessel_stock
+
+    vessel, days = result.vessel, result.days
+    lines = kept_parts(result)
     needed: dict[str, float] = {}
     uom: dict[str, str] = {}
     for li in lines:
         needed[li.key] = needed.get(li.key, 0.0) + li.quantity
         uom.setdefault(li.key, li.uom)
-    with engine.connect() as conn:
-        known = registered_parts(conn, list(needed))
-        held = vessel_stock(conn, vessel.id)
+    known = registered_parts(conn, list(needed))
+    held = vessel_stock(conn, vessel.id)
     missing = sorted(set(needed) - set(known))
     if missing:
         raise InputError(f"vessel {vessel.id}", "parts", "every part the vessel keeps registered (kit parts register)",

@@ -36,27 +36,32 @@ def vessel_view(engine: Engine, vessel_id: str, today: dt.date | None = None) ->
     """``vessel_id`` (any letter case) worked out over the days of cover of its spares policy in
     force (0 days when the policy states none), with its count sheet for those days and the number
     of lines short for them. :class:`kit.errors.UnknownVesselError` for an id the database lacks."""
+    from catalog_schema.engine import read_transaction
+    from kit.engine.preflight import lines_short
     from kit.engine.report import vessel_json
     from kit.engine.requirements import assess_vessel
     from kit.errors import InputError
     from kit.files.safe_text import each_text, visible
-    from kit.engine.preflight import shortfall_rows
-    from kit.services.orders import check_voyage, read_fleet
-    from kit.services.templates import count_sheet
+    from kit.services.orders import read_fleet
+    from kit.services.templates import count_sheet_of
+    from kit.store.order_sources import stock_on_board
     from kit.store.policy_store import cover_days_in_force
 
     today = today or dt.date.today()
     (vessel,), policies = read_fleet(engine, [vessel_id], None)
-    with engine.connect() as conn:
-        cover = cover_days_in_force(conn, [vessel.id], today).get(vessel.id)
-    days = float(cover or 0)
-    result = assess_vessel(vessel, days, policies[vessel.id], today)
     count, refused = None, None
-    try:
-        count = count_sheet(engine, vessel.id, days)
-    except InputError as exc:  # a part it keeps is not registered yet: the rest of the page still shows
-        refused = str(exc)
-    short = None if cover is None else len(shortfall_rows(check_voyage(engine, vessel.id, days).short))
+    # one read without the write lock: the vessel worked out once for the page, its count sheet
+    # and its lines short (offers choose who sells a line, never whether it is short)
+    with read_transaction(engine) as conn:
+        cover = cover_days_in_force(conn, [vessel.id], today).get(vessel.id)
+        days = float(cover or 0)
+        result = assess_vessel(vessel, days, policies[vessel.id], today)
+        try:
+            count = count_sheet_of(conn, result, today)
+        except InputError as exc:  # a part it keeps is not registered yet: the rest of the page still shows
+            refused = str(exc)
+        on_board = stock_on_board(conn, [vessel.id])
+    short = None if cover is None else lines_short(result, on_board)
     return VesselView(vessel, result, each_text(vessel_json(result), visible), days, cover, count, refused, short)
 
 
