@@ -46,18 +46,20 @@ PAGES = (FLOOR, FLEET, FLEET_7, VESSEL, CHECK, REFUSED)  # the order of the repo
 
 def people_of(sessions: int, ids: list[str], keeps: int) -> list[dict]:
     """``sessions`` people: a fifth buyers, a fifth readers (at least one each), the rest vessel
-    keepers, each keeping ``keeps`` vessels no other keeper keeps (as many as the fleet holds)."""
+    keepers, each keeping ``keeps`` vessels no other keeper keeps (fewer if the fleet is too small)."""
     office = max(1, sessions // 5)
     roles = ["buyer"] * office + ["reader"] * office
     roles += ["vessel_keeper"] * max(0, sessions - len(roles))
+    keepers = roles[:sessions].count("vessel_keeper")
+    if keepers > len(ids):
+        raise SystemExit(f"office_load: {len(ids)} vessels are too few for {keepers} vessel keepers")
+    keeps = max(1, min(keeps, len(ids) // max(1, keepers)))  # a small fleet: fewer each, none shared
     out, kept = [], 0
     for n, role in enumerate(roles[:sessions]):
         vessels = []
         if role == "vessel_keeper":
             vessels = ids[kept:kept + keeps]
             kept += len(vessels)
-            if not vessels:
-                raise SystemExit(f"office_load: {len(ids)} vessels are too few for every keeper to keep {keeps}")
         out.append({"login": f"bench.{role.replace('_', '')}{n:03d}", "name": f"Benchmark person {n}", "role": role,
                     "vessels": vessels, "password": secrets.token_urlsafe(18)})
     return out
@@ -158,6 +160,16 @@ def bench_office(work: Path, fleet: dict[str, Path], pg: str, *, sessions: int, 
     return entries
 
 
+def office_options(parser: argparse.ArgumentParser, prefix: str = "") -> None:
+    """The step's options, alone or (``prefix`` "office-") among run.py's."""
+    step = "step 8: " if prefix else ""
+    parser.add_argument(f"--{prefix}sessions", type=int, default=50, help=f"{step}people signed in at once, one client each")
+    parser.add_argument(f"--{prefix}keeps", type=int, default=20, help=f"{step}vessels each vessel keeper keeps")
+    skip = " (0: skip)" if prefix else ""
+    parser.add_argument(f"--{prefix}seconds", type=float, default=60.0, help=f"{step}seconds of each run of the load{skip}")
+    parser.add_argument(f"--{prefix}runs", type=int, default=1, help=f"{step}runs of the load")
+
+
 def main() -> None:
     from benchmarks.fleet import generate
     from benchmarks.load import write_results
@@ -166,10 +178,7 @@ def main() -> None:
     parser = argparse.ArgumentParser(description="kit serve for an office: people signed in to two servers on one "
                                      "PostgreSQL, each page beside the floor page (not a test).")
     fleet_options(parser)
-    parser.add_argument("--sessions", type=int, default=50, help="people signed in at once, one client each")
-    parser.add_argument("--keeps", type=int, default=20, help="vessels each vessel keeper keeps")
-    parser.add_argument("--seconds", type=float, default=60.0, help="seconds of each run of the load")
-    parser.add_argument("--runs", type=int, default=1, help="runs of the load")
+    office_options(parser)
     parser.add_argument("--out", default=str(ROOT / "benchmarks" / "office-results.json"))
     args = parser.parse_args()
     if not args.pg:
