@@ -115,11 +115,13 @@ def load_once(clients: list[dict], seconds: float, seed: int) -> dict:
     from benchmarks.run import PY, ROOT
 
     order = json.dumps({"clients": clients, "seconds": seconds, "seed": seed})
+    before = os.getloadavg()
     done = subprocess.run([PY, "-m", "benchmarks.load"], input=order, capture_output=True, text=True,
                           cwd=ROOT, env={**os.environ, "PYTHONPATH": str(ROOT)}, check=False)
     if done.returncode != 0:
         raise SystemExit(f"benchmark load: the load process failed ({done.returncode}):\n{done.stderr[-4000:]}")
-    return json.loads(done.stdout)
+    # the machine's 1-minute load average as the run began and ended: how busy it was besides
+    return {**json.loads(done.stdout), "load_average": [round(before[0], 2), round(os.getloadavg()[0], 2)]}
 
 
 # --- the server -----------------------------------------------------------------------------------
@@ -187,7 +189,8 @@ def figures(load: dict, pages: tuple[Page, ...], server: str | None = None) -> d
                           "error_statuses": statuses,
                           "median_ms": round(statistics.median(times) * 1000, 2) if times else None,
                           "p95_ms": None if high is None else round(high * 1000, 2),
-                          "ratio": None if high is None else round(high / floor, 2)}
+                          "ratio": None if high is None else round(high / floor, 2),
+                          "load_average": load.get("load_average")}
     return out
 
 
