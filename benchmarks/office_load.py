@@ -27,13 +27,15 @@ percentile and its ratio to the floor's on the same server(s) under the same loa
 from __future__ import annotations
 
 import argparse
+import os
 import secrets
 import tempfile
 from pathlib import Path
 
 from benchmarks.load import FLOOR, Page, client, entries_of, figures, load_once, print_entries, start_server, stop_server
 
-PG_DB = "kit_benchmark_office"
+# this run's own: two runs on one PostgreSQL server (two helpers' benchmarks) must not drop each other's
+PG_DB = f"kit_benchmark_office_{os.getpid()}"
 SERVERS = ("A", "B")
 
 FLEET, FLEET_7 = Page("fleet", "/", None), Page("fleet, page 7", "/?p=7", None)
