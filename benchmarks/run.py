@@ -21,6 +21,9 @@ Steps (targets from issue 6):
 7. ``kit serve``'s pages under ``--serve-clients`` clients for ``--serve-seconds``, each page's
    95th percentile response time against the floor page's under the same load (vessel page
    <= 5, fleet page <= 10, no errors; issue 15), on both databases (:mod:`benchmarks.serve_load`).
+8. the office server (issue 16; PostgreSQL only, skipped without ``--pg``): ``--office-sessions``
+   people signed in to two ``kit serve`` processes on one database for ``--office-seconds``, each
+   page's median and 95th percentile per server beside the floor page's (:mod:`benchmarks.office_load`).
 
 Each kit run takes turns with a run of its baseline, so a figure and its baseline meet the same
 state of the machine. The databases are prepared (untimed) with kit itself: ``kit db upgrade``,
@@ -363,6 +366,12 @@ def bench(args: argparse.Namespace) -> dict:
 
         results["steps"] += bench_serve(work, big, args.pg, clients=args.serve_clients, seconds=args.serve_seconds,
                                         runs=args.serve_runs)
+    # 8. the office server: people signed in to two servers on one PostgreSQL (issue 16)
+    if args.pg and args.office_seconds > 0:
+        from benchmarks.office_load import bench_office
+
+        results["steps"] += bench_office(work, big, args.pg, sessions=args.office_sessions, seconds=args.office_seconds,
+                                         runs=args.office_runs, keeps=args.office_keeps)
     if not args.keep and not args.work:
         shutil.rmtree(work, ignore_errors=True)
     return results
@@ -376,7 +385,7 @@ def table(results: dict) -> str:
         met = {True: "yes", False: "**no**", None: ""}[s["met"]]
         if "peak_met" in s:
             met += f"; peak {s['kit_peak_mb']:.0f} MB {'yes' if s['peak_met'] else '**no**'}"
-        if "errors" in s:  # step 7: a page's requests and errors, its ratio's spread over the runs
+        if "errors" in s:  # steps 7 and 8: a page's requests and errors, its ratio's spread over the runs
             notes = [met] if met else []
             notes.append(f"{s['requests']} requests, {s['errors']} {'**errors**' if s['errors'] else 'errors'}")
             if s.get("ratio_spread"):
@@ -406,6 +415,8 @@ def fleet_options(parser: argparse.ArgumentParser) -> None:
 
 
 def main() -> None:
+    from benchmarks.office_load import office_options
+
     parser = argparse.ArgumentParser(description="kit's fleet-scale benchmark (not a test; not run in CI).")
     fleet_options(parser)
     parser.add_argument("--small", type=int, default=100)
@@ -414,6 +425,7 @@ def main() -> None:
     parser.add_argument("--serve-clients", type=int, default=10, help="step 7: clients at once")
     parser.add_argument("--serve-seconds", type=float, default=30.0, help="step 7: seconds of each load run (0: skip)")
     parser.add_argument("--serve-runs", type=int, default=3, help="step 7: load runs on each database")
+    office_options(parser, "office-")  # step 8, on PostgreSQL only
     parser.add_argument("--out", default=str(ROOT / "benchmarks" / "results.json"))
     args = parser.parse_args()
     results = bench(args)
