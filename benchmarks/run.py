@@ -54,7 +54,7 @@ PY = sys.executable
 KIT = [PY, "-m", "kit"]
 BASE = [PY, "-m", "benchmarks.baselines"]
 ROOT = Path(__file__).resolve().parent.parent
-PG_DB = "kit_benchmark"
+PG_DB = f"kit_benchmark_{os.getpid()}"  # its own per run: two runs at once never drop each other's
 
 
 @dataclass

@@ -26,12 +26,13 @@ no errors.
 from __future__ import annotations
 
 import argparse
+import os
 import tempfile
 from pathlib import Path
 
 from benchmarks.load import FLOOR, Page, client, entries_of, figures, load_once, print_entries, start_server, stop_server
 
-PG_DB = "kit_benchmark_serve"
+PG_DB = f"kit_benchmark_serve_{os.getpid()}"  # its own per run: two runs at once never drop each other's
 POLICY_DAYS = 90
 
 # The pages measured, each drawn equally often; the floor is the trivial page every ratio is against.
