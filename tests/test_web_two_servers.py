@@ -118,6 +118,10 @@ def test_two_servers_share_sessions_and_changes(office, stop):  # noqa: F811
                    files={"particulars": ("test_one.toml", TOML_CYLINDER.encode())})
     assert r.status_code == 303, r.text[:300]
     assert "TEST-ONE" in ada_b.get("/?q=test-one").text  # seen through B at once
+    # the notice of what A did travels with the browser: B shows it on the page A redirected to
+    ada_b.cookies.set("kit_notice", r.cookies.get("kit_notice"))
+    shown = ada_b.get(r.headers["location"])
+    assert shown.status_code == 200 and "Particulars loaded: test_one.toml" in shown.text and "TEST-ONE" in shown.text
     rolf_a = signed_in(a, "rolf")
     rolf_b = on(b, rolf_a)
     assert rolf_b.get("/").status_code == 200
