@@ -17,7 +17,6 @@ import json
 import re
 import subprocess
 import threading
-import time
 from pathlib import Path
 
 import httpx
@@ -26,7 +25,7 @@ from sqlalchemy import select
 
 from kit.services.people import add_person
 from tests.db_support import TOML_CYLINDER, fresh_url
-from tests.test_web_serve import kit, stop  # noqa: F401  (fixture)
+from tests.test_web_serve import kit, serving_line, stop  # noqa: F401  (fixture)
 from tests.web_support import CSRF_IN_FORM
 
 PASSWORD = "bollard pull 4400 kN"
@@ -73,15 +72,8 @@ def serve(url: str, folder: Path, name: str, stop) -> str:  # noqa: F811
     proc = subprocess.Popen(kit("serve", "--db", url, "--port", "0", "--host", "127.0.0.1"),
                             stdout=subprocess.PIPE, stderr=log, text=True)
     stop(proc)
-    deadline = time.monotonic() + 60
-    while time.monotonic() < deadline:
-        line = proc.stdout.readline()
-        if not line:
-            pytest.fail(f"kit serve ended before serving: {(folder / f'{name}.log').read_text()}")
-        found = SERVING.match(line.strip())
-        if found:
-            return f"http://127.0.0.1:{found.group(1)}"
-    pytest.fail("kit serve did not print its address in time")
+    found, _ = serving_line(proc, SERVING)
+    return f"http://127.0.0.1:{found.group(1)}"
 
 
 def browser(base: str) -> httpx.Client:
