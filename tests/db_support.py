@@ -9,6 +9,7 @@ test fails: the PostgreSQL tests are never skipped silently.
 
 from __future__ import annotations
 
+import contextlib
 import os
 import uuid
 
@@ -37,11 +38,12 @@ def _pg_admin():
     return url, admin
 
 
-@pytest.fixture(params=ENGINES)
-def db_url(request, tmp_path):
-    """A URL to an empty database of the parametrised engine, removed after the test."""
-    if request.param == "sqlite":
-        yield f"sqlite:///{tmp_path / 'fleet.sqlite'}"
+@contextlib.contextmanager
+def fresh_url(kind: str, folder):
+    """A URL to an empty database of engine ``kind`` ("sqlite": a file in ``folder``;
+    "postgresql": a schema of its own), removed on leaving."""
+    if kind == "sqlite":
+        yield f"sqlite:///{folder / 'fleet.sqlite'}"
         return
     base, admin = _pg_admin()
     schema = f"kit_test_{uuid.uuid4().hex[:12]}"
@@ -54,6 +56,13 @@ def db_url(request, tmp_path):
         with admin.connect() as conn:
             conn.execute(text(f'DROP SCHEMA "{schema}" CASCADE'))
         admin.dispose()
+
+
+@pytest.fixture(params=ENGINES)
+def db_url(request, tmp_path):
+    """A URL to an empty database of the parametrised engine, removed after the test."""
+    with fresh_url(request.param, tmp_path) as url:
+        yield url
 
 
 @pytest.fixture

@@ -21,19 +21,25 @@ def kit(*args: str) -> list[str]:
     return [sys.executable, "-m", "kit", *args]
 
 
-def started(proc: subprocess.Popen, timeout: float = 60) -> tuple[int, str, list[str]]:
-    """The port and token of the line ``kit serve`` prints, and the lines before it."""
+def serving_line(proc: subprocess.Popen, pattern: re.Pattern = SERVING, timeout: float = 60) -> tuple[re.Match, list[str]]:
+    """The line ``kit serve`` prints with its address, matched by ``pattern``, and the lines before it."""
     before = []
     deadline = time.monotonic() + timeout
     while time.monotonic() < deadline:
         line = proc.stdout.readline()
         if not line:
-            pytest.fail(f"kit ended before serving: {before} {proc.stderr.read()}")
-        found = SERVING.match(line.strip())
+            pytest.fail(f"kit ended before serving: {before} {proc.stderr.read() if proc.stderr else ''}")
+        found = pattern.match(line.strip())
         if found:
-            return int(found.group(1)), found.group(2), before
+            return found, before
         before.append(line.strip())
     pytest.fail("kit did not print its address in time")
+
+
+def started(proc: subprocess.Popen, timeout: float = 60) -> tuple[int, str, list[str]]:
+    """The port and token of the line ``kit serve`` prints, and the lines before it."""
+    found, before = serving_line(proc, SERVING, timeout)
+    return int(found.group(1)), found.group(2), before
 
 
 def get(port: int, path: str, headers: dict | None = None):

@@ -11,6 +11,6 @@ through :mod:`kit.files` as the commands do), and runs no query and no rule of i
 ``pages``   one module per page: fleet, vessel, order, suppliers, particulars
 ``uploads``       an uploaded file saved for the services to read by path, refusals said of it as uploaded
 ``upload_forms``  a form's upload field checked (one file, a suffix the reader takes, not empty) and read
-``notices``       what a POST did, kept for the page it redirects to (post/redirect/get)
+``notices``       what a POST did, carried by the browser to the page it redirects to (post/redirect/get)
 ``sent_files``    a file written by kit.files into a temporary folder and sent as a download
 """

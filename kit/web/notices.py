@@ -1,64 +1,91 @@
 # SPDX-License-Identifier: MIT
-"""What a successful POST did, kept for the page the browser is sent to next.
+"""What a successful POST did, carried to the page the browser is sent to next.
 
 After a form is sent the browser is redirected (303) to a GET page (post/redirect/get, so a reload
-sends nothing twice). What the action reported, such as an import's unmatched rows, is kept here
-under a random key that the redirect carries (``?done=KEY``); only the session that made it can
-read it back, and only the last :data:`KEPT` results are kept, in this process.
+sends nothing twice). What the action reported, such as an import's unmatched rows, travels with
+the browser, not in the server's memory, so that any of several servers in front of one database
+may answer the GET: a short-lived cookie (HttpOnly, SameSite=Strict, Secure over TLS, a minute)
+holds the report as JSON of plain values under a random key that the redirect's address carries
+(``?done=KEY``); the page shows it only when the two keys match. The cookie is bounded (its
+longest lists are cut, their totals stay counted) and what it holds is shown escaped like any text,
+so a browser that alters it changes only what that browser is shown.
 """
 
 from __future__ import annotations
 
+import base64
+import binascii
+import dataclasses
+import json
 import secrets
-import threading
-from collections import OrderedDict
+from types import SimpleNamespace
 
-KEPT = 256  # results kept for all sessions together; the oldest goes first
-
-
-class Notices:
-    def __init__(self, kept: int = KEPT):
-        self._kept = kept
-        self._by_key: OrderedDict[str, tuple[object, object]] = OrderedDict()
-        self._lock = threading.Lock()  # sync pages run in a thread pool
-
-    def put(self, session, value) -> str:
-        key = secrets.token_urlsafe(16)
-        with self._lock:
-            self._by_key[key] = (session, value)
-            while len(self._by_key) > self._kept:
-                self._by_key.popitem(last=False)
-        return key
-
-    def get(self, session, key: str | None):
-        """The value kept under ``key`` for ``session``, or None (unknown, expired or another's)."""
-        with self._lock:
-            found = self._by_key.get(key) if key else None
-        # a session's CSRF token is its own secret: the same session asks, whether its object is
-        # this process's (start token) or made afresh for each request from the database (people)
-        return found[1] if found is not None and session is not None and found[0].csrf == session.csrf else None
+COOKIE = "kit_notice"
+LIFETIME = 60  # seconds: long enough for the redirect, short enough not to linger
+BOUND = 3000  # characters of the cookie's value (browsers keep at least 4096 bytes a cookie)
 
 
-def notices(request) -> Notices:
-    """The application's notices (made on first use)."""
-    state = request.app.state
-    with _MAKING:
-        if getattr(state, "notices", None) is None:
-            state.notices = Notices()
-    return state.notices
+def _plain(value):
+    return dataclasses.asdict(value) if dataclasses.is_dataclass(value) else value
 
 
-_MAKING = threading.Lock()
+def _cut(value) -> bool:
+    """Halve the longest list in ``value`` (dicts and lists of plain values); whether one was cut."""
+    lists = []
+
+    def walk(v):
+        if isinstance(v, dict):
+            for item in v.values():
+                walk(item)
+        elif isinstance(v, list):
+            lists.append(v)
+            for item in v:
+                walk(item)
+
+    walk(value)
+    longest = max(lists, key=len, default=[])
+    if not longest:
+        return False
+    del longest[len(longest) // 2:]
+    return True
+
+
+def encoded(key: str, value) -> str:
+    """``value`` (a dataclass or plain values) under ``key`` as the cookie carries it, within :data:`BOUND`."""
+    plain = json.loads(json.dumps(_plain(value)))  # tuples as lists, so they can be cut
+    while True:
+        text = base64.urlsafe_b64encode(json.dumps({"key": key, "value": plain}, separators=(",", ":")).encode()).decode()
+        if len(text) <= BOUND or not _cut(plain):
+            return text
+
+
+def decoded(text: str | None, key: str | None):
+    """The value carried under ``key``, as attributes (a template reads ``done.supplier``); None when
+    absent, for another key, or not what kit wrote."""
+    from kit.web.guard import same
+
+    if not text or not key or len(text) > BOUND:
+        return None
+    try:
+        carried = json.loads(base64.urlsafe_b64decode(text.encode()))
+        if not isinstance(carried, dict) or not same(str(carried.get("key")), key):
+            return None
+        return json.loads(json.dumps(carried["value"]), object_hook=lambda d: SimpleNamespace(**d))
+    except (ValueError, TypeError, KeyError, binascii.Error):
+        return None
 
 
 def redirect_with(request, path: str, value):
-    """A 303 to ``path`` carrying the key of ``value``, kept for this request's session."""
+    """A 303 to ``path`` whose browser carries ``value`` for the page it shows next."""
     from fastapi.responses import RedirectResponse
 
-    key = notices(request).put(request.state.session, value)
-    return RedirectResponse(f"{path}?done={key}", status_code=303)
+    key = secrets.token_urlsafe(16)
+    response = RedirectResponse(f"{path}?done={key}", status_code=303)
+    response.set_cookie(COOKIE, encoded(key, value), max_age=LIFETIME, path=path, httponly=True, samesite="strict",
+                        secure=request.app.state.secure_cookies)
+    return response
 
 
 def notice_of(request, key: str | None):
     """What the action whose key the address carries reported, or None."""
-    return notices(request).get(getattr(request.state, "session", None), key)
+    return decoded(request.cookies.get(COOKIE), key)

@@ -17,17 +17,15 @@ import contextlib
 import datetime as dt
 import io
 import re
-import secrets
 import shutil
 import tempfile
 import zipfile
-from collections import OrderedDict
 from dataclasses import dataclass, replace
 from pathlib import Path
 from urllib.parse import urlencode
 
 from fastapi import APIRouter, Depends, Query, Request
-from fastapi.responses import RedirectResponse, Response
+from fastapi.responses import Response
 
 from kit.errors import ArgumentError, KitError, UnknownVesselError
 from kit.web.access import actor_of, require
@@ -38,7 +36,6 @@ router = APIRouter()
 PER_PAGE = 20  # vessels listed to tick at a time
 SOURCE = "order page"  # how a refusal names where the value came from
 PAPERS = (("a4", "A4"), ("letter", "US Letter"))
-KEPT_DOWNLOADS = 8  # enquiry zips kept in memory per server, newest first
 XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
 _TYPED = re.compile(r"[\s,;]+")  # between ids a person types (an id with a space or comma in it is ticked instead)
 _CARRIED = re.compile(r"\n")  # between ids a page's hidden field carries (no stored text holds a control character)
@@ -135,8 +132,7 @@ def order_page(request: Request,
                hide: bool = Query(False),
                sort: str = Query("line", pattern="^(line|order_by)$"),  # line number, or order-by date
                q: str = Query("", max_length=100),
-               p: int = Query(1, ge=1, le=100_000),
-               written: str | None = Query(None, max_length=64)):
+               p: int = Query(1, ge=1, le=100_000)):
     from kit.services.fleet import find_vessels
 
     require(request, "view order")
@@ -147,10 +143,8 @@ def order_page(request: Request,
     chosen = {v.casefold() for v in asked.vessels}
     values = {"asked": asked, "found": found, "listing": [(g, g.id.casefold() in chosen) for g in found.rows],
               "by_date": replace(asked, sort="order_by").query(go="1"), "by_line": replace(asked, sort="line").query(go="1"),
-              "written": written or "",
               "also": [v for v in asked.vessels if v.casefold() not in listed],
-              "shown": None, "refusal": None, "hint": None, "papers": PAPERS, "enquiries": _download(request, written),
-              "expired": written is not None and _download(request, written) is None}
+              "shown": None, "refusal": None, "hint": None, "papers": PAPERS}
     status = 200
     if go and not (asked.fleet or asked.vessels):  # Enter in the search field, nothing chosen yet: a search
         values["hint"] = "Tick the vessels to order for, type their ids, or choose the whole fleet; then show the order."
@@ -205,34 +199,10 @@ def order_workbook(request: Request,
         "content-disposition": f'attachment; filename="kit-order-{dt.date.today().isoformat()}.xlsx"'})
 
 
-@dataclass(frozen=True)
-class Written:
-    """Enquiries written for a session: what the page lists, and the zip of their workbooks."""
-
-    session: str  # the CSRF token of the session that wrote them (only it may download them)
-    enquiries: list  # (reference, supplier or None for the open enquiry, lines, reply by, file name)
-    scope: str
-    left_out: int  # order lines with nothing to order
-    zip: bytes
-
-
-def _kept(request: Request) -> OrderedDict:
-    kept = getattr(request.app.state, "order_enquiries", None)
-    if kept is None:
-        kept = request.app.state.order_enquiries = OrderedDict()
-    return kept
-
-
-def _download(request: Request, key: str | None) -> Written | None:
-    found = _kept(request).get(key) if key else None
-    session = getattr(request.state, "session", None)
-    return found if found is not None and session is not None and found.session == session.csrf else None
-
-
 @router.post("/order/enquiries")
 def order_enquiries(request: Request, form=Depends(_checked_form)):
     """Write the order as supplier enquiries (recorded in the fleet database, as ``kit enquiry
-    write`` does), zip the workbooks and send the browser to the order page that offers the zip."""
+    write`` does) and answer with the zip of their workbooks, one per supplier and the open enquiry."""
     from kit.files.dates import EXPECTED, iso_date
     from kit.services.enquiries import write_enquiries
 
@@ -255,22 +225,5 @@ def order_enquiries(request: Request, form=Depends(_checked_form)):
                 z.write(path, path.name)
     finally:
         shutil.rmtree(folder, ignore_errors=True)
-    listed = [(e.id, e.supplier, len(e.lines), e.reply_by, path.name) for e, path in result.written]
-    key = secrets.token_urlsafe(16)
-    kept = _kept(request)
-    kept[key] = Written(request.state.session.csrf, listed, result.scope, result.nothing_to_order, packed.getvalue())
-    while len(kept) > KEPT_DOWNLOADS:
-        kept.popitem(last=False)
-    return RedirectResponse(f"/order?{asked.query(go='1', written=key)}", status_code=303)
-
-
-@router.get("/order/enquiries/{key}")
-def enquiries_zip(request: Request, key: str):
-    """The zip of the enquiry workbooks this session wrote (one per supplier, and the open enquiry)."""
-    require(request, "write enquiries")
-    found = _download(request, key)
-    if found is None:
-        raise ArgumentError(SOURCE, "enquiries", "enquiries written in this session since the server started "
-                            "(write them again from the order page)")
-    return Response(found.zip, media_type="application/zip", headers={
+    return Response(packed.getvalue(), media_type="application/zip", headers={
         "content-disposition": f'attachment; filename="kit-enquiries-{dt.date.today().isoformat()}.zip"'})

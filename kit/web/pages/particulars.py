@@ -23,7 +23,8 @@ SUFFIXES = (".toml", ".xlsx")  # kit.files.particulars_file reads these (a folde
 @dataclass(frozen=True)
 class Loaded:
     filename: str  # as uploaded
-    ids: list[str]  # the vessels added or updated
+    ids: list[str]  # the vessels added or updated (the first of them, if many)
+    vessels: int  # how many
     registered: object = None  # kit.services.fleet.PartsRegistered, when the parts were registered too
     not_registered: str | None = None  # why registering the parts was refused (the vessels stay loaded)
 
@@ -46,7 +47,7 @@ def load(request: Request, form=Depends(posted_form)):
     engine = request.app.state.engine
     with reading(upload, request.app.state.upload_limit) as path:
         ids = load_particulars(engine, path, source=safe_name(upload.filename), actor=actor_of(request))
-    loaded = Loaded(safe_name(upload.filename), ids)
+    loaded = Loaded(safe_name(upload.filename), ids, len(ids))
     if register:  # as `kit parts register --vessel ID ...` run next: its own transaction
         try:
             loaded = replace(loaded, registered=register_parts(engine, ids, actor=actor_of(request)))

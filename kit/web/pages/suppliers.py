@@ -22,7 +22,7 @@ CATALOGUE_SUFFIXES = (".xlsx", ".csv")  # kit.files.catalogue_sheet reads these
 REPLY_SUFFIXES = (".xlsx",)  # kit.files.enquiry_reply reads a workbook only
 # the form's choice -> the decimal mark the import takes (kit catalogue import --decimal-mark)
 DECIMAL_MARKS = {"": None, "point": "point", "comma": "comma"}
-SHOW_UNMATCHED = 1000  # rows listed on the page; the rest counted (kit catalogue import lists 20)
+SHOW_UNMATCHED = 20  # rows listed on the page, as kit catalogue import lists them; the rest counted
 
 
 @dataclass(frozen=True)
@@ -38,7 +38,8 @@ class Imported:
     unmatched_total: int
     unmatched: list[tuple[str, str, str]]  # the first SHOW_UNMATCHED (where, supplier_ref, part key), of the file as uploaded
     enquiry_id: str | None = None  # a reply: the enquiry it answers
-    skipped: tuple[str, ...] = ()  # a reply: its line references not quoted
+    skipped: tuple[str, ...] = ()  # a reply: its line references not quoted (the first of them, if many)
+    skipped_total: int = 0
 
 
 def _unmatched(upload, path, report) -> list[tuple[str, str, str]]:
@@ -80,7 +81,8 @@ def read_reply(request: Request, form=Depends(posted_form)):
     with reading(upload, request.app.state.upload_limit) as path:
         report = read_enquiry_reply(request.app.state.engine, path, actor=actor_of(request))
         done = Imported("reply", safe_name(upload.filename), report.supplier, report.quoted, report.quoted - len(report.unmatched),
-                        len(report.unmatched), _unmatched(upload, path, report), report.enquiry_id, tuple(report.skipped))
+                        len(report.unmatched), _unmatched(upload, path, report), report.enquiry_id, tuple(report.skipped),
+                        len(report.skipped))
     return redirect_with(request, "/suppliers", done)
 
 
