@@ -170,3 +170,46 @@ def test_with_people_and_tls_it_serves_https_with_secure_cookies(tmp_path, stop)
     r.read()
     assert r.status == 400
     conn.close()
+
+
+def _failed_addresses(db: str) -> list[str]:
+    import sqlite3
+
+    with sqlite3.connect(db) as conn:
+        return [r[0] for r in conn.execute("SELECT address FROM login_failures ORDER BY id")]
+
+
+def test_behind_a_proxy_only_the_trusted_proxy_is_believed(tmp_path, stop):
+    """--behind-proxy --trusted-proxy 127.0.0.1: a request from 127.0.0.1 is taken to come from the
+    client its X-Forwarded-For names (the address sign-in throttling counts) and over https (secure
+    cookies); the same header from any other address is ignored. (203.0.113.0/24 is the
+    documentation range of RFC 5737: a header value here, never a destination.)"""
+    db = _with_person(tmp_path)
+    proc = subprocess.Popen(kit("serve", "--db", db, "--host", "127.0.0.2", "--port", "0", "--hostname", "kit.office.test",
+                                "--behind-proxy", "--trusted-proxy", "127.0.0.1"),
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    stop(proc)
+    found = re.match(r"^kit: serving http://kit\.office\.test:(\d+)/ \(people sign in\)$", proc.stdout.readline().strip())
+    assert found
+    port = int(found.group(1))
+
+    def failed_sign_in(source: str):
+        conn = http.client.HTTPConnection("127.0.0.2", port, timeout=30, source_address=(source, 0))
+        headers = {"Host": f"kit.office.test:{port}", "X-Forwarded-For": "203.0.113.9", "X-Forwarded-Proto": "https"}
+        conn.request("GET", "/sign-in", headers=headers)
+        r = conn.getresponse()
+        body = r.read().decode()
+        form_cookie = r.getheader("set-cookie")
+        check = re.search(r'name="check" value="([^"]+)"', body).group(1)
+        conn.request("POST", "/sign-in", body=f"login=ada&password=not+the+one+at+all&check={check}&next=/",
+                     headers={**headers, "Content-Type": "application/x-www-form-urlencoded",
+                              "Cookie": form_cookie.split(";")[0]})
+        r = conn.getresponse()
+        r.read()
+        conn.close()
+        return form_cookie, r.status
+
+    cookie, status = failed_sign_in("127.0.0.1")
+    assert status == 401 and "Secure" in cookie
+    failed_sign_in("127.0.0.3")  # not the proxy: its forwarded header is not believed
+    assert _failed_addresses(db) == ["203.0.113.9", "127.0.0.3"]

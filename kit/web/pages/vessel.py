@@ -9,25 +9,20 @@ them); counts typed here are checked and written as a count sheet's import is.
 
 from __future__ import annotations
 
-import shutil
-import tempfile
-from pathlib import Path
-
 from fastapi import APIRouter, Depends, Query, Request
-from fastapi.responses import FileResponse, RedirectResponse
-from starlette.background import BackgroundTask
+from fastapi.responses import RedirectResponse
 
 from kit.errors import ArgumentError, UnknownVesselError
 from kit.web.access import actor_of, require
 from kit.web.guard import checked_form
 from kit.web.render import page, refusal_page
+from kit.web.sent_files import sent_file
 
 router = APIRouter()
 # Fields of one count form: a part, its location and its count a row, three a filter position; the
 # guard's own bound (400) would stop a vessel of more than about 130 rows. The body stays bounded
 # by the upload limit.
 COUNT_FORM_FIELDS = 6000
-XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
 
 
 def _unknown(request: Request, exc: UnknownVesselError):
@@ -136,11 +131,6 @@ def check(request: Request, vessel_id: str, days: str | None = Query(None, max_l
                 title=f"Pre-voyage check, {found.vessel.name} ({found.vessel.id})")
 
 
-def _download(path: Path, name: str):
-    return FileResponse(path, media_type=XLSX, filename=name,
-                        background=BackgroundTask(shutil.rmtree, path.parent, ignore_errors=True))
-
-
 def _file_name(vessel_id: str, what: str) -> str:
     from kit.web.uploads import safe_name
 
@@ -156,20 +146,13 @@ def count_sheet(request: Request, vessel_id: str, days: str | None = Query(None,
 
     require(request, "download count sheet", vessel_id)
     engine = request.app.state.engine
-    folder = Path(tempfile.mkdtemp(prefix="kit-download-"))
     try:
         chosen = _days(days)
         if chosen is None:
             chosen = days_of_cover(engine, [vessel_id]).days
-        path = folder / "count-sheet.xlsx"
-        write_stock_template(engine, path, vessel_id, chosen)
+        return sent_file(lambda path: write_stock_template(engine, path, vessel_id, chosen), _file_name(vessel_id, "count-sheet"))
     except UnknownVesselError as exc:
-        shutil.rmtree(folder, ignore_errors=True)
         return _unknown(request, exc)
-    except BaseException:
-        shutil.rmtree(folder, ignore_errors=True)
-        raise
-    return _download(path, _file_name(vessel_id, "count-sheet"))
 
 
 @router.get("/vessel/{vessel_id}/check.xlsx")
@@ -179,15 +162,8 @@ def check_workbook(request: Request, vessel_id: str, days: str | None = Query(No
     from kit.services.vessels import voyage_check
 
     require(request, "download check", vessel_id)
-    folder = Path(tempfile.mkdtemp(prefix="kit-download-"))
     try:
         found = voyage_check(request.app.state.engine, vessel_id, _days(days))
-        path = write_check_workbook(found, folder / "check.xlsx")
     except UnknownVesselError as exc:
-        shutil.rmtree(folder, ignore_errors=True)
         return _unknown(request, exc)
-    except BaseException:
-        shutil.rmtree(folder, ignore_errors=True)
-        raise
-    return _download(path, _file_name(found.vessel.id, "check"))
-
+    return sent_file(lambda path: write_check_workbook(found, path), _file_name(found.vessel.id, "check"))
