@@ -151,11 +151,9 @@ def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 
     from kit.store.order_sources import stock_on_board
 
     today = today or dt.date.today()
-    needle = search.strip().casefold()
     among = None if only is None else set(only)
     with read_transaction(engine) as conn:
-        found = [v.id for v in vessel_labels(conn) if (among is None or v.id in among)
-                 and (not needle or any(needle in (t or "").casefold() for t in (v.id, v.name, v.ship_type)))]
+        found = [v.id for v in _matching(vessel_labels(conn), search) if among is None or v.id in among]
         pages = max(1, -(-len(found) // per_page))
         page = min(max(1, page), pages)
         ids = found[(page - 1) * per_page: page * per_page]
@@ -176,7 +174,7 @@ def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 
 
 
 def _matching(glance: list, search: str) -> list:
-    """The glance rows whose id, name or ship type contains ``search`` (any letter case)."""
+    """The rows (vessels' glance or labels) whose id, name or ship type contains ``search`` (any letter case)."""
     needle = search.strip().casefold()
     return [g for g in glance if not needle or any(needle in (t or "").casefold() for t in (g.id, g.name, g.ship_type))]
 

@@ -40,9 +40,9 @@ LOCK = Lock()
 class SignInRefused(KitError, PermissionError):
     """A sign-in refused: a wrong login or password (never which), or too many failures."""
 
-    def __init__(self, text: str):
+    def __init__(self, text: str, locked: bool = False):
         super().__init__(text)
-        self.text = text
+        self.text, self.locked = text, locked  # locked: too many failures, until the time ``text`` states
 
     def __str__(self) -> str:
         return self.text
@@ -207,7 +207,7 @@ def sign_in(engine: Engine, login: str, password: str, address: str, lock: Lock 
 
     outcome, value = write_transaction(engine, check)
     if outcome != "ok":
-        raise SignInRefused(value)
+        raise SignInRefused(value, locked=outcome == "locked")
     return value
 
 

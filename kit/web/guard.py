@@ -24,8 +24,7 @@ from __future__ import annotations
 
 import hmac
 import secrets
-import time
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from urllib.parse import quote
 
 from starlette.requests import Request
@@ -55,7 +54,6 @@ def same(a: str | None, b: str | None) -> bool:
 @dataclass
 class Session:
     csrf: str
-    started: float = field(default_factory=time.monotonic)
     person: object = None  # kit.store.people.Person when people sign in; None: the one user of this PC
 
 

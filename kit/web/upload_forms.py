@@ -16,10 +16,8 @@ import contextlib
 from pathlib import Path
 from typing import Iterator, Sequence
 
-from fastapi import Request
 
 from kit.errors import ArgumentError, InputError, KitError
-from kit.web.guard import checked_form
 from kit.web.uploads import as_uploaded, safe_name, saved
 
 
@@ -32,12 +30,6 @@ class UploadRefused(KitError, ValueError):
 
     def __str__(self) -> str:
         return self.message
-
-
-async def posted_form(request: Request):
-    """The POST's form once its CSRF token is checked (:func:`kit.web.guard.checked_form`), as a
-    FastAPI dependency: the parameter is typed so that FastAPI hands over the request itself."""
-    return await checked_form(request)
 
 
 def one_upload(form, field: str, what: str, suffixes: Sequence[str]):

@@ -164,12 +164,6 @@ def _asked_in(form) -> Asked:
                  str(form.get("days", "")), form.get("hide") == "1", "line")
 
 
-async def _checked_form(request: Request):
-    """:func:`kit.web.guard.checked_form` with its request typed, so that FastAPI passes the request
-    rather than look for a query parameter of that name."""
-    return await checked_form(request)
-
-
 def _paper(value) -> str:
     if value not in dict(PAPERS):
         raise ArgumentError(SOURCE, "paper", "one of " + ", ".join(dict(PAPERS)), got=repr(value))
@@ -200,7 +194,7 @@ def order_workbook(request: Request,
 
 
 @router.post("/order/enquiries")
-def order_enquiries(request: Request, form=Depends(_checked_form)):
+def order_enquiries(request: Request, form=Depends(checked_form)):
     """Write the order as supplier enquiries (recorded in the fleet database, as ``kit enquiry
     write`` does) and answer with the zip of their workbooks, one per supplier and the open enquiry."""
     from kit.files.dates import EXPECTED, iso_date

@@ -11,9 +11,10 @@ from typing import Literal
 from fastapi import APIRouter, Depends, Query, Request
 
 from kit.web.access import actor_of, require
+from kit.web.guard import checked_form
 from kit.web.notices import notice_of, redirect_with
 from kit.web.render import page
-from kit.web.upload_forms import posted_form, choice_field, one_upload, reading
+from kit.web.upload_forms import choice_field, one_upload, reading
 from kit.web.uploads import safe_name
 
 router = APIRouter()
@@ -36,7 +37,7 @@ def particulars(request: Request, done: str | None = Query(None, max_length=64))
 
 
 @router.post("/particulars")
-def load(request: Request, form=Depends(posted_form)):
+def load(request: Request, form=Depends(checked_form)):
     """As ``kit load FILE``, then (box ticked) ``kit parts register --vessel ID ...`` for its vessels."""
     from kit.errors import KitError
     from kit.services.fleet import load_particulars, register_parts

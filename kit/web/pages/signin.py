@@ -51,7 +51,7 @@ async def sign_in(request: Request):
     try:
         signed = await run_in_threadpool(start, request.app.state.engine, login, password, address)
     except SignInRefused as refused:
-        return _form(request, 429 if "too many" in str(refused) else 401, str(refused), next_path)
+        return _form(request, 429 if refused.locked else 401, str(refused), next_path)
     response = RedirectResponse(next_path, status_code=303)
     response.set_cookie(COOKIE, signed.cookie, httponly=True, samesite="strict", secure=request.app.state.secure_cookies, path="/")
     response.delete_cookie(FORM_COOKIE, path="/sign-in")

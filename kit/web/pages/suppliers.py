@@ -12,9 +12,10 @@ from typing import Literal
 from fastapi import APIRouter, Depends, Query, Request
 
 from kit.web.access import actor_of, require
+from kit.web.guard import checked_form
 from kit.web.notices import notice_of, redirect_with
 from kit.web.render import page
-from kit.web.upload_forms import posted_form, choice_field, one_upload, reading, text_field
+from kit.web.upload_forms import choice_field, one_upload, reading, text_field
 from kit.web.uploads import as_uploaded, safe_name
 
 router = APIRouter()
@@ -56,7 +57,7 @@ def suppliers(request: Request, done: str | None = Query(None, max_length=64)):
 
 
 @router.post("/suppliers/catalogue")
-def import_catalogue(request: Request, form=Depends(posted_form)):
+def import_catalogue(request: Request, form=Depends(checked_form)):
     """As ``kit catalogue import FILE --supplier NAME [--decimal-mark ...]``."""
     from kit.services.imports import import_catalogue as imported
 
@@ -72,7 +73,7 @@ def import_catalogue(request: Request, form=Depends(posted_form)):
 
 
 @router.post("/suppliers/reply")
-def read_reply(request: Request, form=Depends(posted_form)):
+def read_reply(request: Request, form=Depends(checked_form)):
     """As ``kit enquiry read REPLY``."""
     from kit.services.enquiries import read_enquiry_reply
 
