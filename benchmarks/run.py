@@ -213,7 +213,7 @@ def checked_catalogue(db: str, path: Path, supplier: str, out: Path) -> None:
 
     from catalog_schema.core_tables import CATALOGUE_ENTRIES
     from catalog_schema.sql import insert_statement
-    from kit.files.catalogue_sheet import COLUMNS, ENTRY_COLUMNS, SHEET, _entries
+    from kit.files.catalogue_sheet import COLUMNS, ENTRY_COLUMNS, SHEET, check_rows
     from kit.files.sheets import read_table
 
     table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
@@ -221,7 +221,7 @@ def checked_catalogue(db: str, path: Path, supplier: str, out: Path) -> None:
         conn.execute("INSERT OR IGNORE INTO suppliers (name) VALUES (?)", (supplier,))
         sid = conn.execute("SELECT id FROM suppliers WHERE name = ?", (supplier,)).fetchone()[0]
         known = dict(conn.execute("SELECT key, id FROM parts"))
-    rows = [(sid, known.get(key), ref, key, *rest) for _, ref, key, *rest in _entries(table)]
+    rows = [(sid, known.get(key), ref, key, *rest) for _, ref, key, *rest in check_rows(table)]
     out.write_bytes(pickle.dumps(insert_statement(sqlite.dialect(), CATALOGUE_ENTRIES, ENTRY_COLUMNS, rows)))
 
 

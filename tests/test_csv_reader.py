@@ -12,7 +12,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from kit.errors import InputError
-from kit.files.sheets import _csv_cell, _table, read_table
+from kit.files.sheets import csv_cell, _table, read_table
 
 FIELDS = ["", " ", "a", " b ", "RS-1", "'=1+2", "'", "' x", "12.5", "x y", "\t", "\u00a0c\u00a0", '"q"', "two\nlines"]
 HEADERS = [["name", "value"], ["name", "value", ""], ["", ""], ["name", "name"], [" name ", "'value"], ["a"]]
@@ -24,7 +24,7 @@ def _general(path, text: str):
         reader = csv.reader(text.splitlines(keepends=True))
         start = 1
         for cells in reader:
-            yield start, [_csv_cell(c) if c else None for c in cells]
+            yield start, [csv_cell(c) if c else None for c in cells]
             start = reader.line_num + 1
     return _table(str(path), None, lines(), None, (), 5, clean=True)
 

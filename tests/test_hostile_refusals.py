@@ -11,6 +11,8 @@ whichever check missed it, is traced back to the line it came from.
 
 from __future__ import annotations
 
+import dataclasses
+
 import pytest
 from click.testing import CliRunner
 
@@ -31,17 +33,18 @@ def _catalogue(tmp_path, rows: int = 5):
 
 
 def _entries_with(monkeypatch, index: int, field: str, value) -> None:
-    """Make the catalogue's parsing hand on row ``index`` with ``field`` set to ``value``."""
-    real = kit.files.catalogue_sheet._entries
+    """Make the catalogue's reading hand on row ``index`` with ``field`` set to ``value``."""
+    real = kit.files.catalogue_sheet.read_catalogue
 
-    def altered(table, *args, **kwargs):
-        out = real(table, *args, **kwargs)
-        row = list(out[index])
+    def altered(*args, **kwargs):
+        catalogue = real(*args, **kwargs)
+        entries = list(catalogue.entries)
+        row = list(entries[index])
         row[FIELD[field]] = value
-        out[index] = tuple(row)
-        return out
+        entries[index] = tuple(row)
+        return dataclasses.replace(catalogue, entries=entries)
 
-    monkeypatch.setattr(kit.files.catalogue_sheet, "_entries", altered)
+    monkeypatch.setattr(kit.files.catalogue_sheet, "read_catalogue", altered)
 
 
 def _refused(fleet, args) -> str:

@@ -35,10 +35,11 @@ from kit.files.numbers import MAX_CHARS, MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, deci
 from kit.files.packs import read_pack, uom_of_kind
 from kit.files.part_keys import PART_COLUMNS, KeyReader
 from kit.files.safe_text import NO_CONTROL, CONTROL
-from kit.files.sheets import Table, read_table
+from kit.files.sheets import MAX_ROWS, Table, read_table
 
 SHEET = "catalogue"
 COLUMNS = ("supplier_ref", *PART_COLUMNS, "description", "pack", "pack_qty", "price", "currency", "lead_time_days")
+REQUIRED = ("supplier_ref", "currency")
 NOTES = {
     "supplier_ref": "your part number, once per sheet",
     "part_key": "the generic part's key, if you have it (then the part columns may stay empty)",
@@ -79,7 +80,16 @@ def _pack(table: Table, row, key: str, pack_qty: int | None) -> tuple[int, float
     return max(1, round(content)), content, label
 
 
-def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
+def pack_of(table: Table, row, key: str, pack_qty: int | None) -> tuple[int, float | None, str | None]:
+    """(pack_qty, pack_content, pack_label) of a row naming the part ``key``, its ``pack_qty``
+    cell already read (None when empty): pieces with no ``pack`` are counted by ``pack_qty``
+    (1 when empty); any other row's ``pack`` is read by :func:`_pack`."""
+    if row.values.get("pack") is None and key[:3] != "oil":
+        return pack_qty or 1, None, None
+    return _pack(table, row, key, pack_qty)
+
+
+def check_rows(table: Table, mark_option: str | None = None) -> list[Entry]:
     """Every row checked, as (line, supplier_ref, part_key, description, pack_qty, price,
     currency, lead_time_days, pack_content, pack_label); the first bad cell refuses the file. ``mark_option`` is the
     decimal mark the user stated (None: the file's default, see :mod:`kit.files.numbers`).
@@ -126,7 +136,7 @@ def _entries(table: Table, mark_option: str | None = None) -> list[Entry]:
         if not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
                 and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
             pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY)
-        if v.get("pack") is None and (key[:3] != "oil" or uom_of_kind(key.partition(":")[0]) == "pcs"):  # pieces, no pack
+        if v.get("pack") is None and key[:3] != "oil":  # pieces, no pack (pack_of's first case, inline)
             pack_qty, content, label = pack or 1, None, None
         else:
             pack_qty, content, label = _pack(table, row, key, pack)
@@ -148,7 +158,7 @@ class CatalogueFile:
 
     path: str
     supplier: str
-    table: Table
+    table: Table  # for placing a line in a message; read by column, it holds no rows
     entries: list[Entry]  # each row's line, then the values of ENTRY_COLUMNS from supplier_ref on
 
 
@@ -156,5 +166,13 @@ def read_catalogue(path: str | Path, supplier: str, decimal: str | None = None) 
     """``supplier``'s catalogue rows in ``path``, every cell checked. ``decimal`` is the decimal
     mark of the file's numbers ("point" or "comma"; None: by the file's kind, see :mod:`kit.files.numbers`).
     ``supplier`` is checked by the caller (:func:`kit.services.imports.import_catalogue`)."""
-    table = read_table(path, SHEET, known=COLUMNS, required=("supplier_ref", "currency"))
-    return CatalogueFile(str(path), supplier, table, _entries(table, decimal))
+    if Path(path).suffix.lower() == ".csv":  # the common case first, in one pass (kit.files.plain_catalogue)
+        from kit.files.plain_catalogue import plain_entries
+        from kit.files.plain_csv import read_plain_csv
+
+        plain = read_plain_csv(path, known=COLUMNS, required=REQUIRED, max_rows=MAX_ROWS)
+        entries = None if plain is None else plain_entries(plain, decimal)
+        if plain is not None and entries is not None:
+            return CatalogueFile(str(path), supplier, plain.table(), entries)
+    table = read_table(path, SHEET, known=COLUMNS, required=REQUIRED)
+    return CatalogueFile(str(path), supplier, table, check_rows(table, decimal))

@@ -33,6 +33,12 @@ _SHAPES = {kind: (names, tuple(f"{n}=" for n in names),
            for kind, (_, names) in PART_KINDS.items()}
 
 
+def shape_of(kind: object) -> tuple[tuple[str, ...], tuple[str, ...], tuple[int, int] | None] | None:
+    """A part kind's dimension columns, each one's "name=" in the key and the positions of its
+    inner and outer diameter (None for other kinds); None for what is not a kind."""
+    return _SHAPES.get(kind)  # type: ignore[arg-type]
+
+
 class KeyReader:
     """Builds part keys from sheet rows, working each distinct cell text out once.
 
@@ -51,7 +57,8 @@ class KeyReader:
     def _parse_mm(self, text: object) -> float:
         return to_si(text, "length", source="", field="") * 1000.0
 
-    def _length(self, text: object) -> tuple[float, str] | str:
+    def length(self, text: object) -> tuple[float, str] | str:
+        """A length text as (mm, as the key writes it), or what was expected of it."""
         try:
             mm = self._parse_mm(text)
         except InputError as exc:
@@ -83,7 +90,7 @@ class KeyReader:
         for name, prefix, text in zip(names, prefixes, texts):
             cached = cache.get(text)
             if cached is None:
-                cached = cache[text] = self._length(text)
+                cached = cache[text] = self.length(text)
             if cached.__class__ is str:
                 raise self.table.error(row, name, cached, text)
             dims.append(cached[0])

@@ -76,7 +76,7 @@ def _clean(value: Any) -> Any:
     return value
 
 
-def _csv_cell(text: str) -> str | None:
+def csv_cell(text: str) -> str | None:
     """A CSV field as :func:`_clean` leaves a cell, with a formula-guarding quote dropped
     (:func:`kit.files.safe_text.from_csv_field`); one pass, since a catalogue has millions of fields."""
     text = text.strip()
@@ -88,7 +88,7 @@ def _csv_cell(text: str) -> str | None:
 def _table(path: str, sheet: str | None, lines: Iterable[tuple[int, Sequence[Any]]], known: Sequence[str] | None,
            required: Sequence[str], max_rows: int, clean: bool = False) -> Table:
     """The rows below the header of ``lines``; ``clean`` says the cells are already stripped,
-    with empty text as None (CSV fields are, see :func:`_csv_cell`)."""
+    with empty text as None (CSV fields are, see :func:`csv_cell`)."""
     where = path if sheet is None else f"{path}, sheet {sheet}"
     it = iter(lines)
     header: list[str] = []
@@ -360,7 +360,7 @@ def _read_csv(path: Path, known: Sequence[str] | None, required: Sequence[str], 
                 for cells in reader:
                     joined = "".join(cells)
                     if "'" in joined:  # a quote that may guard a formula: the field by field way
-                        values = [_csv_cell(c) if c else None for c in cells]
+                        values = [csv_cell(c) if c else None for c in cells]
                     elif len(cells) == width:
                         if joined.strip():  # (otherwise every cell is blank: no row)
                             yield start, {h: (c.strip() or None) if c else None for h, c in zip(header, cells)}

@@ -1,0 +1,104 @@
+# SPDX-License-Identifier: MIT
+"""A plain CSV read whole, for an import of 100,000 rows to check in one pass over the csv
+module's records, with no per-row dictionary.
+
+Only the plain case is read this way (:func:`read_plain_csv`): the header on the first line,
+naming each column once and only columns the caller knows; below it records of one line each,
+every one as wide as the header; no control character but the line ends (and no quoted field in
+a tab-separated file, where a tab could hide in one); and no field that may start with a
+formula-guarding quote. Any other file, and any file the row-by-row reader would refuse, gives
+None: the caller then reads it with :func:`kit.files.sheets.read_table`, which reads every CSV
+and words every refusal.
+
+In a plain file a field's cell, as that reader makes it (:func:`kit.files.sheets.csv_cell`), is
+the field stripped, empty as None: no field starts with a quote, so there is none to drop. A
+record whose every field is blank is no row to that reader (it drops it and counts on): it is
+kept here, and a caller that takes a blank field in a column every row fills as a reason to read
+row by row never meets one. tests/test_plain_csv.py holds both readers to each other.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import re
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Sequence
+
+from kit.errors import InputError
+from kit.files.input_files import SHEET_CSV, open_text
+from kit.files.sheets import Table, csv_cell, csv_separator
+
+# Control characters the row-by-row checks refuse in any cell (kit.engine.text_checks.CONTROL),
+# less the line ends, which end records here (a field holding one spans lines: not plain).
+_CONTROL = re.compile(r"[\x00-\x09\x0b\x0c\x0e-\x1f\x7f-\x9f\ud800-\udfff]")
+_CONTROL_BUT_TAB = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f\ud800-\udfff]")
+
+
+def _may_guard(text: str, separator: str) -> bool:
+    """True if a quote may start a field of ``text`` (after the start, a line end, the separator or
+    an opening double quote, and any space): such a field may be guarded against formulas, and its
+    cell is not the stripped field. A quote inside a quoted text may count too: that file is
+    simply read row by row."""
+    starts = "\n\r" + separator + '"'
+    at = text.find("'")
+    while at >= 0:
+        before = at - 1
+        while before >= 0 and text[before] not in "\n\r" and text[before].isspace():
+            before -= 1
+        if before < 0 or text[before] in starts:
+            return True
+        at = text.find("'", at + 1)
+    return False
+
+
+@dataclass(frozen=True)
+class PlainCsv:
+    """A plain CSV's header and data records, record ``i`` on line ``i + 2`` of the file."""
+
+    path: str
+    separator: str
+    header: tuple[str, ...]
+    records: list[list[str]]
+
+    def table(self) -> Table:
+        """The file as a :class:`kit.files.sheets.Table` for placing a line in a message; it holds
+        no rows (they are the records)."""
+        return Table(self.path, None, self.header, [], self.separator)
+
+
+def read_plain_csv(path: str | Path, *, known: Sequence[str], required: Sequence[str], max_rows: int) -> PlainCsv | None:
+    """The plain CSV at ``path`` (see the module's docstring), or None: not plain, or refused by
+    the row-by-row reader (which the caller then runs, to word the refusal)."""
+    try:
+        return _read(Path(path), known, required, max_rows)
+    except (InputError, csv.Error, UnicodeDecodeError):
+        return None
+
+
+def _read(path: Path, known: Sequence[str], required: Sequence[str], max_rows: int) -> PlainCsv | None:
+    source = str(path)
+    with open_text(path, SHEET_CSV, encoding="utf-8-sig", newline="") as handle:
+        text = handle.read()  # bounded as it is read (SHEET_CSV)
+    first = text[:text.find("\n") + 1] if "\n" in text else text
+    if not first.strip() or text.count("\n") > max_rows + 1:
+        return None  # blank lines above the header (skipped row by row), or too many lines to be in bounds
+    separator = csv_separator(source, first)
+    if (_CONTROL_BUT_TAB if separator == "\t" and '"' not in text else _CONTROL).search(text):
+        return None
+    if _may_guard(text, separator):
+        return None
+    reader = csv.reader(io.StringIO(text, newline=""), delimiter=separator)
+    records = list(reader)
+    if reader.line_num != len(records) or not records or len(records) - 1 > max_rows:
+        return None  # a record over more than one line (its line would need counting), or too many rows
+    header = tuple(csv_cell(field) for field in records[0])
+    width = len(header)
+    names = set(header)
+    if None in names or len(names) != width or not names <= set(known) or not set(required) <= names:
+        return None
+    body = records[1:]
+    if body and set(map(len, body)) != {width}:
+        return None  # a short, long or empty record
+    return PlainCsv(source, separator, header, body)  # type: ignore[arg-type]  (no None in header)
