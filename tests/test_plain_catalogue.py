@@ -121,3 +121,15 @@ def test_a_refusal_is_worded_by_the_row_by_row_check(tmp_path):
     refusal = _outcome(lambda: read_catalogue(path, "Acme"))
     assert refusal == _outcome(lambda: _row_by_row(path, None))
     assert "line 2" in refusal and "d smaller than D" in refusal
+
+
+def test_a_catalogue_with_few_columns_is_taken_in_one_pass(tmp_path):
+    path = tmp_path / "catalogue.csv"
+    path.write_text("supplier_ref;part_key;price;currency\r\nF-1;filter_element:syn-0003:sg1:offline;12,50;EUR\r\n"
+                    "K-1;spare:valve_seal_kit:x; 3 ;usd\r\n", encoding="utf-8", newline="")
+    plain = read_plain_csv(path, known=COLUMNS, required=REQUIRED, max_rows=MAX_ROWS)
+    assert plain is not None
+    # a semicolon-separated file's numbers have a decimal comma (kit.files.numbers)
+    assert plain_entries(plain, None) == _row_by_row(path, None) == [
+        (2, "F-1", "filter_element:syn-0003:sg1:offline", None, 1, 12.5, "EUR", None, None, None),
+        (3, "K-1", "spare:valve_seal_kit:x", None, 1, 3.0, "USD", None, None, None)]

@@ -55,7 +55,7 @@ def test_where_both_read_a_file_they_agree(tmp_path_factory, blank_lines, header
     columns, by_line = rows
     assert plain.header == columns and plain.separator in ",;\t"
     for i, record in enumerate(plain.records):
-        cells = {name: field.strip() or None for name, field in zip(plain.header, record)}
+        cells = {name: record[plain.position(name)].strip() or None for name in plain.header}
         line = i + 2
         if all(c is None for c in cells.values()):
             assert line not in by_line  # a blank record is no row there
@@ -69,7 +69,9 @@ def test_a_plain_file_is_taken(tmp_path):
     _written(path, 0, ["name", "value"], [["a", " 1 "], ["O'Ring 'x'", ""], ["c", "3"]], ",")
     plain = read_plain_csv(path, known=NAMES, required=("name",), max_rows=5)
     assert plain is not None
-    assert plain.header == ("name", "value") and plain.records == [["a", " 1 "], ["O'Ring 'x'", ""], ["c", "3"]]
+    # each record ends in an empty field standing for the known column the file lacks ("note")
+    assert plain.header == ("name", "value") and plain.records == [["a", " 1 ", ""], ["O'Ring 'x'", "", ""], ["c", "3", ""]]
+    assert [plain.position(name) for name in NAMES] == [0, 1, 2]
 
 
 def test_what_is_not_plain_is_left_to_the_row_by_row_reader(tmp_path):

@@ -12,11 +12,13 @@ file row by row, which words the refusal. tests/test_plain_catalogue.py holds th
 
 from __future__ import annotations
 
+from operator import itemgetter
 from typing import Any, Callable
 
 from kit.errors import InputError
+from kit.files.catalogue_sheet import COLUMNS, pack_of
 from kit.files.numbers import MAX_CHARS, MAX_DAYS, MAX_PACK_QTY, MAX_PRICE, decimal_mark, number, plain_decimal, whole_number
-from kit.files.part_keys import DIMENSIONS, KeyReader, shape_of
+from kit.files.part_keys import KeyReader, shape_of
 from kit.files.plain_csv import PlainCsv
 from kit.files.sheets import Row
 
@@ -34,20 +36,21 @@ def plain_entries(plain: PlainCsv, mark_option: str | None) -> list | None:
         return None
 
 
-class _Cells:
-    """Each distinct field of one column worked out once: ``check(cell, line)`` of its cell (the
-    field stripped, empty as None); a refusal there means the row-by-row check words it."""
+class _Cells(dict):
+    """Each distinct field of one column worked out once, on first sight: ``check(cell)`` of its
+    cell (the field stripped, empty as None). A refusal there stops this pass; the row-by-row
+    check then words it, so the row these checks are shown is a placeholder."""
 
-    def __init__(self, check: Callable[[str | None, int], Any]):
-        self._check, self.found = check, {}
+    def __init__(self, check: Callable[[str | None], Any]):
+        super().__init__()
+        self._check = check
 
-    def miss(self, field: str, line: int) -> Any:
-        value = self.found[field] = self._check(field.strip() or None, line)
+    def __missing__(self, field: str) -> Any:
+        value = self[field] = self._check(field.strip() or None)
         return value
 
 
 def _entries(plain: PlainCsv, mark_option: str | None) -> list:
-    from kit.files.catalogue_sheet import pack_of
     from kit.files.currencies import codes, currency_code
 
     table = plain.table()
@@ -55,109 +58,110 @@ def _entries(plain: PlainCsv, mark_option: str | None) -> list:
     plain_number = plain_decimal(mark.name).fullmatch
     comma = mark.name == "comma"
     records = plain.records
-    width = len(plain.header)
-    where = {name: i for i, name in enumerate(plain.header)}
-    if len(where) < len(_ALL):
-        for record in records:  # an empty field at the end stands for every column the file leaves out
-            record.append("")
-    at = {name: where.get(name, width) for name in _ALL}
+    at = {name: plain.position(name) for name in COLUMNS}
 
-    def row(line: int, column: str, cell: str | None) -> Row:
+    def row(column: str, cell: str | None, line: int = 0) -> Row:
         return Row(line, {column: cell})
 
+    def price_of(cell: str | None) -> float | None:
+        if cell is None:
+            return None
+        if len(cell) <= MAX_CHARS and plain_number(cell) is not None:  # the row-by-row check's own short way
+            value = float(cell.replace(",", ".") if comma else cell)
+            if 0.0 <= value <= MAX_PRICE:
+                return value
+        return number(table, row("price", cell), "price", mark, maximum=MAX_PRICE)
+
     known_codes = codes()
-    currencies = _Cells(lambda cell, line: cell if cell in known_codes else currency_code(table, row(line, "currency", cell), cell))
-    pack_qtys = _Cells(lambda cell, line: whole_number(table, row(line, "pack_qty", cell), "pack_qty", 1, MAX_PACK_QTY))
-    leads = _Cells(lambda cell, line: whole_number(table, row(line, "lead_time_days", cell), "lead_time_days", 0, MAX_DAYS))
     keys = KeyReader(table)
-    given_keys = _Cells(lambda cell, line: keys.key(row(line, "part_key", cell)) if cell is not None else None)
-    specs = _Cells(lambda cell, line: cell.lower() if cell is not None else None)  # as KeyReader.key, of a stripped cell
-    lengths = {name: _Cells(_length_of(keys)) for name in DIMENSIONS}
-    kinds = _Cells(lambda cell, line: _Shape(cell, at, lengths))
+    currencies = _Cells(lambda cell: cell if cell in known_codes else currency_code(table, row("currency", cell), cell))
+    pack_qtys = _Cells(lambda cell: whole_number(table, row("pack_qty", cell), "pack_qty", 1, MAX_PACK_QTY))
+    leads = _Cells(lambda cell: whole_number(table, row("lead_time_days", cell), "lead_time_days", 0, MAX_DAYS))
+    prices = _Cells(price_of)
+    given_keys = _Cells(lambda cell: keys.key(row("part_key", cell)) if cell is not None else None)
+    specs = _Cells(lambda cell: cell.lower() if cell is not None else None)  # as KeyReader.key makes a stripped cell
+    cells = _Cells(lambda cell: cell)  # descriptions and packs: the stripped text, or None
+    kinds = _Cells(lambda cell: _Shape(cell, at))
+    lengths = _Lengths(keys)  # one for every dimension column: a text is read alike in each
+    mm = lengths.mm
 
     i_ref, i_key, i_kind, i_spec = at["supplier_ref"], at["part_key"], at["part_kind"], at["spec"]
     i_desc, i_pack, i_qty, i_price, i_cur, i_lead = (at[n] for n in ("description", "pack", "pack_qty", "price", "currency", "lead_time_days"))
-    cur_found, qty_found, lead_found, given_found, spec_found, kind_found = (
-        c.found for c in (currencies, pack_qtys, leads, given_keys, specs, kinds))
-    seen: set[str] = set()
+    refs: set[str] = set()
+    add_ref = refs.add
     out: list[tuple] = []
     append = out.append
-    line = 1
-    for r in records:
-        line += 1
+    for line, r in enumerate(records, 2):
         ref = r[i_ref].strip()
-        if not ref or ref in seen:
-            raise _NotPlain  # an empty (or blank) row, or a part number again
-        seen.add(ref)
-        field = r[i_cur]
-        currency = cur_found[field] if field in cur_found else currencies.miss(field, line)
-        field = r[i_key]
-        key = given_found[field] if field in given_found else given_keys.miss(field, line)
+        if not ref:
+            raise _NotPlain  # an empty (or blank) row
+        add_ref(ref)
+        key = given_keys[r[i_key]]
         if key is None:
-            field = r[i_kind]
-            shape = kind_found[field] if field in kind_found else kinds.miss(field, line)
-            parts = [shape.kind]
-            for i, prefix, column, found in shape.dimensions:
-                field = r[i]
-                worked = found[field] if field in found else column.miss(field, line)
-                parts.append(prefix + worked[1])
+            shape = kinds[r[i_kind]]
+            key = shape.template.format(*map(lengths.__getitem__, shape.fields(r)))
             pair = shape.pair
-            if pair is not None and pair[1][r[pair[0]]][0] >= pair[3][r[pair[2]]][0]:
+            if pair is not None and mm[r[pair[0]]] >= mm[r[pair[1]]]:
                 raise _NotPlain  # an inner diameter not smaller than the outer
-            field = r[i_spec]
-            spec = spec_found[field] if field in spec_found else specs.miss(field, line)
+            spec = specs[r[i_spec]]
             if spec is not None:
-                parts.append(spec)
-            elif not shape.dimensions:
+                key = f"{key}:{spec}" if shape.fields is not _NO_FIELDS else key + spec
+            elif shape.fields is _NO_FIELDS:
                 raise _NotPlain  # a kind without dimensions names its part by its spec
-            key = ":".join(parts)
-        field = r[i_qty]
-        qty = qty_found[field] if field in qty_found else pack_qtys.miss(field, line)
-        pack = r[i_pack].strip() or None
+        qty = pack_qtys[r[i_qty]]
+        pack = cells[r[i_pack]]
         if pack is None and key[:3] != "oil":
             quantity, content, label = qty or 1, None, None
         else:
-            quantity, content, label = pack_of(table, row(line, "pack", pack), key, qty)
-        field = r[i_lead]
-        lead = lead_found[field] if field in lead_found else leads.miss(field, line)
-        price: float | None = r[i_price].strip() or None
-        if price is not None and not (len(price) <= MAX_CHARS and plain_number(price) is not None  # type: ignore[arg-type]
-                                      and 0.0 <= (price := float(price.replace(",", ".") if comma else price)) <= MAX_PRICE):  # type: ignore[union-attr]
-            price = number(table, row(line, "price", price), "price", mark, maximum=MAX_PRICE)  # type: ignore[arg-type]
-        append((line, ref, key, r[i_desc].strip() or None, quantity, price, currency, lead, content, label))
+            quantity, content, label = pack_of(table, row("pack", pack, line), key, qty)
+        append((line, ref, key, cells[r[i_desc]], quantity, prices[r[i_price]], currencies[r[i_cur]], leads[r[i_lead]], content, label))
+    if len(refs) != len(out):
+        raise _NotPlain  # a part number twice
     return out
 
 
-class _Shape:
-    """What a part kind's key is made of here: its name, each dimension as (its field's position,
-    its "name=" in the key, its column's cells and those worked out), and the two diameters that
-    must be inner and outer as (position, worked out, position, worked out)."""
+def _NO_FIELDS(record: list[str]) -> tuple[str, ...]:
+    """The dimension fields of a kind without dimensions."""
+    return ()
 
-    def __init__(self, kind: str | None, at: dict[str, int], lengths: dict[str, _Cells]):
+
+class _Shape:
+    """What a part kind's key is made of here: a function giving the fields of its dimensions, the
+    key as a template of their numbers as the key writes them ("rod_seal:d={}:D={}:L={}"; for a
+    kind without dimensions "spare:", the spec following), and the positions of the two diameters
+    that must be inner and outer."""
+
+    def __init__(self, kind: str | None, at: dict[str, int]):
         shape = shape_of(kind)
         if shape is None:
             raise _NotPlain  # no part kind: the row-by-row check names the kinds
         names, prefixes, pair = shape
-        self.kind = kind
-        self.dimensions = tuple((at[name], prefix, lengths[name], lengths[name].found) for name, prefix in zip(names, prefixes))
-        self.pair = None
-        if pair is not None:
-            inner, outer = names[pair[0]], names[pair[1]]
-            self.pair = (at[inner], lengths[inner].found, at[outer], lengths[outer].found)
+        positions = tuple(at[name] for name in names)
+        self.fields: Callable[[list[str]], tuple[str, ...]] = _NO_FIELDS
+        if len(names) > 1:
+            self.fields = itemgetter(*positions)
+        elif names:
+            self.fields = lambda r, i=positions[0]: (r[i],)
+        self.template = ":".join([str(kind), *(prefix + "{}" for prefix in prefixes)]) + ("" if names else ":")
+        self.pair = None if pair is None else (positions[pair[0]], positions[pair[1]])
 
 
-def _length_of(keys: KeyReader) -> Callable[[str | None, int], tuple[float, str]]:
-    """A dimension's cell as (mm, as the key writes it), by the key reader's own way."""
-    def worked(cell: str | None, line: int) -> tuple[float, str]:
-        if cell is None:
+class _Lengths(dict):
+    """The dimension columns' distinct fields, each worked out once by the key reader's own way
+    (:meth:`kit.files.part_keys.KeyReader.length`) whatever its column: the mm as the key writes
+    them, and in ``mm`` the mm themselves."""
+
+    def __init__(self, keys: KeyReader):
+        super().__init__()
+        self._keys = keys
+        self.mm: dict[str, float] = {}
+
+    def __missing__(self, field: str) -> str:
+        cell = field.strip()
+        if not cell:
             raise _NotPlain  # an empty dimension
-        found = keys.length(cell)
-        if found.__class__ is str:
+        worked = self._keys.length(cell)
+        if worked.__class__ is str:
             raise _NotPlain  # a length refused
-        return found  # type: ignore[return-value]
-    return worked
-
-
-# Every column a catalogue may have, so a missing one reads as an empty field.
-_ALL = ("supplier_ref", "part_key", "part_kind", *DIMENSIONS, "spec", "description", "pack", "pack_qty", "price", "currency",
-        "lead_time_days")
+        self.mm[field], self[field] = worked  # type: ignore[misc]
+        return worked[1]

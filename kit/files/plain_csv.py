@@ -27,13 +27,16 @@ from pathlib import Path
 from typing import Sequence
 
 from kit.errors import InputError
-from kit.files.input_files import SHEET_CSV, open_text
+from kit.files.input_files import SHEET_CSV, read_bytes
 from kit.files.sheets import Table, csv_cell, csv_separator
 
 # Control characters the row-by-row checks refuse in any cell (kit.engine.text_checks.CONTROL),
-# less the line ends, which end records here (a field holding one spans lines: not plain).
-_CONTROL = re.compile(r"[\x00-\x09\x0b\x0c\x0e-\x1f\x7f-\x9f\ud800-\udfff]")
-_CONTROL_BUT_TAB = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f\ud800-\udfff]")
+# found in the file's UTF-8 bytes (the lone surrogates there cannot be decoded from UTF-8): C0 and
+# DEL as single bytes, less the line ends, which end records here (a field holding one spans
+# lines: not plain), and the tab of a tab-separated file without quoted fields; C1 as C2 80 to C2 9F.
+_C0 = bytes([*range(0x00, 0x0A), 0x0B, 0x0C, *range(0x0E, 0x20), 0x7F])
+_C0_BUT_TAB = _C0.replace(b"\t", b"")
+_C1 = re.compile(rb"\xc2[\x80-\x9f]")
 
 
 def _may_guard(text: str, separator: str) -> bool:
@@ -60,7 +63,12 @@ class PlainCsv:
     path: str
     separator: str
     header: tuple[str, ...]
-    records: list[list[str]]
+    records: list[list[str]]  # each ends in one empty field more when the header lacks a known column
+
+    def position(self, name: str) -> int:
+        """Where a record holds the field of column ``name``: for a known column the file lacks,
+        the empty field after the header's."""
+        return self.header.index(name) if name in self.header else len(self.header)
 
     def table(self) -> Table:
         """The file as a :class:`kit.files.sheets.Table` for placing a line in a message; it holds
@@ -79,15 +87,14 @@ def read_plain_csv(path: str | Path, *, known: Sequence[str], required: Sequence
 
 def _read(path: Path, known: Sequence[str], required: Sequence[str], max_rows: int) -> PlainCsv | None:
     source = str(path)
-    with open_text(path, SHEET_CSV, encoding="utf-8-sig", newline="") as handle:
-        text = handle.read()  # bounded as it is read (SHEET_CSV)
+    data = read_bytes(path, SHEET_CSV)  # at most SHEET_CSV's size, read in one go
+    text = data.decode("utf-8-sig")
     first = text[:text.find("\n") + 1] if "\n" in text else text
     if not first.strip() or text.count("\n") > max_rows + 1:
         return None  # blank lines above the header (skipped row by row), or too many lines to be in bounds
     separator = csv_separator(source, first)
-    if (_CONTROL_BUT_TAB if separator == "\t" and '"' not in text else _CONTROL).search(text):
-        return None
-    if _may_guard(text, separator):
+    c0 = _C0_BUT_TAB if separator == "\t" and b'"' not in data else _C0
+    if len(data.translate(None, c0)) != len(data) or _C1.search(data) or _may_guard(text, separator):
         return None
     reader = csv.reader(io.StringIO(text, newline=""), delimiter=separator)
     records = list(reader)
@@ -101,4 +108,7 @@ def _read(path: Path, known: Sequence[str], required: Sequence[str], max_rows: i
     body = records[1:]
     if body and set(map(len, body)) != {width}:
         return None  # a short, long or empty record
+    if names != set(known):
+        for record in body:
+            record.append("")
     return PlainCsv(source, separator, header, body)  # type: ignore[arg-type]  (no None in header)
