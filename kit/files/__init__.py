@@ -7,6 +7,8 @@
 ``particulars_sheet``  the particulars sheet and its templates
 ``catalogue_sheet``, ``packs``, ``stock_sheet``, ``part_keys``  a supplier's catalogue and a vessel's stock read
     and checked (the store writes them); the columns that name a generic part
+``plain_csv``, ``plain_catalogue``  the common case of a CSV catalogue read whole and checked in one
+    pass; anything else left to ``catalogue_sheet``, which words every refusal
 ``rates_sheet``  a small CSV of exchange rates read and checked
 ``numbers``, ``currencies``, ``dates``  imported numbers, ISO 4217 codes, ISO 8601 dates
 ``safe_text``  formula text and control characters: checked on the way in (with
