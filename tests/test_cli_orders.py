@@ -78,6 +78,25 @@ def test_bom_from_particulars_without_database(tmp_path):
     assert all(float(r["to_order"]) == float(r["required"]) for r in rows)
 
 
+def test_bom_from_particulars_finds_a_vessel_in_any_letter_case(tmp_path):
+    out = tmp_path / "one.xlsx"
+    result = CliRunner().invoke(main, ["bom", "--particulars", str(ROOT / "demo_fleet"), "--vessel", "corvina-bay", "--days", "90",
+                                       "--out", str(out), "--json", str(tmp_path / "one.json")])
+    assert result.exit_code == 0, result.output
+    lines = json.loads((tmp_path / "one.json").read_text())["lines"]
+    assert lines and {v for line in lines for v in line["vessels"]} == {"CORVINA-BAY"}
+
+
+def test_bom_from_particulars_refuses_an_id_it_does_not_hold(tmp_path):
+    out = tmp_path / "none.xlsx"
+    result = CliRunner().invoke(main, ["bom", "--particulars", str(ROOT / "demo_fleet"), "--vessel", "CORVINA-BAY", "--vessel", "NO-SUCH",
+                                       "--days", "90", "--out", str(out)])
+    assert result.exit_code == 2 and len(result.output.splitlines()) == 1, result.output
+    assert result.output.startswith(f"kit: error: {ROOT / 'demo_fleet'}: --vessel: expected the id of a vessel in these particulars")
+    assert "CORVINA-BAY" in result.output and result.output.rstrip().endswith("(got 'NO-SUCH')")
+    assert not out.exists()
+
+
 def test_bom_unknown_vessel_is_exit_2(demo, tmp_path):
     out, _ = demo
     result = CliRunner().invoke(main, ["bom", "--db", str(out / "fleet.sqlite"), "--vessel", "NO-SUCH", "--out", str(tmp_path / "x.xlsx")])

@@ -33,7 +33,7 @@ OPTIONS = {
     "serve": {"port": "--port"},
     "people add": {"login": "LOGIN", "name": "--name", "role": "--role"},
     "people change": {"login": "LOGIN", "name": "--name", "role": "--role"},
-    "bom": {"days": "--days"},
+    "bom": {"days": "--days", "vessel id": "--vessel"},
     "check": {"days": "--days"},
     "enquiry write": {"days": "--days", "reply-by date": "--reply-by"},
     "template stock": {"days": "--days"},

@@ -15,6 +15,7 @@ from typing import Iterable, Mapping
 
 from sqlalchemy.engine import Connection, Engine
 
+from kit.errors import ArgumentError
 from kit.services import Progress, no_progress
 
 
@@ -82,7 +83,7 @@ def _build_order(engine, vessel_ids, days, particulars, policy_file, progress) -
 
         vessels = read_particulars(particulars)
         if vessel_ids:
-            vessels = [v for v in vessels if v.id in set(vessel_ids)]
+            vessels = _chosen(vessels, vessel_ids, particulars)
         policy = load_policy(policy_file)
         results = assess_all(vessels, days, {v.id: policy for v in vessels}, progress)
         return consolidate(results), f"{len(vessels)} vessel(s) from {particulars}, no stock counted"
@@ -92,6 +93,26 @@ def _build_order(engine, vessel_ids, days, particulars, policy_file, progress) -
     scope = "whole fleet" if not vessel_ids else "selected vessels"
     return (consolidate(results, on_board, offers, purchasing),
             f"{scope}, {len(vessels)} vessel(s), stock from the fleet database")
+
+
+def _chosen(vessels: list, typed: Iterable[str], particulars: str) -> list:
+    """The vessels of ``typed`` among those read from ``particulars``, in the file's order: an id
+    matches in any letter case, as the fleet database matches it (:mod:`kit.store.vessel_ids`).
+    :class:`ArgumentError` ("vessel id") for an id that matches none, or more than one."""
+    by_fold: dict[str, list[str]] = {}
+    for vessel in vessels:
+        by_fold.setdefault(vessel.id.casefold(), []).append(vessel.id)
+    stored = {vessel.id for vessel in vessels}
+    wanted = set()
+    for vessel_id in typed:
+        matches = [vessel_id] if vessel_id in stored else by_fold.get(vessel_id.casefold(), [])
+        if len(matches) != 1:
+            shown = sorted(stored)
+            raise ArgumentError(str(particulars), "vessel id", "the id of a vessel in these particulars (letter case does not "
+                                "matter): " + ", ".join(shown[:8]) + (f" and {len(shown) - 8} more" if len(shown) > 8 else ""),
+                                got=repr(vessel_id))
+        wanted.add(matches[0])
+    return [vessel for vessel in vessels if vessel.id in wanted]
 
 
 def _order_sources(engine: Engine, vessel_ids: list[str], keys: set[str]) -> tuple:
