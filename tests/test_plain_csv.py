@@ -82,6 +82,7 @@ def test_what_is_not_plain_is_left_to_the_row_by_row_reader(tmp_path):
         "an empty record": "name,value\r\n\r\na,1\r\n",
         "a field that may be guarded": "name,value\r\n'=1+2,1\r\n",
         "a guard after space": "name,value\r\na, '=1\r\n",
+        "a guard after a tab separator": "name\tvalue\r\na\t'=1\r\n",
         "a control character": "name,value\r\na\x07,1\r\n",
         "an unknown column": "name,colour\r\na,1\r\n",
         "a column twice": "name,name\r\na,1\r\n",

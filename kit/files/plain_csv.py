@@ -48,7 +48,7 @@ def _may_guard(text: str, separator: str) -> bool:
     at = text.find("'")
     while at >= 0:
         before = at - 1
-        while before >= 0 and text[before] not in "\n\r" and text[before].isspace():
+        while before >= 0 and text[before] not in starts and text[before].isspace():  # a tab may be the separator
             before -= 1
         if before < 0 or text[before] in starts:
             return True
