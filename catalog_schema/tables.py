@@ -411,8 +411,8 @@ class EnquiryRow(SQLModel, table=True):
 
 class EnquiryLineRow(SQLModel, table=True):
     """One line of an enquiry: our line reference as the workbook shows it, the generic part it
-    asks for, and the designation and quantity written (a reply must hand them back unchanged).
-    (Revision 0007.)"""
+    asks for, and the designation, quantity, standard, compound and service conditions written (a
+    reply must hand them back unchanged). (Revision 0007; the last three, revision 0010.)"""
 
     __tablename__ = "enquiry_lines"
     __table_args__ = (CheckConstraint("quantity > 0", name="quantity"),)
@@ -424,6 +424,10 @@ class EnquiryLineRow(SQLModel, table=True):
     designation: str
     quantity: float
     uom: str
+    # the locked cells written beside the designation (revision 0010; null on older enquiries)
+    standard: Optional[str] = None
+    compound: Optional[str] = None
+    service: Optional[str] = None
 
 
 # The roles a person may hold on the office server (revision 0009; kit/engine/access.py says what each may do).

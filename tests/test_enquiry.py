@@ -240,7 +240,8 @@ def test_libreoffice_opens_every_enquiry_with_kits_figures(fleet, tmp_path):
         assert any("CAUTION" in cell for row in sheets["Enquiry"] for cell in row)
 
 
-@pytest.mark.parametrize("change", ["wrong line ref", "foreign enquiry", "designation", "quantity"])
+@pytest.mark.parametrize("change", ["wrong line ref", "foreign enquiry", "designation", "quantity", "Standard", "Compound",
+                                    "Service conditions"])
 def test_refused_replies_store_nothing(fleet, tmp_path, change):
     db, engine, _ = fleet
     files = _write(db, tmp_path / "enquiries")
@@ -264,6 +265,12 @@ def test_refused_replies_store_nothing(fleet, tmp_path, change):
         ws.cell(2, COL["Designation"] + 1, designation + " (any make)")
         expected = (f"{reply}, sheet Lines, row 2: column Designation: expected {designation!r} as we wrote it "
                     f"(a locked cell) (got {designation + ' (any make)'!r})")
+    elif change in ("Standard", "Compound", "Service conditions"):
+        # a quote for another compound (or standard, or service) would be stored as an offer for the part asked
+        written = ws.cell(2, COL[change] + 1).value
+        ws.cell(2, COL[change] + 1, "FKM")
+        shown = f"{written!r}" if written else "an empty cell"
+        expected = f"{reply}, sheet Lines, row 2: column {change}: expected {shown} as we wrote it (a locked cell) (got 'FKM')"
     else:
         ws.cell(2, COL["Quantity"] + 1, quantity + 1)
         expected = (f"{reply}, sheet Lines, row 2: column Quantity: expected {quantity:g} as we wrote it (a locked cell) "
@@ -346,3 +353,22 @@ def test_a_reply_by_date_already_past_is_refused(fleet, tmp_path):
     assert (result.exit_code, result.output) == (
         2, f"kit: error: kit enquiry write: --reply-by: expected today ({dt.date.today()}) or later (got {yesterday})\n")
     assert dump(engine) == before and not (tmp_path / "e").exists()
+
+
+def test_an_enquiry_recorded_before_its_texts_were_kept_is_held_to_the_rest(fleet, tmp_path):
+    # Enquiry lines written before schema revision 0010 hold no standard, compound or service
+    # conditions: a reply to one is held to its designation, quantity and unit only.
+    from sqlalchemy import update
+
+    from catalog_schema.core_tables import ENQUIRY_LINES
+
+    db, engine, _ = fleet
+    path = _write(db, tmp_path / "enquiries")[SEALS]
+    with engine.begin() as conn:
+        conn.execute(update(ENQUIRY_LINES).values(standard=None, compound=None, service=None))
+    reply = _fill(path, tmp_path / "reply.xlsx", {0: ("QS-OLD", 9.5, "EUR", "2 pcs", 3, None)})
+    wb = openpyxl.load_workbook(reply)
+    wb["Lines"].cell(2, COL["Compound"] + 1, "FKM")
+    wb.save(reply)
+    result = kit(db, "enquiry", "read", str(reply))
+    assert result.exit_code == 0, result.output

@@ -173,6 +173,10 @@ class AskedLine:
     designation: str
     quantity: float
     uom: str
+    # the other locked cells as written; None where the enquiry was recorded without them (before revision 0010)
+    standard: str | None = None
+    compound: str | None = None
+    service: str | None = None
 
 
 @dataclass(frozen=True)

@@ -6,7 +6,8 @@ per error naming the file, sheet, row, column and what was expected.
 :func:`read_reply` reads the workbook (safely, as every workbook is read: :mod:`kit.files.sheets`)
 and finds our enquiry reference on its cover; :func:`check_reply` then holds it against the
 enquiry as it was recorded: every line reference must be one of that enquiry's, and the cells we
-locked (headings, designation, quantity, unit) must be as we wrote them. A row whose supplier
+locked (headings, designation, standard, compound, service conditions, quantity, unit) must be as
+we wrote them (the three texts where the enquiry was recorded with them, revision 0010 on). A row whose supplier
 cells are all empty was not quoted: it is skipped and listed. A quoted row gives the supplier's
 part number, the unit price per pack and the currency (all three required: a quote without a price
 would replace the supplier's priced offer for the part), the pack (its content in the
@@ -30,6 +31,8 @@ from kit.files.safe_text import CONTROL, NO_CONTROL, checked_text
 from kit.files.sheets import Row, Table, read_sheets
 
 REF, DESIGNATION, QUANTITY, UOM = "Line ref", "Designation", "Quantity", "UoM"
+# The locked text cells beside the designation, and the recorded line's field each was written from.
+WRITTEN_TEXT = (("Standard", "standard"), ("Compound", "compound"), ("Service conditions", "service"))
 PART_NO, PRICE, CURRENCY, PACK, LEAD, REMARKS = (name for name, _, _ in REPLY_COLUMNS)
 LOCKED = "as we wrote it (a locked cell)"
 
@@ -142,6 +145,10 @@ def check_reply(reply: ReplyFile, asked: Asked) -> CheckedReply:
             raise table.error(row, QUANTITY, f"{line.quantity:g} {LOCKED}", v[QUANTITY])
         if v[UOM] != line.uom:
             raise table.error(row, UOM, f"{line.uom!r} {LOCKED}", v[UOM])
+        for column, name in WRITTEN_TEXT:
+            written = getattr(line, name)
+            if written is not None and v[column] != (written.strip() or None):  # as the sheet reader leaves a cell
+                raise table.error(row, column, f"{written!r} {LOCKED}" if written.strip() else f"an empty cell {LOCKED}", v[column])
         if all(v[name] is None for name, _, _ in REPLY_COLUMNS):
             skipped.append(ref)
             continue

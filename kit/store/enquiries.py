@@ -27,7 +27,8 @@ def record_enquiries(conn: Connection, written: Iterable[Enquiry]) -> None:
     conn.execute(insert(ENQUIRIES), [{"id": e.id, "supplier": e.supplier, "written_on": e.written_on, "reply_by": e.reply_by}
                                      for e in written])
     rows = [{"enquiry_id": e.id, "line": li.number, "ref": li.ref, "part_key": li.key, "designation": li.designation,
-             "quantity": li.quantity, "uom": li.uom} for e in written for li in e.lines]
+             "quantity": li.quantity, "uom": li.uom, "standard": li.standard, "compound": li.compound, "service": li.service}
+            for e in written for li in e.lines]
     if rows:
         conn.execute(insert(ENQUIRY_LINES), rows)
 
@@ -37,6 +38,7 @@ def asked(conn: Connection, enquiry_id: str) -> Asked | None:
     head = conn.execute(select(ENQUIRIES.c.supplier).where(ENQUIRIES.c.id == enquiry_id)).first()
     if head is None:
         return None
-    query = (select(ENQUIRY_LINES.c.ref, ENQUIRY_LINES.c.part_key, ENQUIRY_LINES.c.designation, ENQUIRY_LINES.c.quantity,
-                    ENQUIRY_LINES.c.uom).where(ENQUIRY_LINES.c.enquiry_id == enquiry_id).order_by(ENQUIRY_LINES.c.line))
+    c = ENQUIRY_LINES.c
+    query = (select(c.ref, c.part_key, c.designation, c.quantity, c.uom, c.standard, c.compound, c.service)
+             .where(c.enquiry_id == enquiry_id).order_by(c.line))
     return Asked(enquiry_id, head.supplier, {r.ref: AskedLine(*r) for r in conn.execute(query)})
