@@ -4,8 +4,9 @@ common case of a 100,000-row import, without a dictionary per row.
 
 The row-by-row check (:func:`kit.files.catalogue_sheet.check_rows`) is the definition of a good
 row and words every refusal. This pass gives the same entries for a file it takes: a cell at a
-time by column position, each distinct text of the short columns (currency, pack_qty, lead time,
-part kind, dimensions, spec, part key) worked out once by the functions that check calls. At the
+time by column position, each distinct field of a column (currency, pack_qty, lead time, price,
+part kind, dimensions, spec, part key, description, pack) worked out once, on first sight, by the
+functions that check calls; only the part number is new on every row. At the
 first cell it does not take as plainly good it stops and gives None, and the caller checks the
 file row by row, which words the refusal. tests/test_plain_catalogue.py holds the two to each other.
 """
