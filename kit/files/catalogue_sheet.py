@@ -136,10 +136,7 @@ def check_rows(table: Table, mark_option: str | None = None) -> list[Entry]:
         if not (pack.__class__ is str and pack.isascii() and pack.isdigit() and len(pack) < 7
                 and 1 <= (pack := int(pack)) <= MAX_PACK_QTY):
             pack = whole_number(table, row, "pack_qty", 1, MAX_PACK_QTY)
-        if v.get("pack") is None and key[:3] != "oil":  # pieces, no pack (pack_of's first case, inline)
-            pack_qty, content, label = pack or 1, None, None
-        else:
-            pack_qty, content, label = _pack(table, row, key, pack)
+        pack_qty, content, label = pack_of(table, row, key, pack)
         lead = v.get("lead_time_days")
         if lead is not None and not (lead.__class__ is str and lead.isascii() and lead.isdigit() and len(lead) < 5
                                      and (lead := int(lead)) <= MAX_DAYS):

@@ -106,8 +106,8 @@ def _entries(plain: PlainCsv, mark_option: str | None) -> list:
                 raise _NotPlain  # an inner diameter not smaller than the outer
             spec = specs[r[i_spec]]
             if spec is not None:
-                key = f"{key}:{spec}" if shape.fields is not _NO_FIELDS else key + spec
-            elif shape.fields is _NO_FIELDS:
+                key = f"{key}:{spec}"
+            elif not shape.dimensioned:
                 raise _NotPlain  # a kind without dimensions names its part by its spec
         qty = pack_qtys[r[i_qty]]
         pack = cells[r[i_pack]]
@@ -121,16 +121,10 @@ def _entries(plain: PlainCsv, mark_option: str | None) -> list:
     return out
 
 
-def _NO_FIELDS(record: list[str]) -> tuple[str, ...]:
-    """The dimension fields of a kind without dimensions."""
-    return ()
-
-
 class _Shape:
     """What a part kind's key is made of here: a function giving the fields of its dimensions, the
-    key as a template of their numbers as the key writes them ("rod_seal:d={}:D={}:L={}"; for a
-    kind without dimensions "spare:", the spec following), and the positions of the two diameters
-    that must be inner and outer."""
+    key as a template of their numbers as the key writes them ("rod_seal:d={}:D={}:L={}"; the
+    spec, if any, follows), and the positions of the two diameters that must be inner and outer."""
 
     def __init__(self, kind: str | None, at: dict[str, int]):
         shape = shape_of(kind)
@@ -138,12 +132,15 @@ class _Shape:
             raise _NotPlain  # no part kind: the row-by-row check names the kinds
         names, prefixes, pair = shape
         positions = tuple(at[name] for name in names)
-        self.fields: Callable[[list[str]], tuple[str, ...]] = _NO_FIELDS
+        self.dimensioned = bool(names)
+        self.fields: Callable[[list[str]], tuple[str, ...]]
         if len(names) > 1:
             self.fields = itemgetter(*positions)
         elif names:
             self.fields = lambda r, i=positions[0]: (r[i],)
-        self.template = ":".join([str(kind), *(prefix + "{}" for prefix in prefixes)]) + ("" if names else ":")
+        else:
+            self.fields = lambda r: ()
+        self.template = ":".join([str(kind), *(prefix + "{}" for prefix in prefixes)])
         self.pair = None if pair is None else (positions[pair[0]], positions[pair[1]])
 
 

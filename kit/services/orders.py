@@ -99,19 +99,19 @@ def _chosen(vessels: list, typed: Iterable[str], particulars: str) -> list:
     """The vessels of ``typed`` among those read from ``particulars``, in the file's order: an id
     matches in any letter case, as the fleet database matches it (:mod:`kit.store.vessel_ids`).
     :class:`ArgumentError` ("vessel id") for an id that matches none, or more than one."""
-    by_fold: dict[str, list[str]] = {}
-    for vessel in vessels:
-        by_fold.setdefault(vessel.id.casefold(), []).append(vessel.id)
-    stored = {vessel.id for vessel in vessels}
+    from kit.store.vessel_ids import by_fold, matched_id
+
+    stored = [vessel.id for vessel in vessels]
+    exact, folded = set(stored), by_fold(stored)
     wanted = set()
     for vessel_id in typed:
-        matches = [vessel_id] if vessel_id in stored else by_fold.get(vessel_id.casefold(), [])
-        if len(matches) != 1:
-            shown = sorted(stored)
+        found = matched_id(vessel_id, exact, folded)
+        if found is None:
+            shown = sorted(exact)
             raise ArgumentError(str(particulars), "vessel id", "the id of a vessel in these particulars (letter case does not "
                                 "matter): " + ", ".join(shown[:8]) + (f" and {len(shown) - 8} more" if len(shown) > 8 else ""),
                                 got=repr(vessel_id))
-        wanted.add(matches[0])
+        wanted.add(found)
     return [vessel for vessel in vessels if vessel.id in wanted]
 
 

@@ -10,7 +10,7 @@ ids read back, not by SQL ``lower()``, which SQLite applies to ASCII letters onl
 
 from __future__ import annotations
 
-from typing import Iterable
+from typing import Container, Iterable
 
 from sqlalchemy import select
 from sqlalchemy.engine import Connection
@@ -20,12 +20,26 @@ from catalog_schema.sql import in_batches
 from kit.errors import InputError, UnknownVesselError
 
 
-def _stored_by_fold(conn: Connection) -> dict[str, list[str]]:
-    """Every stored id by its case-folded form (one query; a fleet's ids are a few thousand at most)."""
+def by_fold(ids: Iterable[str]) -> dict[str, list[str]]:
+    """``ids`` by their case-folded form."""
     found: dict[str, list[str]] = {}
-    for (vessel_id,) in conn.execute(select(VESSELS.c.id).order_by(VESSELS.c.id)):
+    for vessel_id in ids:
         found.setdefault(vessel_id.casefold(), []).append(vessel_id)
     return found
+
+
+def matched_id(typed: str, exact: Container[str], folded: dict[str, list[str]]) -> str | None:
+    """The id ``typed`` names: itself when it is among ``exact``, else the one id of ``folded``
+    (:func:`by_fold`) equal to it but for letter case; None when none is, or more than one."""
+    if typed in exact:
+        return typed
+    matches = folded.get(typed.casefold(), [])
+    return matches[0] if len(matches) == 1 else None
+
+
+def _stored_by_fold(conn: Connection) -> dict[str, list[str]]:
+    """Every stored id by its case-folded form (one query; a fleet's ids are a few thousand at most)."""
+    return by_fold(conn.execute(select(VESSELS.c.id).order_by(VESSELS.c.id)).scalars())
 
 
 def resolve_vessel_ids(conn: Connection, typed: Iterable[str]) -> list[str]:
@@ -42,13 +56,10 @@ def resolve_vessel_ids(conn: Connection, typed: Iterable[str]) -> list[str]:
     folded = _stored_by_fold(conn)
     out = []
     for vessel_id in wanted:
-        if vessel_id in exact:
-            out.append(vessel_id)
-            continue
-        matches = folded.get(vessel_id.casefold(), [])
-        if len(matches) != 1:
+        found = matched_id(vessel_id, exact, folded)
+        if found is None:
             raise UnknownVesselError(vessel_id)
-        out.append(matches[0])
+        out.append(found)
     return out
 
 
