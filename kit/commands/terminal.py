@@ -128,8 +128,6 @@ def vessels_table(vessels: list, width: int = 80) -> Any:
     return fitted_table(VESSEL_COLUMNS, rows, width, title=f"{len(vessels)} vessel(s) in the fleet database")
 
 
-
-
 class _Rows:
     """The rows of a titled table, gathered before it is fitted (:func:`fitted_table`)."""
 
@@ -152,7 +150,7 @@ LINE_COLUMNS = [Col("unit"), Col("designation", wraps=True), Col("standard", 2, 
 def render(r, console) -> None:
     """Print the readable report of ``r`` on a rich ``console``, its tables fitted to its width."""
     from kit.engine.report import vessel_json
-    from kit.engine.report_rows import fmt, gear_rows, oil_words, seal_cells
+    from kit.engine.report_rows import gear_rows, oil_words, quantity, seal_cells
     from kit.files.safe_text import each_text
 
     width = console.width
@@ -175,7 +173,7 @@ def render(r, console) -> None:
             console.print(f"inspect {u['id']}: {line}")
         for w in u["warnings"]:
             console.print(f"[yellow]warning[/yellow] {u['id']}: {w}")
-    lines = [[li["unit"], li["designation"], li["standard"], li["compound"], fmt(float(li["quantity"]), "", 1 if li["uom"] == "L" else 0),
+    lines = [[li["unit"], li["designation"], li["standard"], li["compound"], quantity(float(li["quantity"]), li["uom"]),
               li["uom"], li["basis"]] for li in data["lines"]]
     console.print(fitted_table(LINE_COLUMNS, lines, width, title="Requirement list (to keep on board)"))
     for o in data["oil"]:

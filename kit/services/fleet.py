@@ -154,9 +154,7 @@ def fleet_page(engine: Engine, search: str = "", page: int = 1, per_page: int = 
     among = None if only is None else set(only)
     with read_transaction(engine) as conn:
         found = [v.id for v in _matching(vessel_labels(conn), search) if among is None or v.id in among]
-        pages = max(1, -(-len(found) // per_page))
-        page = min(max(1, page), pages)
-        ids = found[(page - 1) * per_page: page * per_page]
+        page, pages, ids = _one_page(found, page, per_page)
         shown = fleet_glance(conn, today, ids) if ids else []
         vessels = {v.id: v for v in read_vessels(conn, ids)} if ids else {}
         policies = policies_in_force(conn, ids, today) if ids else {}
@@ -189,7 +187,7 @@ def _one_page(rows: list, page: int, per_page: int) -> tuple[int, int, list]:
 @dataclass(frozen=True)
 class VesselsFound:
     """One page of the vessels to choose from (the order page's list): glance rows only, no vessel
-    worked out, so a thousand vessels cost one query."""
+    worked out, and only that page's vessels glanced at."""
 
     rows: list  # kit.store.fleet_overview.VesselGlance
     total: int  # vessels matching the search, over all pages
@@ -202,11 +200,11 @@ def find_vessels(engine: Engine, search: str = "", page: int = 1, per_page: int 
     """One page of the vessels whose id, name or ship type contains ``search`` (any letter case), sorted by id."""
     import datetime as dt
 
-    from kit.store.fleet_overview import fleet_glance
-
     from catalog_schema.engine import read_transaction
+    from kit.store.fleet_overview import fleet_glance, vessel_labels
 
-    with read_transaction(engine) as conn:
-        glance = _matching(fleet_glance(conn, today or dt.date.today()), search)
-    page, pages, shown = _one_page(glance, page, per_page)
-    return VesselsFound(shown, len(glance), page, pages, search)
+    with read_transaction(engine) as conn:  # the labels to find and page; the glance of that page's vessels only
+        found = [v.id for v in _matching(vessel_labels(conn), search)]
+        page, pages, ids = _one_page(found, page, per_page)
+        shown = fleet_glance(conn, today or dt.date.today(), ids) if ids else []
+    return VesselsFound(shown, len(found), page, pages, search)

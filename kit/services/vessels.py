@@ -23,7 +23,6 @@ class VesselView:
     """What the vessel page shows of one vessel."""
 
     vessel: Any  # the kit.engine.particulars.Vessel, as stored
-    result: Any  # its kit.engine.requirements.VesselResult over ``days`` under the policy in force
     report: dict  # the result as kit calc --json gives it (kit.engine.report.vessel_json), control characters made visible
     days: float  # the period worked out: the days of cover of the policy in force, else 0 (as kit calc's default)
     cover_days: int | None  # the days of cover of the policy in force (None: it states none)
@@ -62,7 +61,7 @@ def vessel_view(engine: Engine, vessel_id: str, today: dt.date | None = None) ->
             refused = str(exc)
         on_board = stock_on_board(conn, [vessel.id])
     short = None if cover is None else lines_short(result, on_board)
-    return VesselView(vessel, result, each_text(vessel_json(result), visible), days, cover, count, refused, short)
+    return VesselView(vessel, each_text(vessel_json(result), visible), days, cover, count, refused, short)
 
 
 def voyage_check(engine: Engine, vessel_id: str, days: float | None = None):

@@ -7,8 +7,8 @@ The choice is a GET form, so an order can be bookmarked and reloaded. Vessels ar
 ticking them in a list that is searched and paged (a fleet of a thousand is never listed whole)
 or by typing their ids; a vessel ticked on one page of the list stays chosen on the next, where
 it is written into the ids field. Writing enquiries records them in the fleet database, so it
-is a POST with the session's CSRF token; the workbooks are zipped in memory and offered on the
-page the POST redirects to, kept for this session only until a few newer ones replace them.
+is a POST with the session's CSRF token, answered with the zip of the workbooks itself (nothing
+is kept on the server for a later request).
 """
 
 from __future__ import annotations
@@ -36,7 +36,6 @@ router = APIRouter()
 PER_PAGE = 20  # vessels listed to tick at a time
 SOURCE = "order page"  # how a refusal names where the value came from
 PAPERS = (("a4", "A4"), ("letter", "US Letter"))
-XLSX = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
 _TYPED = re.compile(r"[\s,;]+")  # between ids a person types (an id with a space or comma in it is ticked instead)
 _CARRIED = re.compile(r"\n")  # between ids a page's hidden field carries (no stored text holds a control character)
 
@@ -181,16 +180,13 @@ def order_workbook(request: Request,
     """The order workbook, written by the same writer and with the same arguments as ``kit bom --out``."""
     from kit.files.workbook import write_workbook
 
+    from kit.web.sent_files import sent_file
+
     require(request, "download order")
     shown = _order_of(request.app.state.engine, Asked(scope == "fleet", _ids(ids, vessel, _CARRIED), days, hide, "line"))
-    folder = Path(tempfile.mkdtemp(prefix="kit-order-"))
-    try:
-        path = write_workbook(shown["order"], folder / "order.xlsx", shown["days"], shown["scope"], _paper(paper))
-        body = path.read_bytes()
-    finally:
-        shutil.rmtree(folder, ignore_errors=True)
-    return Response(body, media_type=XLSX, headers={
-        "content-disposition": f'attachment; filename="kit-order-{dt.date.today().isoformat()}.xlsx"'})
+    size = _paper(paper)
+    return sent_file(lambda path: write_workbook(shown["order"], path, shown["days"], shown["scope"], size),
+                     f"kit-order-{dt.date.today().isoformat()}.xlsx")
 
 
 @router.post("/order/enquiries")
