@@ -75,19 +75,19 @@ def engine(db_url):
 
 
 # Who did a change and when differ between two ways of making the same change (a page and the
-# command line), so the comparisons leave the audit trail out unless asked; its own tests read it.
+# command line): a comparison of the two leaves the audit trail out (``audit=False``).
 AUDIT = "audit_events"
 
 
-def dump(engine, tables=None) -> dict[str, list[tuple]]:
-    """Every row of every kit table but the audit trail (or of ``tables``), sorted, for
-    before/after comparisons."""
+def dump(engine, tables=None, *, audit: bool = True) -> dict[str, list[tuple]]:
+    """Every row of every kit table (or of ``tables``; the audit trail too unless ``audit`` is
+    False), sorted, for before/after comparisons."""
     from catalog_schema.tables import SQLModel
 
     out = {}
     with engine.connect() as conn:
         for table in SQLModel.metadata.sorted_tables:
-            if (tables is None and table.name != AUDIT) or (tables is not None and table.name in tables):
+            if (tables is None and (audit or table.name != AUDIT)) or (tables is not None and table.name in tables):
                 out[table.name] = sorted(tuple(r) for r in conn.execute(table.select()))
     return out
 

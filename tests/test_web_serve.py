@@ -189,8 +189,7 @@ def test_behind_a_proxy_only_the_trusted_proxy_is_believed(tmp_path, stop):
                                 "--behind-proxy", "--trusted-proxy", "127.0.0.1"),
                             stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
     stop(proc)
-    found = re.match(r"^kit: serving http://kit\.office\.test:(\d+)/ \(people sign in\)$", proc.stdout.readline().strip())
-    assert found
+    found, _ = serving_line(proc, re.compile(r"^kit: serving http://kit\.office\.test:(\d+)/ \(people sign in\)$"))
     port = int(found.group(1))
 
     def failed_sign_in(source: str):

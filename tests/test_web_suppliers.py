@@ -125,7 +125,7 @@ def test_the_decimal_mark_is_the_commands_option(web, tmp_path):
     with web.engine.connect() as conn:
         assert conn.execute(select(CATALOGUE_ENTRIES.c.price).where(CATALOGUE_ENTRIES.c.supplier_ref == "SC-1")).scalar() == 96.5
     line = cli_line(web.engine, path, "catalogue", "import", path, "--supplier", "Semicolon Oils", "--decimal-mark", "point")
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
+    said = refused_unchanged(web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
                                                                 supplier="Semicolon Oils", decimal="point"))
     # the command line names its option where the page names its field
     assert said == line.replace("--decimal-mark", "decimal mark") and said.startswith("semicolon.csv, line 2: column price: expected")
@@ -136,7 +136,7 @@ def test_one_bad_row_refuses_the_whole_catalogue_in_the_commands_words(web, tmp_
     text = path.read_text(encoding="utf-8").replace("12.5,EUR", "12.5,EURO", 1)
     path.write_text(text, encoding="utf-8")
     line = cli_line(web.engine, path, "catalogue", "import", path, "--supplier", SEALS)
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
+    said = refused_unchanged(web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
                                                                 supplier=SEALS))
     assert said == line and said.startswith("bad.csv, line 7: column currency: expected")
 
@@ -145,7 +145,7 @@ def test_a_bad_supplier_name_is_refused_as_by_the_command(web, tmp_path):
     path = mixed_catalogue(web, tmp_path / "c.csv")
     for name in ("Skerrow \x1b[31mSeals", "Skerrow\x85Seals", "   "):  # an escape sequence, a C1 control, nothing
         line = cli_line(web.engine, path, "catalogue", "import", path, "--supplier", name)
-        said = refused_unchanged(web, web.engine, lambda name=name: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
+        said = refused_unchanged(web.engine, lambda name=name: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
                                                                     supplier=name))
         # the command line names its option where the page names its field
         assert said == line.replace("--supplier", "supplier name") and said.startswith("c.csv: supplier name: expected")
@@ -228,7 +228,7 @@ def test_a_reply_with_a_changed_line_reference_is_refused_whole(web, tmp_path, e
     wb["Lines"].cell(2, 1, "E000101-000000-001")
     wb.save(reply)
     line = cli_line(web.engine, reply, "enquiry", "read", reply)
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, "/suppliers/reply", "/suppliers", "reply", reply))
+    said = refused_unchanged(web.engine, lambda: post_file(web, "/suppliers/reply", "/suppliers", "reply", reply))
     assert said == line and said.startswith("reply.xlsx, sheet Lines, row 2: column Line ref: expected a line reference")
 
 
@@ -236,7 +236,7 @@ def test_a_reply_with_a_changed_line_reference_is_refused_whole(web, tmp_path, e
 
 def both_refuse(web, path: Path, action: str, field: str, args: list, **fields) -> str:
     line = cli_line(web.engine, path, *args)
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, action, "/suppliers", field, path, **fields))
+    said = refused_unchanged(web.engine, lambda: post_file(web, action, "/suppliers", field, path, **fields))
     assert said == line
     assert str(path.parent) not in said and "kit-upload-" not in said  # never the temporary folder
     return said
@@ -346,32 +346,32 @@ def suffix_refused(web, tmp_path):
     assert catalogue_refused(web, path) == "catalogue.txt: file: expected a file ending in .xlsx or .csv (got '.txt')"
     reply = tmp_path / "reply.csv"
     reply.write_text("x\n", encoding="utf-8")
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, "/suppliers/reply", "/suppliers", "reply", reply))
+    said = refused_unchanged(web.engine, lambda: post_file(web, "/suppliers/reply", "/suppliers", "reply", reply))
     assert said == "reply.csv: file: expected a file ending in .xlsx (got '.csv')"
 
 
 def empty_none_or_two_refused(web, tmp_path, action, field, fields):
     empty = tmp_path / "empty.xlsx"
     empty.write_bytes(b"")
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, action, "/suppliers", field, empty, **fields))
+    said = refused_unchanged(web.engine, lambda: post_file(web, action, "/suppliers", field, empty, **fields))
     assert said == "empty.xlsx: file: expected a file with something in it (got an empty file)"
     what = "catalogue file" if field == "catalogue" else "enquiry reply"
     kinds = ".xlsx or .csv" if field == "catalogue" else ".xlsx"
-    said = refused_unchanged(web, web.engine, lambda: web.browser.post(action, data={"csrf": web.csrf("/suppliers"), **fields},
+    said = refused_unchanged(web.engine, lambda: web.browser.post(action, data={"csrf": web.csrf("/suppliers"), **fields},
                                                                        files={field: ("", b"", "application/octet-stream")}))
     assert said == f"{what}: expected a {kinds} file (got no file)"
     two = [(field, ("a.xlsx", b"PK", "application/octet-stream")), (field, ("b.xlsx", b"PK", "application/octet-stream"))]
-    said = refused_unchanged(web, web.engine, lambda: web.browser.post(action, data={"csrf": web.csrf("/suppliers"), **fields},
+    said = refused_unchanged(web.engine, lambda: web.browser.post(action, data={"csrf": web.csrf("/suppliers"), **fields},
                                                                        files=two))
     assert said == f"{what}: expected one {kinds} file (got 2 files)"
 
 
 def bad_fields_refused(web, tmp_path):
     path = mixed_catalogue(web, tmp_path / "c.csv")
-    said = refused_unchanged(web, web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
+    said = refused_unchanged(web.engine, lambda: post_file(web, "/suppliers/catalogue", "/suppliers", "catalogue", path,
                                                                 supplier=SEALS, decimal="dot"))
     assert said == "decimal mark: expected one of '', 'point', 'comma' (got 'dot')"
-    said = refused_unchanged(web, web.engine, lambda: web.browser.post(
+    said = refused_unchanged(web.engine, lambda: web.browser.post(
         "/suppliers/catalogue", data={"csrf": web.csrf("/suppliers")},
         files=[("catalogue", ("c.csv", path.read_bytes(), "text/csv")), ("supplier", ("n.txt", b"x", "text/plain"))]))
     assert said == "supplier name: expected text (got a file)"

@@ -49,7 +49,7 @@ def post_file(web, action: str, page: str, field: str, path: Path | None, name: 
     return web.browser.post(action, data={"csrf": web.csrf(page), **fields}, files=files)
 
 
-def refused_unchanged(web, engine, send) -> str:
+def refused_unchanged(engine, send) -> str:
     """``send()``'s refusal (status 400), the database unchanged by it: its sentence."""
     before = dump(engine)
     r = send()

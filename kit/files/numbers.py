@@ -104,17 +104,17 @@ def parse_decimal(text: str, mark: str) -> float | None:
     return float(text.replace(",", ".") if mark == "comma" else text)
 
 
-def days_typed(text: str, source: str = "", field: str = "days") -> float:
+def days_typed(text: str, source: str = "") -> float:
     """A period typed into a form, in days: a plain decimal with a point, more than 0 and at most
     :data:`MAX_DAYS`; anything else (text, a sign, NaN, an exponent, zero) is refused by
-    :class:`ArgumentError` naming ``field``.
+    :class:`ArgumentError` ("days").
 
     >>> days_typed(" 90 "), days_typed("0.5")
     (90.0, 0.5)
     """
     number = parse_decimal(text.strip(), "point")
     if number is None or not 0 < number <= MAX_DAYS:
-        raise ArgumentError(source, field, f"a plain number of days more than 0 and at most {MAX_DAYS}, e.g. 90",
+        raise ArgumentError(source, "days", f"a plain number of days more than 0 and at most {MAX_DAYS}, e.g. 90",
                             got=repr(text[:MAX_CHARS]))
     return number
 
